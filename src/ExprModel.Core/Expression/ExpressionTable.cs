@@ -1,0 +1,61 @@
+namespace ExprModel.Core.Expression;
+
+/// <summary>What the numbers in an expression table mean.</summary>
+public enum ExpressionUnit
+{
+    /// <summary>Raw read or UMI counts; normalised to CPM by each cell's library size.</summary>
+    Counts,
+    /// <summary>Counts per million.</summary>
+    Cpm,
+    /// <summary>Transcripts per million (accepted as given).</summary>
+    Tpm,
+    /// <summary>FPKM or RPKM (accepted as given).</summary>
+    Fpkm,
+    /// <summary>log(1 + CPM) or log2(1 + x) style values; undone before use, or refused with a reason.</summary>
+    LogTransformed,
+}
+
+/// <summary>Which axis of the file holds genes.</summary>
+public enum TableOrientation { GenesAsRows, CellsAsRows }
+
+/// <summary>
+/// An expression table reduced to what modelling needs: the kept genes' values per cell, every cell's library
+/// size (sum over all genes in the file, kept or not), the unit and how it was determined, and the orientation.
+/// Values are as read (not yet normalised); see <see cref="Normalised"/>.
+/// </summary>
+public sealed class ExpressionTable
+{
+    public required string Source { get; init; }
+    public required IReadOnlyList<string> CellIds { get; init; }
+    /// <summary>Kept gene identifiers exactly as written in the file, to their values per cell (same order as CellIds).</summary>
+    public required IReadOnlyDictionary<string, double[]> Genes { get; init; }
+    /// <summary>Sum of all values in each cell, over every gene of the file (used for CPM).</summary>
+    public required double[] LibrarySizes { get; init; }
+    /// <summary>How many genes the file held in all (kept or not).</summary>
+    public required int TotalGeneCount { get; init; }
+    public required ExpressionUnit Unit { get; init; }
+    /// <summary>Says how the unit was determined ("given by the user", "detected: integers with ...").</summary>
+    public required string UnitNote { get; init; }
+    public required TableOrientation Orientation { get; init; }
+    public required string OrientationNote { get; init; }
+    /// <summary>Warnings a user should read (duplicate ids, dropped rows...).</summary>
+    public IReadOnlyList<string> Notes { get; init; } = [];
+
+    /// <summary>
+    /// Values on a common linear scale: CPM for counts (value / library size * 1e6), TPM/FPKM/CPM as given.
+    /// Log-transformed tables must be converted by the reader before this is called.
+    /// </summary>
+    public double[] Normalised(string gene)
+    {
+        var v = Genes[gene];
+        if (Unit == ExpressionUnit.LogTransformed)
+            throw new InvalidOperationException($"{Source}: values are log-transformed; undo the transform before normalising.");
+        if (Unit != ExpressionUnit.Counts) return v;
+        var r = new double[v.Length];
+        for (int i = 0; i < v.Length; i++) r[i] = LibrarySizes[i] > 0 ? v[i] / LibrarySizes[i] * 1e6 : 0;
+        return r;
+    }
+}
+
+/// <summary>A bad expression or metadata file: says which file, line and column (or dataset path) and what is wrong.</summary>
+public sealed class ExpressionFormatException(string message) : Exception(message);

@@ -1,0 +1,98 @@
+namespace ExprModel.Core.Kinetics;
+
+/// <summary>How a gate's kinetics are written in its source paper.</summary>
+public enum GateKind
+{
+    /// <summary>dx/dt = alpha(V)(1 - x) - beta(V) x.</summary>
+    AlphaBeta,
+    /// <summary>dx/dt = (x_inf(V) - x) / tau(V).</summary>
+    SteadyStateAndTau,
+    /// <summary>Calcium-gated: x_inf = ca^n / (ca^n + Kd^n), constant tau (SK-type).</summary>
+    Calcium,
+}
+
+/// <summary>Calcium dependence of a calcium-gated subunit (Hill form).</summary>
+public sealed record CalciumSensitivity(double HalfActivationMm, double HillCoefficient, double TimeConstantMs);
+
+/// <summary>
+/// One gating variable raised to <see cref="Power"/>. Alpha/beta gates convert to steady state and time
+/// constant by x_inf = alpha/(alpha+beta), tau = 1/(alpha+beta) (Hodgkin &amp; Huxley 1952).
+/// </summary>
+public sealed record GateSpec
+{
+    public required string Name { get; init; }
+    public int Power { get; init; } = 1;
+    public GateKind Kind { get; init; } = GateKind.AlphaBeta;
+    public GateRate? Alpha { get; init; }
+    public GateRate? Beta { get; init; }
+    public GateRate? SteadyState { get; init; }
+    public GateRate? TimeConstantMs { get; init; }
+    public CalciumSensitivity? Calcium { get; init; }
+
+    /// <summary>The gate follows its steady state instantly (e.g. sodium activation in Wang &amp; Buzsaki 1996).</summary>
+    public bool Instantaneous { get; init; }
+
+    /// <summary>A published multiplier on both rates (e.g. phi = 5 in Wang &amp; Buzsaki 1996); tau is divided by it.</summary>
+    public double RateFactor { get; init; } = 1;
+
+    /// <summary>Steady-state open probability of this gate at V (mV) and intracellular calcium (mM).</summary>
+    public double SteadyStateAt(double vMv, double calciumMm = 5e-5)
+    {
+        switch (Kind)
+        {
+            case GateKind.AlphaBeta:
+                {
+                    double a = Alpha!.Evaluate(vMv), b = Beta!.Evaluate(vMv);
+                    return a / (a + b);
+                }
+            case GateKind.SteadyStateAndTau:
+                return SteadyState!.Evaluate(vMv);
+            case GateKind.Calcium:
+                {
+                    var c = Calcium!;
+                    double cn = Math.Pow(Math.Max(calciumMm, 0), c.HillCoefficient);
+                    return cn / (cn + Math.Pow(c.HalfActivationMm, c.HillCoefficient));
+                }
+            default:
+                throw new InvalidOperationException($"Unknown gate kind {Kind}.");
+        }
+    }
+
+    /// <summary>Time constant (ms) at V before temperature scaling, including the rate factor.</summary>
+    public double TimeConstantAt(double vMv)
+    {
+        switch (Kind)
+        {
+            case GateKind.AlphaBeta:
+                return 1 / ((Alpha!.Evaluate(vMv) + Beta!.Evaluate(vMv)) * RateFactor);
+            case GateKind.SteadyStateAndTau:
+                return TimeConstantMs!.Evaluate(vMv) / RateFactor;
+            case GateKind.Calcium:
+                return Calcium!.TimeConstantMs / RateFactor;
+            default:
+                throw new InvalidOperationException($"Unknown gate kind {Kind}.");
+        }
+    }
+
+    /// <summary>Returns a description of the first inconsistency, naming the parameter, or null.</summary>
+    public string? Problem()
+    {
+        if (Power < 1 || Power > 8) return $"gate {Name}: power must be 1 to 8";
+        if (!(RateFactor > 0) || double.IsInfinity(RateFactor)) return $"gate {Name}: rateFactor must be positive";
+        switch (Kind)
+        {
+            case GateKind.AlphaBeta:
+                if (Alpha is null || Beta is null) return $"gate {Name}: alpha and beta are both required";
+                return Alpha.Problem() is { } pa ? $"gate {Name} alpha: {pa}" : Beta.Problem() is { } pb ? $"gate {Name} beta: {pb}" : null;
+            case GateKind.SteadyStateAndTau:
+                if (SteadyState is null || (TimeConstantMs is null && !Instantaneous)) return $"gate {Name}: steadyState and tauMs are required";
+                return SteadyState.Problem() is { } ps ? $"gate {Name} steadyState: {ps}" : TimeConstantMs?.Problem() is { } pt ? $"gate {Name} tauMs: {pt}" : null;
+            case GateKind.Calcium:
+                if (Calcium is null) return $"gate {Name}: calcium sensitivity is required";
+                if (!(Calcium.HalfActivationMm > 0) || !(Calcium.HillCoefficient > 0) || !(Calcium.TimeConstantMs > 0))
+                    return $"gate {Name}: calcium halfActivationMm, hill and tauMs must be positive";
+                return null;
+        }
+        return null;
+    }
+}

@@ -1,0 +1,166 @@
+using System.Text.Json;
+using System.Text.Json.Nodes;
+using System.Text.Json.Serialization;
+using ExprModel.Core.Cell;
+using ExprModel.Core.Kinetics;
+
+namespace ExprModel.Core.Models;
+
+/// <summary>
+/// ExprModel's own model file: a JSON document with a format tag and schema version that pins every catalog
+/// entry by id and version. Documented in DEVELOPERS.md ("Model file").
+/// </summary>
+public sealed record ModelDocument
+{
+    public const string FormatTag = "exprmodel-model";
+    public const int CurrentSchemaVersion = 1;
+
+    public string Format { get; init; } = FormatTag;
+    public int SchemaVersion { get; init; } = CurrentSchemaVersion;
+    public string Name { get; init; } = "model";
+    public string Description { get; init; } = "";
+    /// <summary>For published models: the paper the whole model comes from.</summary>
+    public string Citation { get; init; } = "";
+    public required CellGeometryDocument Cell { get; init; }
+    public double TemperatureC { get; init; } = 36;
+    public double InitialVoltageMv { get; init; } = -65;
+    public IonConcentrations? Ions { get; init; }
+    public CalciumShell? CalciumShell { get; init; }
+    public required IReadOnlyList<ChannelDocument> Channels { get; init; }
+    /// <summary>How the densities were derived (expression rule, reference, inputs); free-form but always kept.</summary>
+    public JsonObject? Derivation { get; init; }
+    public string Notes { get; init; } = "";
+    /// <summary>Written on every export (research-use caution).</summary>
+    public string? Caution { get; init; }
+
+    public static JsonSerializerOptions JsonOptions { get; } = CreateOptions();
+
+    private static JsonSerializerOptions CreateOptions()
+    {
+        var o = new JsonSerializerOptions(JsonSerializerDefaults.Web)
+        {
+            WriteIndented = true,
+            DefaultIgnoreCondition = JsonIgnoreCondition.WhenWritingNull,
+            UnmappedMemberHandling = JsonUnmappedMemberHandling.Disallow,
+            AllowTrailingCommas = false,
+            ReadCommentHandling = JsonCommentHandling.Skip,
+        };
+        o.Converters.Add(new JsonStringEnumConverter(JsonNamingPolicy.KebabCaseLower));
+        return o;
+    }
+
+    /// <summary>Parses a model file; errors name the file, line and JSON path.</summary>
+    public static ModelDocument Parse(string json, string fileName = "model.json")
+    {
+        ModelDocument? doc;
+        try
+        {
+            doc = JsonSerializer.Deserialize<ModelDocument>(json, JsonOptions);
+        }
+        catch (JsonException e)
+        {
+            throw new ModelFileException($"{fileName}: line {(e.LineNumber ?? 0) + 1}, position {(e.BytePositionInLine ?? 0) + 1}, at {e.Path}: {Clean(e.Message)}");
+        }
+        if (doc is null) throw new ModelFileException($"{fileName}: the file holds no model (null).");
+        if (doc.Format != FormatTag) throw new ModelFileException($"{fileName}: field 'format' must be \"{FormatTag}\" (got \"{doc.Format}\").");
+        if (doc.SchemaVersion != CurrentSchemaVersion) throw new ModelFileException($"{fileName}: schemaVersion {doc.SchemaVersion} is not supported (this program reads {CurrentSchemaVersion}).");
+        if (doc.Channels is null || doc.Channels.Count == 0) throw new ModelFileException($"{fileName}: 'channels' must list at least one channel.");
+        if (doc.Cell is null) throw new ModelFileException($"{fileName}: 'cell' is required.");
+        for (int i = 0; i < doc.Channels.Count; i++)
+        {
+            var c = doc.Channels[i];
+            if (string.IsNullOrWhiteSpace(c.Entry)) throw new ModelFileException($"{fileName}: channels[{i}].entry is missing.");
+            if (!(c.DensityMsPerCm2 >= 0) || double.IsInfinity(c.DensityMsPerCm2)) throw new ModelFileException($"{fileName}: channels[{i}] ({c.Entry}).densityMsPerCm2 must be a number >= 0.");
+            if (!(c.RelativeDensity >= 0) || double.IsInfinity(c.RelativeDensity)) throw new ModelFileException($"{fileName}: channels[{i}] ({c.Entry}).relativeDensity must be a number >= 0.");
+        }
+        return doc;
+    }
+
+    private static string Clean(string m)
+    {
+        int i = m.IndexOf(" Path:", StringComparison.Ordinal);
+        return i > 0 ? m[..i] : m;
+    }
+
+    public string ToJson() => JsonSerializer.Serialize(this, JsonOptions);
+
+    /// <summary>Builds the simulatable cell, resolving each channel's entry (id, pinned version or latest).</summary>
+    public CellModel ToCellModel(Func<string, int?, ChannelEntry> resolve)
+    {
+        var channels = new List<ChannelInstance>();
+        foreach (var c in Channels)
+        {
+            var entry = resolve(c.Entry, c.Version);
+            channels.Add(new ChannelInstance
+            {
+                Entry = entry,
+                DensityMsPerCm2 = c.DensityMsPerCm2,
+                RelativeDensity = c.RelativeDensity,
+                ReversalMv = c.ReversalMv,
+                ShiftMv = c.ShiftMv,
+                TauScale = c.TauScale,
+            });
+        }
+        return new CellModel
+        {
+            Name = Name,
+            Geometry = Cell.ToGeometry(),
+            TemperatureC = TemperatureC,
+            Ions = Ions ?? IonConcentrations.Mammalian,
+            CalciumShell = CalciumShell,
+            Channels = channels,
+            InitialVoltageMv = InitialVoltageMv,
+        };
+    }
+
+    /// <summary>The same document with every channel pinned to the version <paramref name="resolve"/> gives.</summary>
+    public ModelDocument Pinned(Func<string, int?, ChannelEntry> resolve) =>
+        this with { Channels = Channels.Select(c => c with { Version = resolve(c.Entry, c.Version).Version }).ToArray() };
+
+    /// <summary>The same document with relative densities set from a map of entry id to slider value.</summary>
+    public ModelDocument WithRelativeDensities(IReadOnlyDictionary<string, double> relative) =>
+        this with { Channels = Channels.Select(c => relative.TryGetValue(c.Entry, out var r) ? c with { RelativeDensity = r } : c).ToArray() };
+}
+
+/// <summary>Geometry as written in a model file: exactly one of area, diameter or whole-cell capacitance.</summary>
+public sealed record CellGeometryDocument
+{
+    public double? AreaUm2 { get; init; }
+    public double? DiameterUm { get; init; }
+    public double? CapacitancePf { get; init; }
+    public double CapacitanceUfPerCm2 { get; init; } = 1.0;
+
+    public Geometry ToGeometry()
+    {
+        int given = (AreaUm2 is null ? 0 : 1) + (DiameterUm is null ? 0 : 1) + (CapacitancePf is null ? 0 : 1);
+        if (given != 1) throw new ModelFileException("cell: give exactly one of areaUm2, diameterUm or capacitancePf.");
+        if (!(CapacitanceUfPerCm2 > 0)) throw new ModelFileException("cell.capacitanceUfPerCm2 must be positive.");
+        if (AreaUm2 is { } a) return a > 0 ? new Geometry { AreaUm2 = a, CapacitanceUfPerCm2 = CapacitanceUfPerCm2 } : throw new ModelFileException("cell.areaUm2 must be positive.");
+        if (DiameterUm is { } d) return d > 0 ? Geometry.FromDiameter(d, CapacitanceUfPerCm2) : throw new ModelFileException("cell.diameterUm must be positive.");
+        return CapacitancePf > 0 ? Geometry.FromCapacitance(CapacitancePf!.Value, CapacitanceUfPerCm2) : throw new ModelFileException("cell.capacitancePf must be positive.");
+    }
+}
+
+/// <summary>One channel of a model file.</summary>
+public sealed record ChannelDocument
+{
+    public required string Entry { get; init; }
+    /// <summary>The pinned catalog version; absent means "latest", and saving pins it.</summary>
+    public int? Version { get; init; }
+    public required double DensityMsPerCm2 { get; init; }
+    public double RelativeDensity { get; init; } = 1;
+    public double? ReversalMv { get; init; }
+    public double ShiftMv { get; init; }
+    public double TauScale { get; init; } = 1;
+}
+
+/// <summary>A model file that cannot be read, with file, line and field.</summary>
+public sealed class ModelFileException(string message) : Exception(message);
+
+/// <summary>The research-use caution shown with every prediction and written into every export.</summary>
+public static class ResearchCaution
+{
+    public const string Text =
+        "Research tool. Predictions are hypotheses about a simplified single-compartment cell from mRNA, not measurements, " +
+        "and are not for clinical or diagnostic use (for example, judging a patient's channel variant).";
+}

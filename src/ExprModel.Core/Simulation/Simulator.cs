@@ -1,0 +1,231 @@
+using System.Collections.Concurrent;
+
+namespace ExprModel.Core.Simulation;
+
+/// <summary>
+/// The fast fixed-step integrator. Gates live at half steps and V at whole steps (a staggered scheme):
+/// each gate takes the exact exponential update for the V of the step's midpoint from a rate table, then V
+/// takes the exact exponential update of the linear membrane equation with conductances frozen at their
+/// midpoint values. Both updates are unconditionally stable, and staggering makes the scheme second order.
+/// Sweeps run one lane per stimulus, in parallel over the machine's cores.
+/// </summary>
+public static class Simulator
+{
+    private static readonly ConditionalWeakTable<CompiledCell, ConcurrentDictionary<double, RateTable>> Tables = new();
+
+    internal static RateTable TableFor(CompiledCell cell, double dtMs) =>
+        Tables.GetOrCreateValue(cell).GetOrAdd(dtMs, dt => new RateTable(cell, dt));
+
+    /// <summary>Runs one current-clamp simulation and records the trace.</summary>
+    public static Trace Run(CompiledCell cell, Stimulus stimulus, double durationMs, SimulationSettings? settings = null,
+        CellState? initial = null, CancellationToken cancel = default)
+    {
+        settings ??= SimulationSettings.Default;
+        Validate(durationMs, settings);
+        int steps = (int)Math.Round(durationMs / settings.DtMs);
+        var stim = stimulus.Sample(settings.DtMs, steps);
+        return Lane.Run(cell, TableFor(cell, settings.DtMs), stim, steps, settings, initial ?? cell.InitialState(), cancel);
+    }
+
+    /// <summary>Runs many stimuli on the same cell in parallel, recording only spikes (the f-I path).</summary>
+    public static IReadOnlyList<IReadOnlyList<double>> SpikeTimes(CompiledCell cell, IReadOnlyList<Stimulus> stimuli, double durationMs,
+        SimulationSettings? settings = null, CellState? initial = null, CancellationToken cancel = default)
+    {
+        settings = (settings ?? SimulationSettings.Default) with { RecordEvery = 0, RecordCurrents = false };
+        Validate(durationMs, settings);
+        int steps = (int)Math.Round(durationMs / settings.DtMs);
+        var table = TableFor(cell, settings.DtMs);
+        var start = initial ?? cell.InitialState();
+        var result = new IReadOnlyList<double>[stimuli.Count];
+        var options = new ParallelOptions { CancellationToken = cancel, MaxDegreeOfParallelism = Environment.ProcessorCount };
+        Parallel.For(0, stimuli.Count, options, i =>
+        {
+            var stim = stimuli[i].Sample(settings.DtMs, steps);
+            result[i] = Lane.Run(cell, table, stim, steps, settings, start, cancel).SpikeTimesMs;
+        });
+        return result;
+    }
+
+    private static void Validate(double durationMs, SimulationSettings s)
+    {
+        if (!(s.DtMs > 0) || s.DtMs > 1) throw new ArgumentOutOfRangeException(nameof(s), $"dtMs must lie in (0, 1] ms (got {s.DtMs}).");
+        if (!(durationMs > 0) || durationMs > 600_000) throw new ArgumentOutOfRangeException(nameof(durationMs), $"durationMs must lie in (0, 600000] (got {durationMs}).");
+        if (s.RecordEvery < 0) throw new ArgumentOutOfRangeException(nameof(s), "recordEvery must be >= 0.");
+    }
+
+    /// <summary>The hot loop for one stimulus. Flat arrays, no allocation per step.</summary>
+    private static class Lane
+    {
+        public static Trace Run(CompiledCell cell, RateTable table, double[] stim, int steps, SimulationSettings settings, CellState init, CancellationToken cancel)
+        {
+            int gateCount = cell.GateCount, channelCount = cell.ChannelCount;
+            double dt = settings.DtMs;
+            var x = (double[])init.Gates.Clone();
+            double v = init.VoltageMv, ca = init.CalciumMm;
+            var data = table.Data;
+            var caDecay = table.CalciumDecay;
+            var gbar = cell.Gbar;
+            var erev = cell.Erev;
+            var mode = cell.Mode;
+            var gateStart = cell.GateStart;
+            var gateEnd = cell.GateEnd;
+            var power = cell.GatePower;
+            var isCa = cell.GateIsCalcium;
+            bool anyCalciumGate = isCa.Any(b => b);
+            bool anySpecial = mode.Any(m => m != DriveMode.Ohmic);
+            double cm = cell.CapacitanceUfPerCm2;
+            double invRes = 1.0 / RateTable.ResolutionMv;
+            int maxIndex = table.Points - 2;
+            bool hasShell = cell.HasShell;
+            double shellDecay = hasShell ? Math.Exp(-dt / cell.ShellDecayMs) : 0;
+            double shellGain = hasShell ? cell.ShellInflowPerCurrent * cell.ShellDecayMs : 0;
+            double shellRest = cell.ShellRestMm;
+
+            int every = settings.RecordEvery;
+            int samples = every > 0 ? steps / every + 1 : 0;
+            var tRec = new double[samples];
+            var vRec = new double[samples];
+            var iRec = new double[samples];
+            double[][]? currents = every > 0 && settings.RecordCurrents ? Enumerable.Range(0, channelCount).Select(_ => new double[samples]).ToArray() : null;
+            double[]? caRec = every > 0 && hasShell ? new double[samples] : null;
+            var spikes = new List<double>();
+            var detector = new SpikeDetector(settings.Spikes);
+            detector.Feed(0, v, dt);
+            var g = new double[channelCount];
+            if (every > 0)
+            {
+                vRec[0] = v;
+                if (caRec is not null) caRec[0] = ca;
+                if (currents is not null) RecordCurrents(cell, currents, 0, v, x, ca);
+            }
+
+            for (int s = 0; s < steps; s++)
+            {
+                if ((s & 0xFFFF) == 0 && cancel.IsCancellationRequested) cancel.ThrowIfCancellationRequested();
+                double pos = (v - RateTable.MinMv) * invRes;
+                if (pos < 0) pos = 0;
+                else if (pos > maxIndex) pos = maxIndex;
+                int i = (int)pos;
+                double f = pos - i;
+                int j = 2 * i;
+                for (int k = 0; k < gateCount; k++)
+                {
+                    var t = data[k];
+                    if (t is null)
+                    {
+                        double inf = cell.GateSteadyState(k, v, ca);
+                        x[k] = inf + (x[k] - inf) * caDecay[k];
+                        continue;
+                    }
+                    double a = t[j] + f * (t[j + 2] - t[j]);
+                    double b = t[j + 1] + f * (t[j + 3] - t[j + 1]);
+                    x[k] = a * x[k] + b;
+                }
+
+                double gSum = 0, gE = 0, extra = 0;
+                for (int c = 0; c < channelCount; c++)
+                {
+                    double gc = gbar[c];
+                    for (int k = gateStart[c]; k < gateEnd[c]; k++)
+                    {
+                        double xv = x[k], p = xv;
+                        for (int q = 1; q < power[k]; q++) p *= xv;
+                        gc *= p;
+                    }
+                    g[c] = gc;
+                    if (!anySpecial || mode[c] == DriveMode.Ohmic)
+                    {
+                        gSum += gc;
+                        gE += gc * erev[c];
+                    }
+                    else
+                    {
+                        extra += cell.ChannelCurrent(c, v, x, ca);
+                    }
+                }
+                double iStim = stim[s];
+                double vOld = v;
+                if (gSum > 1e-12)
+                {
+                    double vInf = (gE + iStim - extra) / gSum;
+                    v = vInf + (v - vInf) * Math.Exp(-dt * gSum / cm);
+                }
+                else
+                {
+                    v += dt * (iStim - extra) / cm;
+                }
+
+                if (hasShell)
+                {
+                    double ica = cell.CalciumCurrent(0.5 * (v + vOld), x, ca);
+                    double caInf = shellRest - shellGain * ica;
+                    ca = caInf + (ca - caInf) * shellDecay;
+                    if (ca < 0) ca = 0;
+                }
+
+                if (!(v > -1000 && v < 1000))
+                    throw BlowUp(cell, (s + 1) * dt, vOld, x, ca, iStim);
+
+                double time = (s + 1) * dt;
+                double spike = detector.Feed(time, v, dt);
+                if (!double.IsNaN(spike)) spikes.Add(spike);
+
+                if (every > 0 && (s + 1) % every == 0)
+                {
+                    int r = (s + 1) / every;
+                    tRec[r] = time;
+                    vRec[r] = v;
+                    iRec[r] = iStim;
+                    if (caRec is not null) caRec[r] = ca;
+                    if (currents is not null) RecordCurrents(cell, currents, r, v, x, ca);
+                }
+            }
+            _ = anyCalciumGate;
+            var dict = new Dictionary<string, double[]>();
+            if (currents is not null)
+                for (int c = 0; c < channelCount; c++) dict[UniqueLabel(cell, c, dict)] = currents[c];
+            return new Trace
+            {
+                SampleIntervalMs = every > 0 ? every * dt : 0,
+                TimeMs = tRec,
+                VoltageMv = vRec,
+                StimulusUaPerCm2 = iRec,
+                ChannelCurrentsUaPerCm2 = dict,
+                CalciumMm = caRec,
+                SpikeTimesMs = spikes,
+                FinalState = new CellState(v, x, ca),
+                DurationMs = steps * dt,
+            };
+        }
+
+        private static void RecordCurrents(CompiledCell cell, double[][] currents, int r, double v, double[] x, double ca)
+        {
+            for (int c = 0; c < cell.ChannelCount; c++) currents[c][r] = cell.ChannelCurrent(c, v, x, ca);
+        }
+    }
+
+    internal static string UniqueLabel(CompiledCell cell, int c, IReadOnlyDictionary<string, double[]> taken)
+    {
+        string id = cell.Model.Channels[c].Entry.Id;
+        if (!taken.ContainsKey(id)) return id;
+        int n = 2;
+        while (taken.ContainsKey($"{id}#{n}")) n++;
+        return $"{id}#{n}";
+    }
+
+    internal static SimulationBlowUpException BlowUp(CompiledCell cell, double timeMs, double vBefore, double[] x, double ca, double iStim)
+    {
+        string worst = "(none)";
+        double worstI = 0;
+        for (int c = 0; c < cell.ChannelCount; c++)
+        {
+            double i = Math.Abs(cell.ChannelCurrent(c, vBefore, x, ca));
+            if (double.IsNaN(i) || i > worstI) { worstI = double.IsNaN(i) ? double.PositiveInfinity : i; worst = cell.Model.Channels[c].Entry.Key; }
+        }
+        var state = new CellState(vBefore, (double[])x.Clone(), ca);
+        return new SimulationBlowUpException(
+            $"Simulation left the physical range at t = {timeMs:F3} ms (V before the step {vBefore:G4} mV, stimulus {iStim:G4} uA/cm2); " +
+            $"largest current from channel {worst} ({worstI:G4} uA/cm2). Check that channel's density and the stimulus amplitude.",
+            timeMs, worst, state);
+    }
+}

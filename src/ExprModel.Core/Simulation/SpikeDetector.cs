@@ -1,0 +1,69 @@
+namespace ExprModel.Core.Simulation;
+
+/// <summary>
+/// Spike detection used everywhere (online in the integrator, offline on traces): an upward crossing of
+/// <see cref="LevelMv"/> (default -20 mV, common practice) while armed; re-armed once the potential has fallen
+/// below the level again and <see cref="RefractoryMs"/> has passed. Spike time is the linearly interpolated crossing.
+/// </summary>
+public readonly record struct SpikeDetection(double LevelMv = -20, double RefractoryMs = 1.0)
+{
+    public static SpikeDetection Default => new(-20, 1.0);
+}
+
+/// <summary>Streaming state of a <see cref="SpikeDetection"/> over one trace.</summary>
+public struct SpikeDetector
+{
+    private readonly double _level;
+    private readonly double _refractory;
+    private bool _armed;
+    private double _lastSpike;
+    private double _lastV;
+    private bool _started;
+
+    public SpikeDetector(SpikeDetection settings)
+    {
+        _level = settings.LevelMv;
+        _refractory = settings.RefractoryMs;
+        _armed = true;
+        _lastSpike = double.NegativeInfinity;
+        _lastV = double.NaN;
+        _started = false;
+    }
+
+    /// <summary>Feeds the sample at time t; returns the interpolated spike time or NaN.</summary>
+    public double Feed(double tMs, double vMv, double dtMs)
+    {
+        double result = double.NaN;
+        if (_started)
+        {
+            if (!_armed && vMv < _level && tMs - _lastSpike >= _refractory) _armed = true;
+            if (_armed && _lastV < _level && vMv >= _level)
+            {
+                double frac = (_level - _lastV) / (vMv - _lastV);
+                result = tMs - dtMs + frac * dtMs;
+                _lastSpike = result;
+                _armed = false;
+            }
+        }
+        else
+        {
+            _started = true;
+            _armed = vMv < _level;
+        }
+        _lastV = vMv;
+        return result;
+    }
+
+    /// <summary>All spike times (ms) in a uniformly sampled trace.</summary>
+    public static List<double> Detect(ReadOnlySpan<double> voltageMv, double dtMs, double startMs = 0, SpikeDetection? settings = null)
+    {
+        var d = new SpikeDetector(settings ?? SpikeDetection.Default);
+        var spikes = new List<double>();
+        for (int i = 0; i < voltageMv.Length; i++)
+        {
+            double s = d.Feed(startMs + i * dtMs, voltageMv[i], dtMs);
+            if (!double.IsNaN(s)) spikes.Add(s);
+        }
+        return spikes;
+    }
+}

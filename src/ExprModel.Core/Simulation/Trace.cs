@@ -1,0 +1,30 @@
+namespace ExprModel.Core.Simulation;
+
+/// <summary>Settings of one simulation run.</summary>
+public sealed record SimulationSettings
+{
+    /// <summary>Fixed step (ms); 25 us is common practice for single compartments.</summary>
+    public double DtMs { get; init; } = 0.025;
+    /// <summary>Keep every Nth sample in the recorded trace (0 = record nothing but spikes).</summary>
+    public int RecordEvery { get; init; } = 1;
+    public bool RecordCurrents { get; init; }
+    public SpikeDetection Spikes { get; init; } = SpikeDetection.Default;
+
+    public static SimulationSettings Default { get; } = new();
+    public static SimulationSettings SpikesOnly { get; } = new() { RecordEvery = 0 };
+}
+
+/// <summary>A recorded current-clamp run: membrane potential, optional channel currents, stimulus and spikes.</summary>
+public sealed class Trace
+{
+    public required double SampleIntervalMs { get; init; }
+    public required double[] TimeMs { get; init; }
+    public required double[] VoltageMv { get; init; }
+    public required double[] StimulusUaPerCm2 { get; init; }
+    /// <summary>Per channel id, membrane current density (uA/cm2, outward positive), when recorded.</summary>
+    public IReadOnlyDictionary<string, double[]> ChannelCurrentsUaPerCm2 { get; init; } = new Dictionary<string, double[]>();
+    public double[]? CalciumMm { get; init; }
+    public required IReadOnlyList<double> SpikeTimesMs { get; init; }
+    public required CellState FinalState { get; init; }
+    public required double DurationMs { get; init; }
+}
