@@ -20,6 +20,9 @@ public sealed class WorkspaceState
     /// <summary>Models built from the expression table, by group (or cell) name, for the Workbench's comparison overlay.</summary>
     public Dictionary<string, ModelDocument> GroupModels { get; } = new(StringComparer.Ordinal);
 
+    /// <summary>The user's answers on the Load page (blank = detect).</summary>
+    public IntakeChoices Intake { get; } = new();
+
     public event Action? Changed;
 
     public void Open(ModelDocument model, string origin, string? parentSnapshotId = null)
@@ -29,4 +32,12 @@ public sealed class WorkspaceState
         ParentSnapshotId = parentSnapshotId;
         Changed?.Invoke();
     }
+}
+
+/// <summary>Orientation, unit and grouping as confirmed on the Load page; empty strings mean "detect" or "none".</summary>
+public sealed class IntakeChoices
+{
+    public string Orientation { get; set; } = "";
+    public string Unit { get; set; } = "";
+    public string GroupColumn { get; set; } = "";
 }
