@@ -17,7 +17,7 @@ public static class SimulationApi
                 return TypedResults.Ok(new SimulateResponse(view.FullTimeMs, view.FullVoltageMv, view.FullStimulusUaPerCm2, view.SpikeTimesMs, ResearchCaution.Text));
             })
             .WithName("Simulate")
-            .WithSummary("Runs one current-clamp step (amplitude in uA/cm2) and returns the voltage trace every 50 us and the spike times.")
+            .WithSummary("Runs one current-clamp step (amplitude in uA/cm2) and returns the voltage trace at every 25 us integration step and the spike times.")
             .ProducesProblem(400).ProducesProblem(503);
 
         api.MapPost("/fi", async Task<Ok<FiResponse>> (FiRequest request, ModelRunner runner, CancellationToken cancel) =>

@@ -81,7 +81,7 @@ public sealed class ModelRunner(ChannelCatalog catalog, SimulationGate gate)
     public static StepView Step(CompiledCell cell, StepProtocol step, CancellationToken cancel)
     {
         var stimulus = new StepCurrent(step.DelayMs, step.StepMs, step.AmplitudeUaPerCm2);
-        var settings = SimulationSettings.Default with { RecordEvery = 2, RecordCurrents = true };
+        var settings = SimulationSettings.Default with { RecordEvery = 1, RecordCurrents = true };
         Trace trace;
         try
         {
