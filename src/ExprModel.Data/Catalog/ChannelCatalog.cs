@@ -50,6 +50,9 @@ public sealed class ChannelCatalog
 
     public bool Contains(string id) => _latest.ContainsKey(id);
 
+    /// <summary>What the expression mapping needs: latest entries, links, statuses, identifiers.</summary>
+    public ExprModel.Core.Mapping.MappingCatalog ForMapping() => new(Latest, GeneLinks, GeneStatuses, GeneIdentifiers);
+
     /// <summary>Resolves a model file's entries (pinned versions, or latest) into a simulatable cell.</summary>
     public ExprModel.Core.Cell.CellModel BuildCell(ModelDocument doc) => doc.ToCellModel(Resolve);
 
