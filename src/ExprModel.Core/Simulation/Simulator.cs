@@ -71,6 +71,8 @@ public static class Simulator
             var gateEnd = cell.GateEnd;
             var power = cell.GatePower;
             var isCa = cell.GateIsCalcium;
+            var instant = cell.GateIsInstantaneous;
+            double vPrevious = v;
             bool anyCalciumGate = isCa.Any(b => b);
             bool anySpecial = mode.Any(m => m != DriveMode.Ohmic);
             double cm = cell.CapacitanceUfPerCm2;
@@ -117,6 +119,17 @@ public static class Simulator
                         x[k] = inf + (x[k] - inf) * caDecay[k];
                         continue;
                     }
+                    if (instant[k])
+                    {
+                        // An instantaneous gate must sit at the V of the coming half step, not of this instant:
+                        // extrapolate V to t + dt/2 so the scheme stays second order.
+                        double pm = (v + 0.5 * (v - vPrevious) - RateTable.MinMv) * invRes;
+                        if (pm < 0) pm = 0;
+                        else if (pm > maxIndex) pm = maxIndex;
+                        int im = (int)pm;
+                        x[k] = t[2 * im + 1] + (pm - im) * (t[2 * im + 3] - t[2 * im + 1]);
+                        continue;
+                    }
                     double a = t[j] + f * (t[j + 2] - t[j]);
                     double b = t[j + 1] + f * (t[j + 3] - t[j + 1]);
                     x[k] = a * x[k] + b;
@@ -145,6 +158,7 @@ public static class Simulator
                 }
                 double iStim = stim[s];
                 double vOld = v;
+                vPrevious = v;
                 if (gSum > 1e-12)
                 {
                     double vInf = (gE + iStim - extra) / gSum;
