@@ -45,7 +45,7 @@ public sealed record SaveModelRequest : ModelRequest
 
 public sealed record SimulateResponse(double[] TimeMs, double[] VoltageMv, double[] StimulusUaPerCm2, IReadOnlyList<double> SpikeTimesMs, string Caution);
 public sealed record FiResponse(IReadOnlyList<FiRow> Points, string Caution);
-public sealed record ReadoutsResponse(IReadOnlyList<ReadoutRow> Readouts, string Caution);
+public sealed record ReadoutsResponse(IReadOnlyList<ReadoutRow> Readouts, IReadOnlyList<string> Notes, string Caution);
 public sealed record SavedModelResponse(string Id, string Link, IReadOnlyList<string> CatalogVersions, IReadOnlyList<ReadoutRow> Readouts, string Caution);
 public sealed record SnapshotResponse(string Id, string? ParentId, DateTimeOffset CreatedUtc, JsonElement Model, IReadOnlyList<string> CatalogVersions,
     SnapshotProtocol Protocol, IReadOnlyList<ReadoutRow> Readouts, string Notes, bool HasExpression, string Caution);

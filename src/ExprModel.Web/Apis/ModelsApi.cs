@@ -21,7 +21,7 @@ public static class ModelsApi
                 var (snap, readouts) = await snapshots.SaveAsync(model, request.Protocol ?? new SnapshotProtocol(), request.Notes ?? "",
                     request.ParentId, expression, request.ExpressionName, cancel);
                 var link = $"{http.Request.Scheme}://{http.Request.Host}/m/{snap.Id}";
-                return TypedResults.Created($"/api/models/{snap.Id}", new SavedModelResponse(snap.Id, link, snap.CatalogVersions, readouts, ResearchCaution.Text));
+                return TypedResults.Created($"/api/models/{snap.Id}", new SavedModelResponse(snap.Id, link, snap.CatalogVersions, readouts.Rows, ResearchCaution.Text));
             })
             .WithName("SaveModel")
             .WithSummary("Stores an immutable snapshot (pinned model, protocol, read-outs, notes, optional expression table); returns its id and link.")

@@ -27,7 +27,10 @@ public static class SimulationApi
             .ProducesProblem(400).ProducesProblem(503);
 
         api.MapPost("/readouts", async Task<Ok<ReadoutsResponse>> (ReadoutsRequest request, ModelRunner runner, CancellationToken cancel) =>
-                TypedResults.Ok(new ReadoutsResponse(await runner.ReadoutsAsync(request.ReadModel(), cancel), ResearchCaution.Text)))
+            {
+                var set = await runner.ReadoutsAsync(request.ReadModel(), cancel);
+                return TypedResults.Ok(new ReadoutsResponse(set.Rows, set.Notes, ResearchCaution.Text));
+            })
             .WithName("Readouts")
             .WithSummary("Measures every electrophysiology read-out of the model (resting potential, input resistance, rheobase, spike shape, class...).")
             .ProducesProblem(400).ProducesProblem(503);

@@ -1,3 +1,4 @@
+using ExprModel.Core.Analysis;
 using ExprModel.Core.Models;
 using ExprModel.Core.Simulation;
 using ExprModel.Data.Catalog;
@@ -71,7 +72,7 @@ public sealed class ModelRunner(ChannelCatalog catalog, SimulationGate gate)
         return gate.RunAsync(token => Fi(cell, fi, token), cancel);
     }
 
-    public Task<IReadOnlyList<ReadoutRow>> ReadoutsAsync(ModelDocument doc, CancellationToken cancel)
+    public Task<ReadoutSet> ReadoutsAsync(ModelDocument doc, CancellationToken cancel)
     {
         var cell = Compile(doc);
         return gate.RunAsync(token => Readouts(cell, token), cancel);
@@ -95,8 +96,20 @@ public sealed class ModelRunner(ChannelCatalog catalog, SimulationGate gate)
     }
 
     public static IReadOnlyList<FiRow> Fi(CompiledCell cell, FiProtocol fi, CancellationToken cancel) =>
-        PendingScience.FiCurve(cell, fi, cancel);
+        FiCurve.Measure(cell, fi.FromUaPerCm2, fi.ToUaPerCm2, fi.Steps, fi.DurationMs, null, null, cancel)
+            .Select(p => new FiRow(p.CurrentUaPerCm2, p.SpikeCount, p.WholeStepRateHz, p.FirstIsiRateHz, p.LateRateHz)).ToArray();
 
-    public static IReadOnlyList<ReadoutRow> Readouts(CompiledCell cell, CancellationToken cancel) =>
-        PendingScience.Readouts(cell, cancel);
+    /// <summary>Every read-out of the library's one feature extractor, as table rows.</summary>
+    public static ReadoutSet Readouts(CompiledCell cell, CancellationToken cancel)
+    {
+        try
+        {
+            var r = Features.Measure(cell, null, cancel);
+            return new ReadoutSet(r.Rows().Select(x => new ReadoutRow(x.Name, x.Unit, x.Value)).ToArray(), r.Notes);
+        }
+        catch (SimulationBlowUpException e)
+        {
+            throw new UserInputException(e.Message);
+        }
+    }
 }

@@ -39,5 +39,11 @@ public sealed record FiProtocol
 /// <summary>One read-out as the tables, CSV files and snapshots carry it.</summary>
 public sealed record ReadoutRow(string Name, string Unit, double? Value);
 
+/// <summary>All read-outs of one model with the extractor's notes (why a read-out is missing, for example).</summary>
+public sealed record ReadoutSet(IReadOnlyList<ReadoutRow> Rows, IReadOnlyList<string> Notes)
+{
+    public double? Value(string name) => Rows.FirstOrDefault(r => r.Name == name)?.Value;
+}
+
 /// <summary>One point of an f-I curve as the plots, CSV and API carry it.</summary>
 public sealed record FiRow(double CurrentUaPerCm2, int SpikeCount, double WholeStepRateHz, double FirstIsiRateHz, double LateRateHz);

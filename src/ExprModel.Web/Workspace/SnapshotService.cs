@@ -31,7 +31,7 @@ public sealed class SnapshotService(SnapshotStore store, ModelRunner runner)
 
     public SnapshotStore Store => store;
 
-    public async Task<(Snapshot Snapshot, IReadOnlyList<ReadoutRow> Readouts)> SaveAsync(ModelDocument model, SnapshotProtocol protocol, string notes,
+    public async Task<(Snapshot Snapshot, ReadoutSet Readouts)> SaveAsync(ModelDocument model, SnapshotProtocol protocol, string notes,
         string? parentId, byte[]? expression, string? expressionName, CancellationToken cancel)
     {
         if (parentId is not null && store.Find(parentId) is null) throw new UserInputException($"parentId: no shared model '{parentId}' exists.");
@@ -46,7 +46,7 @@ public sealed class SnapshotService(SnapshotStore store, ModelRunner runner)
                 ModelJson = pinned.ToJson(),
                 CatalogVersions = versions,
                 ProtocolJson = JsonSerializer.Serialize(protocol, Json),
-                ReadoutsJson = JsonSerializer.Serialize(readouts, Json),
+                ReadoutsJson = JsonSerializer.Serialize(readouts.Rows, Json),
                 Notes = notes,
                 Expression = expression,
                 ExpressionName = expressionName,
@@ -68,6 +68,6 @@ public sealed class SnapshotService(SnapshotStore store, ModelRunner runner)
         var protocol = JsonSerializer.Deserialize<SnapshotProtocol>(snap.ProtocolJson, Json) ?? new SnapshotProtocol();
         var saved = JsonSerializer.Deserialize<List<ReadoutRow>>(snap.ReadoutsJson, Json) ?? [];
         var rerun = await runner.ReadoutsAsync(model, cancel);
-        return new OpenedSnapshot(snap, model, protocol, saved, rerun);
+        return new OpenedSnapshot(snap, model, protocol, saved, rerun.Rows);
     }
 }
