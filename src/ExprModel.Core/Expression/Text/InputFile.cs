@@ -1,0 +1,66 @@
+using System.IO.Compression;
+
+namespace ExprModel.Core.Expression.Text;
+
+/// <summary>
+/// Opens an input file as a byte stream, inflating gzip when the file starts with the gzip magic bytes (whatever its
+/// name), and refusing to inflate past a byte budget so a small malicious file cannot expand without bound.
+/// </summary>
+internal static class InputFile
+{
+    /// <summary>gzip member header: ID1 ID2 (RFC 1952, section 2.3.1).</summary>
+    private static readonly byte[] GzipMagic = [0x1f, 0x8b];
+
+    public static Stream Open(string path, long maxDecompressedBytes)
+    {
+        if (!File.Exists(path))
+            throw new ExpressionFormatException($"{Path.GetFileName(path)}: file not found ({path}).");
+        var raw = new FileStream(path, FileMode.Open, FileAccess.Read, FileShare.Read, 1 << 16);
+        var head = new byte[2];
+        int n = raw.ReadAtLeast(head, 2, throwOnEndOfStream: false);
+        raw.Position = 0;
+        if (n == 2 && head[0] == GzipMagic[0] && head[1] == GzipMagic[1])
+            return new BoundedStream(new GZipStream(raw, CompressionMode.Decompress), Path.GetFileName(path), maxDecompressedBytes);
+        return raw;
+    }
+
+    public static bool StartsWith(string path, ReadOnlySpan<byte> magic)
+    {
+        using var fs = File.OpenRead(path);
+        Span<byte> head = stackalloc byte[magic.Length];
+        return fs.ReadAtLeast(head, magic.Length, throwOnEndOfStream: false) == magic.Length && head.SequenceEqual(magic);
+    }
+}
+
+/// <summary>Counts inflated bytes and turns decompression errors into <see cref="ExpressionFormatException"/> naming the file.</summary>
+internal sealed class BoundedStream(Stream inner, string fileName, long maxBytes) : Stream
+{
+    private long _total;
+
+    public override int Read(byte[] buffer, int offset, int count) => Read(buffer.AsSpan(offset, count));
+
+    public override int Read(Span<byte> buffer)
+    {
+        int n;
+        try { n = inner.Read(buffer); }
+        catch (InvalidDataException e)
+        {
+            throw new ExpressionFormatException($"{fileName}: byte {_total:N0} of the decompressed data: corrupt or truncated gzip data ({e.Message}).");
+        }
+        _total += n;
+        if (_total > maxBytes)
+            throw new ExpressionFormatException($"{fileName}: byte {_total:N0} of the decompressed data: inflates past the limit of {maxBytes:N0} bytes (a decompression bomb, or raise the limit).");
+        return n;
+    }
+
+    public override bool CanRead => true;
+    public override bool CanSeek => false;
+    public override bool CanWrite => false;
+    public override long Length => throw new NotSupportedException();
+    public override long Position { get => _total; set => throw new NotSupportedException(); }
+    public override void Flush() { }
+    public override long Seek(long offset, SeekOrigin origin) => throw new NotSupportedException();
+    public override void SetLength(long value) => throw new NotSupportedException();
+    public override void Write(byte[] buffer, int offset, int count) => throw new NotSupportedException();
+    protected override void Dispose(bool disposing) { if (disposing) inner.Dispose(); base.Dispose(disposing); }
+}
