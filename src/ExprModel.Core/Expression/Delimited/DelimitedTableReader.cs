@@ -13,14 +13,12 @@ public static class DelimitedTableReader
     /// <summary>Rows read from the top of the file to decide the orientation.</summary>
     private const int ProbeRows = 200;
 
-    private static readonly (char Char, string Name)[] Delimiters = [(',', "comma"), ('\t', "tab"), (';', "semicolon")];
-
     public static ExpressionTable Read(string path, ExpressionReadOptions? options = null)
     {
         var o = options ?? ExpressionReadOptions.Default;
         string file = Path.GetFileName(path);
         bool gzip = InputFile.StartsWith(path, [0x1f, 0x8b]);
-        var (delimiter, delimiterName) = DetectDelimiter(path, file, o);
+        var (delimiter, delimiterName) = DelimiterSniffer.Detect(path, file, o.MaxDecompressedBytes);
 
         // Probe: header and the first column of the first rows, to decide orientation.
         string corner;
@@ -169,37 +167,5 @@ public static class DelimitedTableReader
         var problem = ValueParser.TryParse(r.Field(column), out double v);
         if (problem is not null) throw r.Error(column + 1, $"cell '{cell}', gene '{gene}': {problem}.");
         return o.LogTransform == LogTransform.None ? v : ValueParser.Undo(v, o.LogTransform);
-    }
-
-    /// <summary>Counts candidate delimiters outside quotes on the first line; the most frequent wins.</summary>
-    private static (char Delimiter, string Name) DetectDelimiter(string path, string file, ExpressionReadOptions o)
-    {
-        using var stream = InputFile.Open(path, o.MaxDecompressedBytes);
-        using var reader = new StreamReader(stream, detectEncodingFromByteOrderMarks: true);
-        var buffer = new char[1 << 20];
-        int len;
-        try { len = reader.ReadBlock(buffer, 0, buffer.Length); }
-        catch (System.Text.DecoderFallbackException) { len = 0; }
-        if (len == 0) throw new ExpressionFormatException($"{file}: line 1: the file is empty.");
-        var counts = new int[Delimiters.Length];
-        bool inQuotes = false;
-        for (int i = 0; i < len; i++)
-        {
-            char c = buffer[i];
-            if (c == '"') inQuotes = !inQuotes;
-            else if (!inQuotes && (c == '\n' || c == '\r')) break;
-            else if (!inQuotes)
-                for (int d = 0; d < Delimiters.Length; d++) if (c == Delimiters[d].Char) counts[d]++;
-        }
-        int best = 0;
-        for (int d = 1; d < counts.Length; d++) if (counts[d] > counts[best]) best = d;
-        if (counts[best] == 0)
-        {
-            if (Array.IndexOf(buffer, '\0', 0, len) >= 0)
-                throw new ExpressionFormatException($"{file}: line 1, column 1: NUL character: binary data, not a text table.");
-            throw new ExpressionFormatException(
-                $"{file}: line 1: no comma, tab or semicolon in the header; a table needs an identifier column and value columns separated by one of these (spaces, '|' and other delimiters are not read).");
-        }
-        return Delimiters[best];
     }
 }

@@ -24,6 +24,8 @@ internal sealed class RecordReader : IDisposable
 
     public string FileName { get; }
     public char Delimiter { get; set; }
+    /// <summary>Fields separated by any run of spaces or tabs, leading blanks ignored (Matrix Market bodies); no quoting.</summary>
+    public bool WhitespaceDelimited { get; init; }
     public int MaxRecordChars { get; }
     public int MaxColumns { get; }
 
@@ -113,6 +115,7 @@ internal sealed class RecordReader : IDisposable
         FieldCount = 0;
         LineNumber = _line;
         bool anyContent = false;
+        if (WhitespaceDelimited) return ReadWhitespaceRecord();
         while (true)
         {
             int start = _recordLen;
@@ -160,6 +163,30 @@ internal sealed class RecordReader : IDisposable
             if (c == '\r') { Advance(); if (Peek() == '\n') Advance(); }
             else if (c == '\n') Advance();
             return anyContent;
+        }
+    }
+
+    private bool ReadWhitespaceRecord()
+    {
+        while (true)
+        {
+            int c = Peek();
+            while (c is ' ' or '\t') { Advance(); c = Peek(); }
+            if (c < 0 || c == '\n' || c == '\r')
+            {
+                if (c == '\r') { Advance(); if (Peek() == '\n') Advance(); }
+                else if (c == '\n') Advance();
+                return FieldCount > 0;
+            }
+            int start = _recordLen;
+            while (c >= 0 && c is not (' ' or '\t' or '\n' or '\r'))
+            {
+                if (c == 0) throw ErrorHere("NUL character: binary data, not a text table.");
+                Advance();
+                Append((char)c);
+                c = Peek();
+            }
+            EndField(start);
         }
     }
 
