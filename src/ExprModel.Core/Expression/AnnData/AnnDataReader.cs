@@ -110,7 +110,7 @@ public static class AnnDataReader
             else if (child is IH5Dataset d)
             {
                 CheckLength(d, cells.Length, at);
-                if (Guard(at, () => d.Type.Class) == H5DataTypeClass.String)
+                if (IsString(Guard(at, () => d.Type)))
                     labels[child.Name] = Guard(at, () => d.Read<string[]>());
                 else
                 {
@@ -160,7 +160,7 @@ public static class AnnDataReader
         at.Path = $"/{frame}/{indexName}";
         if (!Guard(at, () => group.LinkExists(indexName)) || Guard(at, () => group.Get(indexName)) is not IH5Dataset index)
             throw at.Error($"missing: the {frame} index names no dataset.");
-        if (Guard(at, () => index.Type.Class) != H5DataTypeClass.String)
+        if (!IsString(Guard(at, () => index.Type)))
             throw at.Error("the index must hold strings.");
         var names = Guard(at, () => index.Read<string[]>());
         if (names.Length == 0) throw at.Error("empty index.");
@@ -171,9 +171,15 @@ public static class AnnDataReader
     {
         if (!Guard(at, () => obj.AttributeExists(name))) return null;
         var a = Guard(at, () => obj.Attribute(name));
-        if (Guard(at, () => a.Type.Class) != H5DataTypeClass.String) throw at.Error($"attribute '{name}' must be a string.");
+        if (!IsString(Guard(at, () => a.Type))) throw at.Error($"attribute '{name}' must be a string.");
         return Guard(at, () => a.Read<string>());
     }
+
+    /// <summary>
+    /// Fixed-length strings have class String; variable-length strings (what writers usually use) have class
+    /// VariableLength, and reading them as strings then confirms it (a non-string sequence fails with a located error).
+    /// </summary>
+    private static bool IsString(IH5DataType t) => t.Class is H5DataTypeClass.String or H5DataTypeClass.VariableLength;
 
     private static void CheckLength(IH5Dataset d, long expected, Location at)
     {
