@@ -43,8 +43,8 @@ public static class DelimitedTableReader
             throw new ExpressionFormatException($"{file}: line 1: only one column; a table needs an identifier column and at least one value column.");
 
         // A header one field shorter than the data rows has no top-left cell (a common export style): every header
-        // field is then an identifier.
-        bool noCorner = firstDataFieldCount == header.Count + 1;
+        // field is then an identifier. Not when the first header field is a corner label: that is a ragged row.
+        bool noCorner = firstDataFieldCount == header.Count + 1 && !OrientationDetector.IsCornerLabel(header[0]);
         var notes = new List<string>();
         if (noCorner)
         {

@@ -16,6 +16,8 @@ internal static partial class OrientationDetector
     [GeneratedRegex(@"^(cells?|cell[ _.]?(id|ids|name|names|barcode)|barcodes?|samples?|sample[ _.]?(id|name)|obs|obs[ _.]?names?)$", RegexOptions.IgnoreCase)]
     private static partial Regex CellCornerLabel();
 
+    public static bool IsCornerLabel(string text) => GeneCornerLabel().IsMatch(text.Trim()) || CellCornerLabel().IsMatch(text.Trim());
+
     /// <summary>How much more gene-like one axis must look than the other to decide by shape alone.</summary>
     private const double Margin = 0.2;
 
