@@ -1,3 +1,5 @@
+using ExprModel.Core.Expression.Identifiers;
+
 namespace ExprModel.Core.Expression;
 
 /// <summary>
@@ -36,9 +38,16 @@ internal sealed class GeneRegistry(string file, ExpressionReadOptions options, L
         return false;
     }
 
+    /// <summary>Adds notes for identifiers that are distinct strings but may name one gene (case, Ensembl version).</summary>
     public void Finish()
     {
         if (_moreDuplicates > 0) notes.Add($"... and {_moreDuplicates} more duplicated gene identifiers.");
+        var issues = GeneIdentifiers.FindIssues(_firstSeen.Keys).Where(i => i.Kind != "duplicate").ToList();
+        foreach (var issue in issues.Take(MaxDuplicateNotes)) notes.Add($"ambiguous gene identifiers: {issue.Message}");
+        if (issues.Count > MaxDuplicateNotes) notes.Add($"... and {issues.Count - MaxDuplicateNotes} more ambiguous identifier groups.");
+        var versioned = _firstSeen.Keys.Where(k => GeneIdentifiers.Parse(k) is { Kind: IdentifierKind.EnsemblGene, EnsemblVersion: not null }).ToList();
+        if (versioned.Count > 0)
+            notes.Add($"{versioned.Count} gene identifiers are Ensembl ids with a version suffix (e.g. '{versioned[0]}'); match them without the suffix.");
     }
 }
 

@@ -173,4 +173,25 @@ public sealed class DelimitedTableReaderTests : IDisposable
         Assert.Equal(5, t.LibrarySizes[0]);
         Assert.Contains(t.Notes, n => n.Contains("kept the first"));
     }
+
+    [Fact]
+    public void CaseCollisionsAndVersionedEnsemblIds_AreNoted()
+    {
+        const string table = "gene,c1\nScn1a,1\nSCN1A,2\nENSMUSG00000064329.3,4\nGapdh,5\n";
+        var t = DelimitedTableReader.Read(_files.Text("amb.csv", table));
+        Assert.Contains(t.Notes, n => n.Contains("'SCN1A'") && n.Contains("'Scn1a'") && n.Contains("differ only in case"));
+        Assert.Contains(t.Notes, n => n.Contains("version suffix") && n.Contains("ENSMUSG00000064329.3"));
+    }
+
+    [Fact]
+    public void DecompressedSizeLimit_StopsInflationWithLocatedError()
+    {
+        // A valid table bigger than the stated budget: the limit, not the content, must stop the read.
+        var big = "gene,c1,c2\n" + string.Concat(Enumerable.Range(0, 5000).Select(i => $"G{i},1,2\n"));
+        var path = _files.Text("big.csv.gz", big, gzip: true);
+        var e = Assert.Throws<ExpressionFormatException>(() => DelimitedTableReader.Read(path, new() { MaxDecompressedBytes = 10_000 }));
+        Assert.Contains("big.csv.gz", e.Message);
+        Assert.Contains("decompressed data", e.Message);
+        Assert.Contains("limit of 10,000 bytes", e.Message);
+    }
 }
