@@ -15,7 +15,7 @@ namespace ExprModel.Cli.Commands;
 public static class ExpressionCommands
 {
     /// <summary>Standard absolute steps (pA) at which batch reports firing rates.</summary>
-    public static readonly double[] StandardStepsPa = [100, 200, 400];
+    public static IReadOnlyList<double> StandardStepsPa => BatchReadouts.StandardStepsPa;
 
     private sealed class Inputs
     {
@@ -207,42 +207,18 @@ public static class ExpressionCommands
                 "spike_threshold_mv", "spike_half_width_ms" };
             header.AddRange(StandardStepsPa.Select(s => $"rate_at_{s:F0}pa_hz"));
             header.AddRange(["excitability_class", "adaptation_ratio", "adaptation_index", "warnings"]);
-            var rows = new object?[to - from][];
-            int done = 0;
             var progress = new Progress(ctx.Error, to - from);
-            Parallel.For(from, to, new ParallelOptions { MaxDegreeOfParallelism = Environment.ProcessorCount }, i =>
-            {
-                var t = items[i];
-                var row = new object?[header.Count];
-                row[0] = i;
-                row[1] = t.Group ?? t.CellId;
-                try
-                {
-                    var built = ExpressionModelBuilder.Build(table, report, catalog, rule, t, groups);
-                    row[2] = t.Group is { } g ? groups!.Members[g].Length : 1;
-                    var cell = new CompiledCell(built.Document.ToCellModel((id, v) => catalog.Entry(id)!));
-                    var r = Features.Measure(cell, ReadoutSettings.Batch);
-                    var geo = cell.Model.Geometry;
-                    var rates = FiCurve.Measure(cell, StandardStepsPa.Select(s => geo.PicoampsToDensity(s)).ToArray(), 1000, null, null);
-                    int k = 3;
-                    foreach (var v in new object?[] { r.RestingPotentialMv, r.InputResistanceMOhm, r.MembraneTimeConstantMs, r.RheobasePa, r.ThresholdMv, r.HalfWidthMs })
-                        row[k++] = v;
-                    foreach (var q in rates) row[k++] = q.WholeStepRateHz;
-                    row[k++] = r.ExcitabilityClass;
-                    row[k++] = r.AdaptationRatio;
-                    row[k++] = r.AdaptationIndex;
-                    row[k] = string.Join(" | ", built.Warnings.Concat(r.Notes));
-                }
-                catch (Exception e) when (e is ArgumentException or ModelException or SimulationBlowUpException)
-                {
-                    row[^1] = "failed: " + e.Message;
-                }
-                rows[i - from] = row;
-                progress.Report(Interlocked.Increment(ref done));
-            });
+            var results = BatchReadouts.Run(table, report, catalog, rule, items, groups, from, to, progress.Report);
             progress.Finish();
             var csv = new CsvTable([ResearchCaution.Text, $"source: {table.Source}; shard {index}/{count} of {items.Length} items"], header);
-            foreach (var row in rows) csv.Row(row);
+            foreach (var b in results)
+            {
+                var r = b.Readouts;
+                var row = new List<object?> { b.Index, b.Item, b.Cells, r?.RestingPotentialMv, r?.InputResistanceMOhm, r?.MembraneTimeConstantMs, r?.RheobasePa, r?.ThresholdMv, r?.HalfWidthMs };
+                row.AddRange(StandardStepsPa.Select((_, k) => (object?)(k < b.RatesAtStandardStepsHz.Count ? b.RatesAtStandardStepsHz[k] : null)));
+                row.AddRange([r?.ExcitabilityClass, r?.AdaptationRatio, r?.AdaptationIndex, b.Warnings]);
+                csv.Row([.. row]);
+            }
             ctx.Emit(csv.ToString(), p.GetValue(output));
             return 0;
         });
