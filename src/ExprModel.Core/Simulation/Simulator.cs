@@ -13,6 +13,9 @@ public static class Simulator
 {
     private static readonly ConditionalWeakTable<CompiledCell, ConcurrentDictionary<double, RateTable>> Tables = new();
 
+    /// <summary>Lets tests and benchmarks compare the SIMD sweep with the scalar loop.</summary>
+    internal static bool UseSimd { get; set; } = true;
+
     internal static RateTable TableFor(CompiledCell cell, double dtMs) =>
         Tables.GetOrCreateValue(cell).GetOrAdd(dtMs, dt => new RateTable(cell, dt));
 
@@ -38,6 +41,19 @@ public static class Simulator
         var start = initial ?? cell.InitialState();
         var result = new IReadOnlyList<double>[stimuli.Count];
         var options = new ParallelOptions { CancellationToken = cancel, MaxDegreeOfParallelism = Environment.ProcessorCount };
+        if (SweepKernel.CanRun(cell) && UseSimd)
+        {
+            _ = table.Flat;
+            int groups = (stimuli.Count + SweepKernel.Width - 1) / SweepKernel.Width;
+            Parallel.For(0, groups, options, gi =>
+            {
+                int first = gi * SweepKernel.Width, count = Math.Min(SweepKernel.Width, stimuli.Count - first);
+                var stims = Enumerable.Range(first, count).Select(i => stimuli[i].Sample(settings.DtMs, steps)).ToArray();
+                var spikes = SweepKernel.Run(cell, table, stims, steps, settings, start, cancel);
+                for (int l = 0; l < count; l++) result[first + l] = spikes[l];
+            });
+            return result;
+        }
         Parallel.For(0, stimuli.Count, options, i =>
         {
             var stim = stimuli[i].Sample(settings.DtMs, steps);
