@@ -23,6 +23,22 @@ public sealed class WorkspaceState
     /// <summary>The user's answers on the Load page (blank = detect).</summary>
     public IntakeChoices Intake { get; } = new();
 
+    /// <summary>The table as read and mapped (null until the Map page reads it), the user's overrides and rule.</summary>
+    public ExpressionSession? Session { get; set; }
+    public List<ExprModel.Core.Mapping.GeneOverride> Overrides { get; } = [];
+    public ExprModel.Core.Mapping.DensityRule Rule { get; set; } = new();
+    /// <summary>Built models with their derivations and warnings, by target label.</summary>
+    public Dictionary<string, ExprModel.Core.Mapping.BuiltModel> Built { get; } = new(StringComparer.Ordinal);
+
+    /// <summary>Forgets everything derived from the loaded table (a new table or new read choices).</summary>
+    public void ResetDerived()
+    {
+        Session = null;
+        Overrides.Clear();
+        Built.Clear();
+        GroupModels.Clear();
+    }
+
     public event Action? Changed;
 
     public void Open(ModelDocument model, string origin, string? parentSnapshotId = null)
