@@ -169,6 +169,8 @@ public static class CatalogReport
         var cond = ConductanceHalfActivationMv(g);
         string what = ClosesWithDepolarisation(g) ? "half-(in)activation" : "half-activation";
         sb.Append(Inv, $"{what} {(half is { } x ? x.ToString("0.0", Inv) + " mV" : "none in -150..100 mV")}");
+        if (g.SteadyState is { Shape: RateShape.Boltzmann, Exponent: not 1 } root)
+            sb.Append(Inv, $" (of the Boltzmann before the source's power {root.Exponent:G3})");
         if (g.Power != 1 && cond is { } cv) sb.Append(Inv, $" ({g.Name}^{g.Power} crosses 0.5 at {cv:0.0} mV)");
         var range = TimeConstantRangeMs(g);
         sb.Append(range is { } r ? string.Format(Inv, "; tau {0:G3} to {1:G4} ms over -100..+40 mV", r.MinMs, r.MaxMs) : "; no time constant (follows V instantly)");

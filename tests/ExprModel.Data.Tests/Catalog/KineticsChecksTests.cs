@@ -174,3 +174,37 @@ public class KineticsChecksTests
         Assert.NotEqual(bk.TimeConstantAt(0, 1e-4), bk.TimeConstantAt(0, 1e-2));
     }
 }
+
+public class ReversalRuleTests
+{
+    [Theory]
+    [MemberData(nameof(CatalogFiles.EntryKeys), MemberType = typeof(CatalogFiles))]
+    public void Entry_reversal_follows_its_rule_in_a_mammalian_cell(string key)
+    {
+        var e = CatalogFiles.Content.Entries.Single(x => x.Key == key);
+        var cell = new Core.Cell.CellModel
+        {
+            Geometry = Core.Cell.Geometry.FromDiameter(20), TemperatureC = 37,
+            Channels = [new Core.Cell.ChannelInstance { Entry = e, DensityMsPerCm2 = 1 }],
+        };
+        double erev = cell.ReversalPotentialMv(cell.Channels[0]);
+        switch (e.Reversal)
+        {
+            case ReversalRule.Fixed:
+                Assert.Equal(e.ReversalMv!.Value, erev);
+                break;
+            case ReversalRule.Nernst when e.Ion == Ion.Potassium:
+                // CODATA 2018 worked check (DOMAIN.md): E_K = -89.1 mV at 37 C with 5 mM out and 140 mM in.
+                Assert.Equal(-89.1, erev, 0.05);
+                break;
+            case ReversalRule.Nernst when e.Ion == Ion.Sodium:
+                Assert.Equal(Nernst.PotentialMv(145, 10, 1, 37), erev, 1e-9);
+                Assert.InRange(erev, 60, 80);
+                break;
+            default:
+                Assert.Equal(Ion.Calcium, e.Ion); // Nernst or GHK calcium: E_Ca far positive
+                Assert.True(erev > 100, $"{key}: E_Ca {erev} mV");
+                break;
+        }
+    }
+}
