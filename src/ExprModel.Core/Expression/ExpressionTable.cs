@@ -38,6 +38,8 @@ public sealed class ExpressionTable
     public required string UnitNote { get; init; }
     public required TableOrientation Orientation { get; init; }
     public required string OrientationNote { get; init; }
+    /// <summary>How the file was read: format, delimiter, compression ("comma-delimited text, gzip").</summary>
+    public string FormatNote { get; init; } = "";
     /// <summary>Warnings a user should read (duplicate ids, dropped rows...).</summary>
     public IReadOnlyList<string> Notes { get; init; } = [];
 

@@ -1,0 +1,171 @@
+using ExprModel.Core.Expression.Text;
+using ExprModel.Core.Expression.Units;
+
+namespace ExprModel.Core.Expression.Delimited;
+
+/// <summary>
+/// Reads a delimited text expression table (comma, tab or semicolon; RFC 4180 quoting; UTF-8 with or without BOM;
+/// optionally gzip-compressed) in one streaming pass after a short probe, keeping only the genes the filter accepts
+/// plus every cell's library size. Memory is bounded by the kept genes times cells plus one record.
+/// </summary>
+public static class DelimitedTableReader
+{
+    /// <summary>Rows read from the top of the file to decide the orientation.</summary>
+    private const int ProbeRows = 200;
+
+    public static ExpressionTable Read(string path, ExpressionReadOptions? options = null)
+    {
+        var o = options ?? ExpressionReadOptions.Default;
+        string file = Path.GetFileName(path);
+        bool gzip = InputFile.StartsWith(path, [0x1f, 0x8b]);
+        var (delimiter, delimiterName) = DelimiterSniffer.Detect(path, file, o.MaxDecompressedBytes);
+
+        // Probe: header and the first column of the first rows, to decide orientation.
+        string corner;
+        List<string> header;
+        var firstColumn = new List<string>();
+        int firstDataFieldCount = -1;
+        using (var probe = OpenRecords(path, file, delimiter, o))
+        {
+            if (!probe.ReadRecord()) throw new ExpressionFormatException($"{file}: line 1: the file is empty.");
+            corner = probe.FieldString(0);
+            header = new List<string>(probe.FieldCount);
+            for (int i = 0; i < probe.FieldCount; i++) header.Add(probe.FieldString(i));
+            while (firstColumn.Count < ProbeRows && probe.ReadRecord())
+            {
+                if (firstDataFieldCount < 0) firstDataFieldCount = probe.FieldCount;
+                firstColumn.Add(probe.FieldString(0));
+            }
+        }
+        if (firstColumn.Count == 0)
+            throw new ExpressionFormatException($"{file}: line 2: the file has a header but no data rows.");
+        if (header.Count < 2 && firstDataFieldCount < 2)
+            throw new ExpressionFormatException($"{file}: line 1: only one column; a table needs an identifier column and at least one value column.");
+
+        // A header one field shorter than the data rows has no top-left cell (a common export style): every header
+        // field is then an identifier. Not when the first header field is a corner label: that is a ragged row.
+        bool noCorner = firstDataFieldCount == header.Count + 1 && !OrientationDetector.IsCornerLabel(header[0]);
+        var notes = new List<string>();
+        if (noCorner)
+        {
+            notes.Add("the header has one field fewer than the data rows: read it as having no top-left cell.");
+            corner = "";
+        }
+        var ids = noCorner ? header : header.Skip(1).ToList();
+
+        TableOrientation orientation;
+        string orientationNote;
+        if (o.Orientation is { } given)
+            (orientation, orientationNote) = (given, given == TableOrientation.GenesAsRows ? "genes as rows (given by the user)" : "cells as rows (given by the user)");
+        else
+            (orientation, orientationNote) = OrientationDetector.Detect(file, corner, ids, firstColumn, o.KeepGene);
+
+        var stats = new ValueStats { WholeTolerance = o.LogTransform == LogTransform.None ? 0 : 1e-6 };
+        using var records = OpenRecords(path, file, delimiter, o);
+        records.ReadRecord(); // header, already parsed
+        int idOffset = noCorner ? 0 : 1;
+        var result = orientation == TableOrientation.GenesAsRows
+            ? ReadGenesAsRows(records, file, ids, idOffset, o, stats, notes)
+            : ReadCellsAsRows(records, file, ids, idOffset, o, stats, notes);
+
+        var (unit, unitNote) = UnitDecision.Decide(file, o, stats, result.LibrarySizes, notes);
+        return new ExpressionTable
+        {
+            Source = path,
+            CellIds = result.Cells,
+            Genes = result.Genes,
+            LibrarySizes = result.LibrarySizes,
+            TotalGeneCount = result.TotalGenes,
+            Unit = unit,
+            UnitNote = unitNote,
+            Orientation = orientation,
+            OrientationNote = orientationNote,
+            FormatNote = $"{delimiterName}-delimited text{(gzip ? ", gzip-compressed" : "")} (delimiter detected from the header)",
+            Notes = notes,
+        };
+    }
+
+    private sealed record Parsed(List<string> Cells, Dictionary<string, double[]> Genes, double[] LibrarySizes, int TotalGenes);
+
+    private static RecordReader OpenRecords(string path, string file, char delimiter, ExpressionReadOptions o) =>
+        new(InputFile.Open(path, o.MaxDecompressedBytes), file, delimiter, o.MaxRecordChars, o.MaxColumns);
+
+    private static Parsed ReadGenesAsRows(RecordReader r, string file, List<string> cellIds, int offset, ExpressionReadOptions o, ValueStats stats, List<string> notes)
+    {
+        var cells = new CellRegistry(file);
+        for (int j = 0; j < cellIds.Count; j++) cells.Add(cellIds[j], $"line 1, column {j + 1 + offset}");
+        int n = cellIds.Count, expected = n + 1;
+        var library = new double[n];
+        var genes = new Dictionary<string, double[]>(StringComparer.Ordinal);
+        var registry = new GeneRegistry(file, o, notes);
+        double[]? values = null;
+        while (r.ReadRecord())
+        {
+            CheckFieldCount(r, expected);
+            string gene = r.FieldString(0);
+            bool keep = registry.Add(gene, $"line {r.LineNumber}, column 1");
+            values ??= new double[n];
+            for (int j = 0; j < n; j++)
+            {
+                double v = ParseValue(r, j + 1, o, cellIds[j], gene);
+                stats.Add(v);
+                library[j] += v;
+                values[j] = v;
+            }
+            if (keep) { genes.Add(gene, values); values = null; }
+        }
+        registry.Finish();
+        return new Parsed(cellIds, genes, library, registry.Total);
+    }
+
+    private static Parsed ReadCellsAsRows(RecordReader r, string file, List<string> geneIds, int offset, ExpressionReadOptions o, ValueStats stats, List<string> notes)
+    {
+        var registry = new GeneRegistry(file, o, notes);
+        var keptColumns = new List<int>();
+        var keptNames = new List<string>();
+        for (int j = 0; j < geneIds.Count; j++)
+            if (registry.Add(geneIds[j], $"line 1, column {j + 1 + offset}")) { keptColumns.Add(j); keptNames.Add(geneIds[j]); }
+        registry.Finish();
+        var kept = keptNames.Select(_ => new List<double>()).ToArray();
+        var cells = new CellRegistry(file);
+        var cellIds = new List<string>();
+        var library = new List<double>();
+        int n = geneIds.Count, expected = n + 1;
+        var isKept = new int[n];
+        Array.Fill(isKept, -1);
+        for (int k = 0; k < keptColumns.Count; k++) isKept[keptColumns[k]] = k;
+        while (r.ReadRecord())
+        {
+            CheckFieldCount(r, expected);
+            string cell = r.FieldString(0);
+            cells.Add(cell, $"line {r.LineNumber}, column 1");
+            cellIds.Add(cell);
+            double sum = 0;
+            for (int j = 0; j < n; j++)
+            {
+                double v = ParseValue(r, j + 1, o, cell, geneIds[j]);
+                stats.Add(v);
+                sum += v;
+                if (isKept[j] >= 0) kept[isKept[j]].Add(v);
+            }
+            library.Add(sum);
+        }
+        var genes = new Dictionary<string, double[]>(StringComparer.Ordinal);
+        for (int k = 0; k < keptNames.Count; k++) genes.Add(keptNames[k], kept[k].ToArray());
+        return new Parsed(cellIds, genes, library.ToArray(), registry.Total);
+    }
+
+    private static void CheckFieldCount(RecordReader r, int expected)
+    {
+        if (r.FieldCount != expected)
+            throw r.Error(Math.Min(r.FieldCount, expected) + 1,
+                $"{r.FieldCount} fields where the header implies {expected} (ragged row{(r.FieldCount < expected ? ", values missing" : ", extra values")}).");
+    }
+
+    private static double ParseValue(RecordReader r, int column, ExpressionReadOptions o, string cell, string gene)
+    {
+        var problem = ValueParser.TryParse(r.Field(column), out double v);
+        if (problem is not null) throw r.Error(column + 1, $"cell '{cell}', gene '{gene}': {problem}.");
+        return o.LogTransform == LogTransform.None ? v : ValueParser.Undo(v, o.LogTransform);
+    }
+}

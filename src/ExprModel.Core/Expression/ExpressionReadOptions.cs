@@ -1,0 +1,59 @@
+namespace ExprModel.Core.Expression;
+
+/// <summary>A log transform the user states was applied to the table, so the reader can undo it value by value.</summary>
+public enum LogTransform
+{
+    /// <summary>No transform stated.</summary>
+    None,
+    /// <summary>ln(1 + x); undone as exp(v) - 1.</summary>
+    NaturalLog1p,
+    /// <summary>log2(1 + x); undone as 2^v - 1.</summary>
+    Log2Plus1,
+    /// <summary>log10(1 + x); undone as 10^v - 1.</summary>
+    Log10Plus1,
+}
+
+/// <summary>
+/// What to do when one gene identifier names two or more rows (or columns) of the file. Duplicates are never merged:
+/// a duplicated gene that is not kept (the filter rejects it) is only noted, since both copies still count towards
+/// library size as written; a duplicated gene that is kept is an error unless the user chooses to keep the first copy.
+/// </summary>
+public enum DuplicateGenePolicy
+{
+    /// <summary>Refuse the file, naming the identifier and both places it occurs.</summary>
+    Error,
+    /// <summary>Keep the first occurrence, ignore later ones for the kept values, and add a note.</summary>
+    KeepFirst,
+}
+
+/// <summary>How to read an expression file. Everything is optional; whatever is detected instead is reported in the table's notes.</summary>
+public sealed record ExpressionReadOptions
+{
+    /// <summary>Genes to keep (by identifier as written in the file). Null keeps every gene. Library sizes always cover all genes.</summary>
+    public Func<string, bool>? KeepGene { get; init; }
+
+    /// <summary>Which axis holds genes; null detects it (delimited text only; other formats have a fixed layout).</summary>
+    public TableOrientation? Orientation { get; init; }
+
+    /// <summary>The unit of the values (after undoing <see cref="LogTransform"/>); null detects it from the values.</summary>
+    public ExpressionUnit? Unit { get; init; }
+
+    /// <summary>A log transform to undo on every value before anything else (library sizes are then sums of the undone values).</summary>
+    public LogTransform LogTransform { get; init; } = LogTransform.None;
+
+    public DuplicateGenePolicy DuplicateGenes { get; init; } = DuplicateGenePolicy.Error;
+
+    /// <summary>For Matrix Market feature sidecars: 1-based column holding the gene identifier to use (1 = Ensembl id, 2 = symbol). Null uses column 2 when present.</summary>
+    public int? FeatureColumn { get; init; }
+
+    /// <summary>Guard against decompression bombs: the most bytes a compressed input may inflate to.</summary>
+    public long MaxDecompressedBytes { get; init; } = 32L << 30;
+
+    /// <summary>Guard against runaway lines (binary data, a missing newline): the longest record in characters.</summary>
+    public int MaxRecordChars { get; init; } = 32 << 20;
+
+    /// <summary>The most fields a record may have (cells or genes plus the identifier column).</summary>
+    public int MaxColumns { get; init; } = 500_000;
+
+    public static ExpressionReadOptions Default { get; } = new();
+}

@@ -1,0 +1,21 @@
+namespace ExprModel.Core.Expression.Units;
+
+/// <summary>What the reader saw in the values while streaming: enough to detect the unit without holding the matrix.</summary>
+internal sealed class ValueStats
+{
+    public bool AllWhole { get; private set; } = true;
+    public double Max { get; private set; }
+    public long Count { get; private set; }
+    public long Nonzero { get; private set; }
+    /// <summary>Undone log values carry rounding error, so a looser whole-number test is used for them.</summary>
+    public double WholeTolerance { get; init; }
+
+    public void Add(double v)
+    {
+        Count++;
+        if (v == 0) return;
+        Nonzero++;
+        if (v > Max) Max = v;
+        if (AllWhole && Math.Abs(v - Math.Round(v)) > WholeTolerance * Math.Max(1, v)) AllWhole = false;
+    }
+}
