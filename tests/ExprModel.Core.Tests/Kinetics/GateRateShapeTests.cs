@@ -5,15 +5,6 @@ namespace ExprModel.Core.Tests.Kinetics;
 public class GateRateShapeTests
 {
     [Fact]
-    public void Linear_over_exponential_takes_its_limit_a_times_k_at_v0()
-    {
-        // DOMAIN.md: the removable singularity of A (V - V0)/(1 - exp(-(V - V0)/k)) is A k.
-        var r = GateRate.LinearOverExponential(0.1, -40, 10);
-        Assert.Equal(1.0, r.Evaluate(-40), 12);
-        Assert.Equal(r.Evaluate(-40 + 1e-5), r.Evaluate(-40), 1e-6);
-    }
-
-    [Fact]
     public void Offset_sigmoid_is_base_plus_half_amplitude_at_v0()
     {
         // Golomb et al. 2007 tau_h = 0.5 + 14/(1 + exp((V + 60)/12)): 7.5 ms at -60 mV, 0.5 ms floor when depolarised.
