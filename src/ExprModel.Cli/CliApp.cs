@@ -16,6 +16,7 @@ public static class CliApp
         var root = new RootCommand("exprmodel: predict firing from ion-channel gene expression with conductance-based single-compartment models.");
         root.Subcommands.Add(CatalogCommands.Create(ctx));
         foreach (var c in ModelCommands.Create(ctx)) root.Subcommands.Add(c);
+        foreach (var c in ExpressionCommands.Create(ctx)) root.Subcommands.Add(c);
         var parse = root.Parse(args);
         if (parse.Errors.Count > 0)
         {

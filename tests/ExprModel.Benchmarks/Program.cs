@@ -21,6 +21,11 @@ public static class Program
             BenchmarkSwitcher.FromAssembly(typeof(Program).Assembly).Run(args.Where(a => a != "--bdn").ToArray());
             return 0;
         }
+        if (args.Contains("batch"))
+        {
+            BatchBenchmark.Run(args.Contains("--quick") ? 200 : 1000);
+            return 0;
+        }
         int repeats = args.Contains("--quick") ? 3 : 7;
         var catalog = CatalogLocator.Ensure();
         Console.WriteLine($"machine: {Environment.ProcessorCount} cores, .NET {Environment.Version}; median of {repeats} runs");

@@ -103,6 +103,9 @@ public static class Features
             tau = Passive.TimeConstantMs(small.VoltageMv, dt, onset, rest.VoltageMv, dv);
 
             // 3. Sag from a larger hyperpolarising step.
+        }
+        if (!firesAtRest && s.IncludeSag)
+        {
             double iSag = s.SagDeflectionMv * gSlope;
             var big = Simulator.Run(cell, Protocols.Step(iSag, 100, 1000), 1100, sim with { RecordEvery = 1 }, rest, cancel);
             int bOn = (int)Math.Round(100 / dt), bEnd = (int)Math.Round(1100 / dt);
@@ -165,7 +168,7 @@ public static class Features
 
             // 9. Depolarisation block: the smallest step above sustained firing where late firing stops.
             blockLimit = rb * s.BlockSearchMultiple;
-            if (onsetCurrent is { } oc)
+            if (onsetCurrent is { } oc && s.IncludeDepolarisationBlock)
             {
                 var b = RheobaseSearch.FindOnset(amps =>
                 {

@@ -31,5 +31,17 @@ public sealed record ReadoutSettings
     /// <summary>Depolarisation block is searched up to this multiple of rheobase.</summary>
     public double BlockSearchMultiple { get; init; } = 20;
 
+    /// <summary>Measure sag (one extra 1 s run).</summary>
+    public bool IncludeSag { get; init; } = true;
+    /// <summary>Search for depolarisation block (the most expensive read-out).</summary>
+    public bool IncludeDepolarisationBlock { get; init; } = true;
+
     public static ReadoutSettings Default { get; } = new();
+
+    /// <summary>The batch read-outs: shorter settling, 1 % rheobase tolerance, 8 f-I steps, no sag or block search.</summary>
+    public static ReadoutSettings Batch { get; } = new()
+    {
+        SettleMs = 500, RheobaseRelativeTolerance = 0.01, RheobaseAbsoluteToleranceUaPerCm2 = 0.005, FiSteps = 8,
+        IncludeSag = false, IncludeDepolarisationBlock = false,
+    };
 }

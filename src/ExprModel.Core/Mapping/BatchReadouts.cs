@@ -1,0 +1,46 @@
+using ExprModel.Core.Analysis;
+using ExprModel.Core.Expression;
+using ExprModel.Core.Simulation;
+
+namespace ExprModel.Core.Mapping;
+
+/// <summary>The main read-outs of one group or cell of a batch.</summary>
+public sealed record BatchRow(int Index, string Item, int Cells, CellReadouts? Readouts, IReadOnlyList<double> RatesAtStandardStepsHz, string Warnings);
+
+/// <summary>
+/// Builds and measures a model for every group or cell: the same builder and feature extractor as everywhere, with
+/// the batch read-out settings, in parallel over the machine's cores. Used by the CLI, the web app and the benchmark.
+/// </summary>
+public static class BatchReadouts
+{
+    /// <summary>Standard absolute steps (pA) at which rates are reported.</summary>
+    public static readonly double[] StandardStepsPa = [100, 200, 400];
+
+    public static IReadOnlyList<BatchRow> Run(ExpressionTable table, MappingReport report, MappingCatalog catalog, DensityRule rule,
+        IReadOnlyList<ModelTarget> targets, CellGroups? groups, int from, int to, Action<int>? progress = null, CancellationToken cancel = default)
+    {
+        var rows = new BatchRow[to - from];
+        int done = 0;
+        Parallel.For(from, to, new ParallelOptions { MaxDegreeOfParallelism = Environment.ProcessorCount, CancellationToken = cancel }, i =>
+        {
+            var t = targets[i];
+            string item = t.Group ?? t.CellId!;
+            int cells = t.Group is { } g && groups is not null && groups.Members.TryGetValue(g, out var m) ? m.Length : 1;
+            try
+            {
+                var built = ExpressionModelBuilder.Build(table, report, catalog, rule, t, groups);
+                var cell = new CompiledCell(built.Document.ToCellModel((id, _) => catalog.Entry(id)!));
+                var r = Features.Measure(cell, ReadoutSettings.Batch, cancel);
+                var geo = cell.Model.Geometry;
+                var rates = FiCurve.Measure(cell, StandardStepsPa.Select(geo.PicoampsToDensity).ToArray(), 1000, null, null, cancel);
+                rows[i - from] = new BatchRow(i, item, cells, r, rates.Select(q => q.WholeStepRateHz).ToArray(), string.Join(" | ", built.Warnings.Concat(r.Notes)));
+            }
+            catch (Exception e) when (e is ArgumentException or ModelException or SimulationBlowUpException)
+            {
+                rows[i - from] = new BatchRow(i, item, cells, null, [], "failed: " + e.Message);
+            }
+            progress?.Invoke(Interlocked.Increment(ref done));
+        });
+        return rows;
+    }
+}
