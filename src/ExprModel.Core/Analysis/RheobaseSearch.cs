@@ -12,6 +12,9 @@ public static class RheobaseSearch
     /// <summary>Result of an onset search: the largest amplitude without and the smallest with the property.</summary>
     public sealed record Bracket(double BelowUaPerCm2, double AtOrAboveUaPerCm2, double ToleranceUaPerCm2);
 
+    /// <summary>Amplitudes tested per round: two SIMD groups of four per core keeps every core busy.</summary>
+    private static int ProbesPerRound => Math.Max(4, 4 * Environment.ProcessorCount) - 1 + 1;
+
     public static Bracket? FindOnset(Func<IReadOnlyList<double>, bool[]> holds, double startUaPerCm2, double maxUaPerCm2,
         double absoluteTolerance, double relativeTolerance, CancellationToken cancel = default)
     {
@@ -20,7 +23,7 @@ public static class RheobaseSearch
         while (true)
         {
             cancel.ThrowIfCancellationRequested();
-            var probes = new[] { hi, hi * 1.5, hi * 2.25, hi * 3.375 }.Where(x => x <= maxUaPerCm2 * 1.000001).ToArray();
+            var probes = Enumerable.Range(0, ProbesPerRound).Select(k => hi * Math.Pow(1.3, k)).Where(x => x <= maxUaPerCm2 * 1.000001).ToArray();
             if (probes.Length == 0) return null;
             var ok = holds(probes);
             int first = Array.IndexOf(ok, true);
@@ -31,11 +34,11 @@ public static class RheobaseSearch
                 break;
             }
             lo = probes[^1];
-            hi = probes[^1] * 1.5;
+            hi = probes[^1] * 1.3;
             if (lo >= maxUaPerCm2) return null;
             hi = Math.Min(hi, maxUaPerCm2);
         }
-        int lanes = Math.Max(3, Environment.ProcessorCount * 2 - 1);
+        int lanes = ProbesPerRound;
         while (hi - lo > Math.Max(absoluteTolerance, relativeTolerance * hi))
         {
             cancel.ThrowIfCancellationRequested();

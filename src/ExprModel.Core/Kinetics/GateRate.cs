@@ -17,6 +17,23 @@ public enum RateShape
     Bell,
     /// <summary>Base + A * exp(-((V - V0) / K)^2) (a time constant).</summary>
     Gaussian,
+    /// <summary>Base + A / (1 + exp((V - V0) / K)) (a time constant with a floor, e.g. Golomb et al. 2007).</summary>
+    OffsetSigmoid,
+    /// <summary>
+    /// 1 / (A (V - V0) / (1 - exp(-(V - V0) / K)) + C1 (V - V1) / (1 - exp(-(V - V1) / K1))): a time constant written as
+    /// 1 / (alpha + beta) beside a separately fitted steady state (e.g. the h gate of Mainen et al. 1995).
+    /// </summary>
+    InverseRateSum,
+    /// <summary>
+    /// Opening rate limited by voltage-dependent calcium binding: A / (1 + C1 exp(-V / K) / [Ca]), C1 in mM
+    /// (Moczydlowski &amp; Latorre 1983, J Gen Physiol 82:511). Depends on intracellular calcium.
+    /// </summary>
+    CalciumBoundOpening,
+    /// <summary>
+    /// Closing rate slowed by voltage-dependent calcium binding: A / (1 + [Ca] / (C1 exp(-V / K))), C1 in mM
+    /// (Moczydlowski &amp; Latorre 1983). Depends on intracellular calcium.
+    /// </summary>
+    CalciumBoundClosing,
 }
 
 /// <summary>
@@ -47,6 +64,40 @@ public sealed record GateRate
         new() { Shape = RateShape.Bell, Base = baseMs, A = amplitude, V0 = vRise, K = kRise, V1 = vFall, K1 = kFall, C1 = c1, C2 = c2 };
     public static GateRate Gaussian(double baseMs, double amplitude, double vPeak, double width) =>
         new() { Shape = RateShape.Gaussian, Base = baseMs, A = amplitude, V0 = vPeak, K = width };
+    public static GateRate OffsetSigmoid(double baseMs, double amplitude, double v0, double k) =>
+        new() { Shape = RateShape.OffsetSigmoid, Base = baseMs, A = amplitude, V0 = v0, K = k };
+    public static GateRate InverseRateSum(double a, double v0, double k, double c1, double v1, double k1) =>
+        new() { Shape = RateShape.InverseRateSum, A = a, V0 = v0, K = k, C1 = c1, V1 = v1, K1 = k1 };
+    public static GateRate CalciumBoundOpening(double maxRatePerMs, double dissociationAtZeroMm, double kMv) =>
+        new() { Shape = RateShape.CalciumBoundOpening, A = maxRatePerMs, C1 = dissociationAtZeroMm, K = kMv };
+    public static GateRate CalciumBoundClosing(double maxRatePerMs, double dissociationAtZeroMm, double kMv) =>
+        new() { Shape = RateShape.CalciumBoundClosing, A = maxRatePerMs, C1 = dissociationAtZeroMm, K = kMv };
+
+    /// <summary>Intracellular calcium (mM) assumed when a calcium-dependent rate is evaluated without one (50 nM, as in <see cref="GateSpec.SteadyStateAt"/>).</summary>
+    public const double RestingCalciumMm = 5e-5;
+
+    /// <summary>True for the shapes whose value depends on intracellular calcium as well as voltage.</summary>
+    public bool DependsOnCalcium => Shape is RateShape.CalciumBoundOpening or RateShape.CalciumBoundClosing;
+
+    /// <summary>Value at <paramref name="vMv"/> (mV) and intracellular calcium <paramref name="calciumMm"/> (mM); voltage-only shapes ignore calcium.</summary>
+    public double Evaluate(double vMv, double calciumMm)
+    {
+        switch (Shape)
+        {
+            case RateShape.CalciumBoundOpening:
+                {
+                    double ca = Math.Max(calciumMm, 1e-12);
+                    return A / (1 + C1 * Math.Exp(-vMv / K) / ca);
+                }
+            case RateShape.CalciumBoundClosing:
+                {
+                    double ca = Math.Max(calciumMm, 0);
+                    return A / (1 + ca / (C1 * Math.Exp(-vMv / K)));
+                }
+            default:
+                return Evaluate(vMv);
+        }
+    }
 
     /// <summary>Value at membrane potential <paramref name="vMv"/> (mV).</summary>
     public double Evaluate(double vMv)
@@ -81,6 +132,12 @@ public sealed record GateRate
                     double z = (vMv - V0) / K;
                     return Base + A * Math.Exp(-z * z);
                 }
+            case RateShape.OffsetSigmoid:
+                return Base + A / (1 + Math.Exp((vMv - V0) / K));
+            case RateShape.InverseRateSum:
+                return 1 / (LinearOverExponential(A, V0, K).Evaluate(vMv) + LinearOverExponential(C1, V1, K1).Evaluate(vMv));
+            case RateShape.CalciumBoundOpening or RateShape.CalciumBoundClosing:
+                return Evaluate(vMv, RestingCalciumMm);
             default:
                 throw new InvalidOperationException($"Unknown rate shape {Shape}.");
         }
@@ -95,7 +152,10 @@ public sealed record GateRate
         return Shape switch
         {
             RateShape.Exponential or RateShape.Sigmoid or RateShape.LinearOverExponential or RateShape.Boltzmann or RateShape.Gaussian when K == 0 => "k must not be zero",
-            RateShape.Bell when K == 0 || K1 == 0 => "k and k1 must not be zero",
+            RateShape.Bell or RateShape.InverseRateSum when K == 0 || K1 == 0 => "k and k1 must not be zero",
+            RateShape.OffsetSigmoid when K == 0 => "k must not be zero",
+            RateShape.CalciumBoundOpening or RateShape.CalciumBoundClosing when K == 0 => "k must not be zero",
+            RateShape.CalciumBoundOpening or RateShape.CalciumBoundClosing when !(C1 > 0) => "c1 (dissociation constant at 0 mV, mM) must be positive",
             RateShape.Boltzmann when Floor < 0 || Floor >= 1 => "floor must lie in [0, 1)",
             RateShape.Boltzmann when Exponent <= 0 => "exponent must be positive",
             _ => null,

@@ -7,7 +7,11 @@ public enum GateKind
     AlphaBeta,
     /// <summary>dx/dt = (x_inf(V) - x) / tau(V).</summary>
     SteadyStateAndTau,
-    /// <summary>Calcium-gated: x_inf = ca^n / (ca^n + Kd^n), constant tau (SK-type).</summary>
+    /// <summary>
+    /// Calcium-gated, computed per step from V and calcium: either x_inf = ca^n / (ca^n + Kd^n) with constant tau
+    /// (SK-type, <see cref="GateSpec.Calcium"/>), or alpha/beta rates that depend on voltage and calcium
+    /// (BK-type, <see cref="RateShape.CalciumBoundOpening"/> and <see cref="RateShape.CalciumBoundClosing"/>).
+    /// </summary>
     Calcium,
 }
 
@@ -47,6 +51,12 @@ public sealed record GateSpec
                 }
             case GateKind.SteadyStateAndTau:
                 return SteadyState!.Evaluate(vMv);
+            case GateKind.Calcium when Calcium is null:
+                {
+                    // Voltage- and calcium-dependent alpha/beta (Moczydlowski & Latorre 1983): x_inf = alpha/(alpha+beta).
+                    double a = Alpha!.Evaluate(vMv, calciumMm), b = Beta!.Evaluate(vMv, calciumMm);
+                    return a / (a + b);
+                }
             case GateKind.Calcium:
                 {
                     var c = Calcium!;
@@ -58,7 +68,25 @@ public sealed record GateSpec
         }
     }
 
-    /// <summary>Time constant (ms) at V before temperature scaling, including the rate factor.</summary>
+    /// <summary>
+    /// Time constant (ms) at V and intracellular calcium (mM) before temperature scaling, including the rate factor.
+    /// Differs from <see cref="TimeConstantAt(double)"/> only for calcium gates written as alpha/beta rates (BK-type),
+    /// whose time constant 1/(alpha+beta) depends on both; a simulator should call this one per step for them.
+    /// </summary>
+    public double TimeConstantAt(double vMv, double calciumMm)
+    {
+        if (Kind == GateKind.Calcium && Calcium is null)
+            return 1 / ((Alpha!.Evaluate(vMv, calciumMm) + Beta!.Evaluate(vMv, calciumMm)) * RateFactor);
+        return TimeConstantAt(vMv);
+    }
+
+    /// <summary>True when the steady state depends on intracellular calcium (computed per step, not tabulated by voltage).</summary>
+    public bool DependsOnCalcium => Kind == GateKind.Calcium;
+
+    /// <summary>
+    /// Time constant (ms) at V before temperature scaling, including the rate factor. For calcium gates written as
+    /// alpha/beta rates it is evaluated at resting calcium (<see cref="GateRate.RestingCalciumMm"/>).
+    /// </summary>
     public double TimeConstantAt(double vMv)
     {
         switch (Kind)
@@ -67,6 +95,8 @@ public sealed record GateSpec
                 return 1 / ((Alpha!.Evaluate(vMv) + Beta!.Evaluate(vMv)) * RateFactor);
             case GateKind.SteadyStateAndTau:
                 return TimeConstantMs!.Evaluate(vMv) / RateFactor;
+            case GateKind.Calcium when Calcium is null:
+                return TimeConstantAt(vMv, GateRate.RestingCalciumMm);
             case GateKind.Calcium:
                 return Calcium!.TimeConstantMs / RateFactor;
             default:
@@ -87,6 +117,9 @@ public sealed record GateSpec
             case GateKind.SteadyStateAndTau:
                 if (SteadyState is null || (TimeConstantMs is null && !Instantaneous)) return $"gate {Name}: steadyState and tauMs are required";
                 return SteadyState.Problem() is { } ps ? $"gate {Name} steadyState: {ps}" : TimeConstantMs?.Problem() is { } pt ? $"gate {Name} tauMs: {pt}" : null;
+            case GateKind.Calcium when Calcium is null && (Alpha is not null || Beta is not null):
+                if (Alpha is null || Beta is null) return $"gate {Name}: a calcium gate written as rates needs both alpha and beta";
+                return Alpha.Problem() is { } ca ? $"gate {Name} alpha: {ca}" : Beta.Problem() is { } cb ? $"gate {Name} beta: {cb}" : null;
             case GateKind.Calcium:
                 if (Calcium is null) return $"gate {Name}: calcium sensitivity is required";
                 if (!(Calcium.HalfActivationMm > 0) || !(Calcium.HillCoefficient > 0) || !(Calcium.TimeConstantMs > 0))

@@ -140,7 +140,8 @@ public static class EntryFile
 
         public GateSpec ToGate(int index)
         {
-            GateKind kind = Calcium is not null ? GateKind.Calcium
+            bool calciumRates = (Alpha is not null && IsCalciumShape(Alpha.Shape)) || (Beta is not null && IsCalciumShape(Beta.Shape));
+            GateKind kind = Calcium is not null || calciumRates ? GateKind.Calcium
                 : Alpha is not null || Beta is not null ? GateKind.AlphaBeta
                 : Steady is not null ? GateKind.SteadyStateAndTau
                 : throw new ArgumentException($"gates[{index}] ({Name}): give alpha and beta, or steady and tauMs, or calcium.");
@@ -158,6 +159,8 @@ public static class EntryFile
                 RateFactor = RateFactor,
             };
         }
+
+        private static bool IsCalciumShape(string shape) => shape is "calcium-bound-opening" or "calcium-bound-closing";
 
         public static GateDto From(GateSpec g) => new()
         {
@@ -181,7 +184,8 @@ public static class EntryFile
     }
 
     /// <summary>
-    /// A rate form: shape is one of exponential, sigmoid, linear-over-exponential, boltzmann, constant, bell, gaussian.
+    /// A rate form: shape is one of exponential, sigmoid, linear-over-exponential, boltzmann, constant, bell, gaussian,
+    /// offset-sigmoid, inverse-rate-sum, calcium-bound-opening, calcium-bound-closing.
     /// Parameter names follow <see cref="GateRate"/>; boltzmann uses vHalf and slope.
     /// </summary>
     internal sealed class RateDto
@@ -212,7 +216,11 @@ public static class EntryFile
             "constant" => GateRate.Constant(Need(Value, "value", where)),
             "bell" => GateRate.Bell(Base ?? 0, Need(A, "a", where), Need(V0, "v0", where), Need(K, "k", where), Need(V1, "v1", where), Need(K1, "k1", where), C1 ?? 1, C2 ?? 1),
             "gaussian" => GateRate.Gaussian(Base ?? 0, Need(A, "a", where), Need(V0, "v0", where), Need(K, "k", where)),
-            _ => throw new ArgumentException($"{where}: unknown shape '{Shape}' (use exponential, sigmoid, linear-over-exponential, boltzmann, constant, bell or gaussian)."),
+            "offset-sigmoid" => GateRate.OffsetSigmoid(Need(Base, "base", where), Need(A, "a", where), Need(V0, "v0", where), Need(K, "k", where)),
+            "inverse-rate-sum" => GateRate.InverseRateSum(Need(A, "a", where), Need(V0, "v0", where), Need(K, "k", where), Need(C1, "c1", where), Need(V1, "v1", where), Need(K1, "k1", where)),
+            "calcium-bound-opening" => GateRate.CalciumBoundOpening(Need(A, "a", where), Need(C1, "c1", where), Need(K, "k", where)),
+            "calcium-bound-closing" => GateRate.CalciumBoundClosing(Need(A, "a", where), Need(C1, "c1", where), Need(K, "k", where)),
+            _ => throw new ArgumentException($"{where}: unknown shape '{Shape}' (use exponential, sigmoid, linear-over-exponential, boltzmann, constant, bell, gaussian, offset-sigmoid, inverse-rate-sum, calcium-bound-opening or calcium-bound-closing)."),
         };
 
         public static RateDto? From(GateRate? r) => r is null ? null : r.Shape switch
@@ -224,6 +232,10 @@ public static class EntryFile
             RateShape.Constant => new() { Shape = "constant", Value = r.A },
             RateShape.Bell => new() { Shape = "bell", Base = r.Base, A = r.A, V0 = r.V0, K = r.K, V1 = r.V1, K1 = r.K1, C1 = r.C1 == 1 ? null : r.C1, C2 = r.C2 == 1 ? null : r.C2 },
             RateShape.Gaussian => new() { Shape = "gaussian", Base = r.Base, A = r.A, V0 = r.V0, K = r.K },
+            RateShape.OffsetSigmoid => new() { Shape = "offset-sigmoid", Base = r.Base, A = r.A, V0 = r.V0, K = r.K },
+            RateShape.InverseRateSum => new() { Shape = "inverse-rate-sum", A = r.A, V0 = r.V0, K = r.K, C1 = r.C1, V1 = r.V1, K1 = r.K1 },
+            RateShape.CalciumBoundOpening => new() { Shape = "calcium-bound-opening", A = r.A, C1 = r.C1, K = r.K },
+            RateShape.CalciumBoundClosing => new() { Shape = "calcium-bound-closing", A = r.A, C1 = r.C1, K = r.K },
             _ => throw new InvalidOperationException(),
         };
     }

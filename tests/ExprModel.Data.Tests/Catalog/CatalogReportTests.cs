@@ -1,0 +1,77 @@
+using ExprModel.Core.Mapping;
+using ExprModel.Data.Catalog;
+
+namespace ExprModel.Data.Tests.Catalog;
+
+public class CatalogReportTests
+{
+    private static readonly Lazy<ChannelCatalog> Built = new(() =>
+    {
+        var db = Path.Combine(Path.GetTempPath(), $"exprmodel-catalog-report-{Guid.NewGuid():N}.db");
+        CatalogBuilder.Build(CatalogFiles.Sources(), db);
+        return ChannelCatalog.Open(db);
+    });
+
+    [Fact]
+    public void Report_shows_every_entry_with_citation_verification_and_a_curve_table()
+    {
+        var catalog = Built.Value;
+        var text = CatalogReport.Markdown(catalog);
+        foreach (var e in catalog.Latest)
+        {
+            var section = CatalogReport.Entry(e);
+            Assert.Contains($"## {e.Key}: {e.Name}", text);
+            Assert.Contains(e.Source.Authors, section);
+            Assert.Contains(e.Family, section);
+            Assert.Contains(e.Source.Verification == Core.Kinetics.Verification.Recalled ? "RECALLED" : "checked against the paper", section);
+            if (e.Source.Doi.Length > 0) Assert.Contains(e.Source.Doi, section);
+            if (e.Gates.Count > 0)
+                // 15 rows, -100..+40 mV in 10 mV steps, plus header and rule.
+                Assert.Equal(17, CatalogReport.Table(e).Split('\n', StringSplitOptions.RemoveEmptyEntries).Length);
+        }
+    }
+
+    [Fact]
+    public void Report_states_the_half_activation_and_time_constants_the_sources_give()
+    {
+        var catalog = Built.Value;
+        // Golomb et al. 2007 (PLoS Comput Biol 3:e156): I_Kd a_inf half-activation -50 mV, tau_a 2 ms, tau_b 150 ms.
+        var kd = CatalogReport.Entry(catalog.Resolve("kv1-d-golomb2007", 1));
+        Assert.Contains("half-activation -50.0 mV", kd);
+        Assert.Contains("tau 150 to 150 ms", kd);
+        // Mainen & Sejnowski 1996 M-current: symmetric rates cross at -30 mV; tau there 1/(2 x 0.009) = 55.6 ms.
+        var m = CatalogReport.Entry(catalog.Resolve("kv7-m-mainen1996", 1));
+        Assert.Contains("half-activation -30.0 mV", m);
+        Assert.Contains("55.56 ms", m);
+        // Kohler et al. 1996: SK2 half-activation 0.63 uM calcium.
+        Assert.Contains("calcium half-activation 0.63 uM", CatalogReport.Entry(catalog.Resolve("sk2-kohler1996", 1)));
+    }
+
+    [Fact]
+    public void Gene_rows_list_every_status_and_rodent_links_and_write_csv()
+    {
+        var catalog = Built.Value;
+        var rows = GeneCoverage.Rows(catalog);
+        Assert.Equal(catalog.GeneStatuses.Count, rows.Count(r => r.Species == Species.Human));
+        var scn8a = rows.Single(r => r.Species == Species.Human && r.Symbol == "SCN8A");
+        Assert.Equal("linked", scn8a.Status);
+        Assert.Contains("traub-na", scn8a.Entries);
+        Assert.Contains("nap-ca1-golomb2006", scn8a.Entries);
+        Assert.Contains("nap-ca1-golomb2006:0.5", rows.Single(r => r.Species == Species.Human && r.Symbol == "SCN1A").Entries);
+        Assert.Contains(rows, r => r.Species == Species.Mouse && r.Symbol == "Kcnq2" && r.Status == "linked");
+        Assert.Contains(rows, r => r.Species == Species.Rat && r.Symbol == "Hcn1" && r.Status == "linked");
+        var csv = GeneCoverage.ToCsv(rows).Split('\n', StringSplitOptions.RemoveEmptyEntries);
+        Assert.Equal("symbol,species,status,entries", csv[0]);
+        Assert.Equal(rows.Count + 1, csv.Length);
+        Assert.Contains("SCN5A,human,non-neuronal,", csv);
+    }
+
+    [Fact]
+    public void Coverage_figure_counts_neuronal_voltage_gated_pores()
+    {
+        var figure = GeneCoverage.VoltageGatedPoreCoverage(Built.Value);
+        Assert.True(figure.Fraction >= 0.9, $"{figure.Linked}/{figure.Total}: {string.Join(" ", figure.Unlinked)}");
+        Assert.DoesNotContain("SCN5A", figure.Unlinked); // non-neuronal genes are outside the denominator
+        Assert.Contains("SCN10A", figure.Unlinked);
+    }
+}

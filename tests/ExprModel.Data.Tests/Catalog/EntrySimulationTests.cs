@@ -1,0 +1,36 @@
+using ExprModel.Core.Cell;
+using ExprModel.Core.Kinetics;
+using ExprModel.Core.Simulation;
+
+namespace ExprModel.Data.Tests.Catalog;
+
+/// <summary>Every entry, at its typical density, can be simulated in a spiking cell without leaving the physical range.</summary>
+public class EntrySimulationTests
+{
+    private static ChannelEntry E(string id) => CatalogFiles.Content.Entries.Single(e => e.Id == id);
+
+    [Theory]
+    [MemberData(nameof(CatalogFiles.EntryKeys), MemberType = typeof(CatalogFiles))]
+    public void Entry_runs_in_a_spiking_cell_with_a_calcium_shell(string key)
+    {
+        var entry = CatalogFiles.Content.Entries.Single(e => e.Key == key);
+        var channels = new List<ChannelInstance>
+        {
+            new() { Entry = E("traub-na"), DensityMsPerCm2 = 50, ShiftMv = 0 },
+            new() { Entry = E("traub-kdr"), DensityMsPerCm2 = 5 },
+            new() { Entry = E("leak"), DensityMsPerCm2 = 0.05 },
+            // A calcium source, so calcium-gated entries see calcium rise during spikes.
+            new() { Entry = E("cav-hva-reuveni1993"), DensityMsPerCm2 = 0.3 },
+        };
+        if (channels.All(c => c.Entry.Key != entry.Key))
+            channels.Add(new() { Entry = entry, DensityMsPerCm2 = entry.TypicalDensityMsPerCm2 });
+        var model = new CellModel
+        {
+            Geometry = Geometry.FromDiameter(30), TemperatureC = 36, InitialVoltageMv = -70,
+            CalciumShell = new CalciumShell(), Channels = channels,
+        };
+        var cell = new CompiledCell(model);
+        var trace = Simulator.Run(cell, new StepCurrent(20, 150, 3), 200);
+        Assert.All(trace.VoltageMv, v => Assert.InRange(v, -130, 90));
+    }
+}
