@@ -43,9 +43,14 @@ public sealed class SimulationApiTests(AppFactory factory) : ApiTestBase(factory
     [Fact]
     public async Task Uploads_over_the_limit_are_refused_with_a_clear_message()
     {
-        var big = new ByteArrayContent(new byte[1024 * 1024 + 10]);
-        big.Headers.ContentType = new("text/csv");
-        await AssertProblem(await Client.PostAsync("/api/build?group=x", big), 413, "upload limit", "1 MB");
+        var table = "gene,c1\n" + string.Concat(Enumerable.Range(0, 80_000).Select(i => $"G{i},{i}\n"));
+        var big = JsonContent.Create(new { expression = table, cell = "c1" });
+        await big.LoadIntoBufferAsync();
+        Assert.True(big.Headers.ContentLength > 1024 * 1024);
+        await AssertProblem(await Client.PostAsync("/api/build", big), 413, "upload limit", "1 MB");
+        // Just under the limit is read (and then judged on its content).
+        var small = await Client.PostAsJsonAsync("/api/build", new { expression = "gene,c1\nScn1a,2\n", cell = "c1" });
+        Assert.NotEqual(413, (int)small.StatusCode);
     }
 
     [Fact]
