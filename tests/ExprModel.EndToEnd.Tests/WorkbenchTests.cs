@@ -12,7 +12,7 @@ public sealed class WorkbenchTests(AppFixture app)
     internal static async Task WaitForUpdateAfter(IPage page, int before) =>
         await page.WaitForFunctionAsync($"() => Number(document.querySelector('[data-testid=readouts]')?.dataset.update ?? 0) > {before}");
 
-    internal static async Task<Dictionary<string, string>> ReadoutValues(IPage page, string column = "current")
+    internal static async Task<Dictionary<string, string>> ReadoutValues(IPage page, string column = "now")
     {
         var headers = await page.Locator("[data-testid=readouts] thead th").AllInnerTextsAsync();
         int col = headers.ToList().IndexOf(column);

@@ -11,8 +11,8 @@ public sealed class ReadoutPanelTests : BunitContext
     {
         ReadoutRow[] a = [new("rheobase", "uA/cm2", 0.16), new("excitability_class", "1 or 2", 1), new("adaptation_ratio", "last/first ISI", null)];
         ReadoutRow[] b = [new("rheobase", "uA/cm2", 7.25), new("excitability_class", "1 or 2", 2)];
-        var cut = Render<ReadoutPanel>(p => p.Add(x => x.Columns, [new ReadoutPanel.Column("#1", "#c8553d", a), new ReadoutPanel.Column("current", "#1d2a36", b)]).Add(x => x.UpdateCount, 3));
-        Assert.Equal(["Read-out", "#1", "current", "Unit"], cut.FindAll("thead th").Select(t => t.TextContent));
+        var cut = Render<ReadoutPanel>(p => p.Add(x => x.Columns, [new ReadoutPanel.Column("#1", "#c8553d", a), new ReadoutPanel.Column("now", "#1d2a36", b)]).Add(x => x.UpdateCount, 3));
+        Assert.Equal(["Read-out", "#1", "now", "Unit"], cut.FindAll("thead th").Select(t => t.TextContent));
         var rows = cut.FindAll("tbody tr");
         Assert.Equal(3, rows.Count);
         var rheo = cut.Find("tr[data-readout=rheobase]").QuerySelectorAll("td").Select(t => t.TextContent).ToArray();
