@@ -12,3 +12,8 @@ window.exprModel = {
     setTimeout(function () { URL.revokeObjectURL(url); }, 1000);
   }
 };
+window.exprModel.downloadFigure = function (id, format, fileName, height) {
+  const el = document.getElementById(id);
+  if (!el || !window.Plotly) return;
+  return window.Plotly.downloadImage(el, { format: format, filename: fileName, height: height, width: Math.max(el.clientWidth, 600) });
+};
