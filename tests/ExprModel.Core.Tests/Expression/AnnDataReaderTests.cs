@@ -1,6 +1,8 @@
 using ExprModel.Core.Expression;
 using ExprModel.Core.Expression.AnnData;
 using PureHDF;
+using PureHDF.Filters;
+using PureHDF.VOL.Native;
 
 namespace ExprModel.Core.Tests.Expression;
 
@@ -118,5 +120,17 @@ public sealed class AnnDataReaderTests : IDisposable
         Assert.Equal("rheobase", rheobase.Name);
         Assert.Equal("pA", rheobase.Unit);
         Assert.Equal([50.0, null, 120.0], rheobase.Values);
+    }
+
+    [Fact]
+    public void ReadsChunkedDeflateCompressedX()
+    {
+        // Writers commonly store X chunked and gzip (deflate) compressed; slices must cross chunk boundaries.
+        var creation = new H5DatasetCreation { Filters = [DeflateFilter.Id] };
+        var x = new H5Dataset(Dense, chunks: [2, 3], datasetCreation: creation);
+        var t = AnnDataReader.Read(Write("chunked.h5ad", x), new() { KeepGene = g => g is "Gapdh" or "Actb" });
+        Assert.Equal([2.0, 0, 7], t.Genes["Gapdh"]);
+        Assert.Equal([10.0, 4, 1], t.Genes["Actb"]);
+        Assert.Equal([17.0, 8, 8], t.LibrarySizes);
     }
 }

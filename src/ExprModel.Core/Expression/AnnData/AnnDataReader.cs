@@ -154,8 +154,10 @@ public static class AnnDataReader
     private static string[] ReadIndex(NativeFile h5, string frame, Location at)
     {
         at.Path = "/" + frame;
-        if (!Guard(at, () => h5.LinkExists(frame)) || Guard(at, () => h5.Get(frame)) is not IH5Group group)
+        if (!Guard(at, () => h5.LinkExists(frame)))
             throw at.Error($"missing: the file has no {frame} data frame.");
+        if (Guard(at, () => h5.Get(frame)) is not IH5Group group)
+            throw at.Error($"is a single dataset, not a group: an older AnnData layout (compound data frames) that is not read; save the file again with a current AnnData version.");
         string indexName = ReadStringAttribute(group, "_index", at) ?? "_index";
         at.Path = $"/{frame}/{indexName}";
         if (!Guard(at, () => group.LinkExists(indexName)) || Guard(at, () => group.Get(indexName)) is not IH5Dataset index)
