@@ -44,6 +44,7 @@ public sealed record ModelDocument
             UnmappedMemberHandling = JsonUnmappedMemberHandling.Disallow,
             AllowTrailingCommas = false,
             ReadCommentHandling = JsonCommentHandling.Skip,
+            Encoder = System.Text.Encodings.Web.JavaScriptEncoder.UnsafeRelaxedJsonEscaping,
         };
         o.Converters.Add(new JsonStringEnumConverter(JsonNamingPolicy.KebabCaseLower));
         return o;

@@ -16,6 +16,18 @@ internal sealed class RateTable
     /// <summary>For calcium gates: the per-step decay e^(-dt/tau) (tau is voltage-independent).</summary>
     public readonly double[] CalciumDecay;
     public readonly double DtMs;
+    private double[]? _flat;
+
+    /// <summary>Every voltage gate's table laid end to end (stride 2 * Points) for the SIMD sweep kernel; calcium gates are zero.</summary>
+    public double[] Flat => _flat ??= BuildFlat();
+
+    private double[] BuildFlat()
+    {
+        var flat = new double[Data.Length * 2 * Points];
+        for (int g = 0; g < Data.Length; g++)
+            if (Data[g] is { } t) Array.Copy(t, 0, flat, (long)g * 2 * Points, t.Length);
+        return flat;
+    }
 
     public RateTable(CompiledCell cell, double dtMs)
     {

@@ -13,6 +13,9 @@ public static class Simulator
 {
     private static readonly ConditionalWeakTable<CompiledCell, ConcurrentDictionary<double, RateTable>> Tables = new();
 
+    /// <summary>Lets tests and benchmarks compare the SIMD sweep with the scalar loop.</summary>
+    internal static bool UseSimd { get; set; } = true;
+
     internal static RateTable TableFor(CompiledCell cell, double dtMs) =>
         Tables.GetOrCreateValue(cell).GetOrAdd(dtMs, dt => new RateTable(cell, dt));
 
@@ -38,6 +41,19 @@ public static class Simulator
         var start = initial ?? cell.InitialState();
         var result = new IReadOnlyList<double>[stimuli.Count];
         var options = new ParallelOptions { CancellationToken = cancel, MaxDegreeOfParallelism = Environment.ProcessorCount };
+        if (SweepKernel.CanRun(cell) && UseSimd)
+        {
+            _ = table.Flat;
+            int groups = (stimuli.Count + SweepKernel.Width - 1) / SweepKernel.Width;
+            Parallel.For(0, groups, options, gi =>
+            {
+                int first = gi * SweepKernel.Width, count = Math.Min(SweepKernel.Width, stimuli.Count - first);
+                var stims = Enumerable.Range(first, count).Select(i => stimuli[i].Sample(settings.DtMs, steps)).ToArray();
+                var spikes = SweepKernel.Run(cell, table, stims, steps, settings, start, cancel);
+                for (int l = 0; l < count; l++) result[first + l] = spikes[l];
+            });
+            return result;
+        }
         Parallel.For(0, stimuli.Count, options, i =>
         {
             var stim = stimuli[i].Sample(settings.DtMs, steps);
@@ -71,6 +87,8 @@ public static class Simulator
             var gateEnd = cell.GateEnd;
             var power = cell.GatePower;
             var isCa = cell.GateIsCalcium;
+            var instant = cell.GateIsInstantaneous;
+            double vPrevious = v;
             bool anyCalciumGate = isCa.Any(b => b);
             bool anySpecial = mode.Any(m => m != DriveMode.Ohmic);
             double cm = cell.CapacitanceUfPerCm2;
@@ -117,6 +135,17 @@ public static class Simulator
                         x[k] = inf + (x[k] - inf) * caDecay[k];
                         continue;
                     }
+                    if (instant[k])
+                    {
+                        // An instantaneous gate must sit at the V of the coming half step, not of this instant:
+                        // extrapolate V to t + dt/2 so the scheme stays second order.
+                        double pm = (v + 0.5 * (v - vPrevious) - RateTable.MinMv) * invRes;
+                        if (pm < 0) pm = 0;
+                        else if (pm > maxIndex) pm = maxIndex;
+                        int im = (int)pm;
+                        x[k] = t[2 * im + 1] + (pm - im) * (t[2 * im + 3] - t[2 * im + 1]);
+                        continue;
+                    }
                     double a = t[j] + f * (t[j + 2] - t[j]);
                     double b = t[j + 1] + f * (t[j + 3] - t[j + 1]);
                     x[k] = a * x[k] + b;
@@ -145,6 +174,7 @@ public static class Simulator
                 }
                 double iStim = stim[s];
                 double vOld = v;
+                vPrevious = v;
                 if (gSum > 1e-12)
                 {
                     double vInf = (gE + iStim - extra) / gSum;

@@ -4,10 +4,12 @@ namespace ExprModel.Core.Simulation;
 /// Spike detection used everywhere (online in the integrator, offline on traces): an upward crossing of
 /// <see cref="LevelMv"/> (default -20 mV, common practice) while armed; re-armed once the potential has fallen
 /// below the level again and <see cref="RefractoryMs"/> has passed. Spike time is the linearly interpolated crossing.
+/// A crossing counts only once the potential falls back below the level within <see cref="MaxWidthMs"/>, so a
+/// sustained depolarisation (a passive cell pushed past the level, or depolarisation block) is not a spike.
 /// </summary>
-public readonly record struct SpikeDetection(double LevelMv = -20, double RefractoryMs = 1.0)
+public readonly record struct SpikeDetection(double LevelMv = -20, double RefractoryMs = 1.0, double MaxWidthMs = 20)
 {
-    public static SpikeDetection Default => new(-20, 1.0);
+    public static SpikeDetection Default => new(-20, 1.0, 20);
 }
 
 /// <summary>Streaming state of a <see cref="SpikeDetection"/> over one trace.</summary>
@@ -15,6 +17,8 @@ public struct SpikeDetector
 {
     private readonly double _level;
     private readonly double _refractory;
+    private readonly double _maxWidth;
+    private double _pending;
     private bool _armed;
     private double _lastSpike;
     private double _lastV;
@@ -24,24 +28,38 @@ public struct SpikeDetector
     {
         _level = settings.LevelMv;
         _refractory = settings.RefractoryMs;
+        _maxWidth = settings.MaxWidthMs;
+        _pending = double.NaN;
         _armed = true;
         _lastSpike = double.NegativeInfinity;
         _lastV = double.NaN;
         _started = false;
     }
 
-    /// <summary>Feeds the sample at time t; returns the interpolated spike time or NaN.</summary>
+    /// <summary>Feeds the sample at time t; returns the interpolated crossing time of a spike confirmed now, or NaN.</summary>
     public double Feed(double tMs, double vMv, double dtMs)
     {
         double result = double.NaN;
         if (_started)
         {
-            if (!_armed && vMv < _level && tMs - _lastSpike >= _refractory) _armed = true;
+            if (!double.IsNaN(_pending))
+            {
+                if (vMv < _level)
+                {
+                    result = _pending;
+                    _pending = double.NaN;
+                }
+                else if (tMs - _pending > _maxWidth)
+                {
+                    _pending = double.NaN; // a plateau, not a spike
+                }
+            }
+            if (!_armed && double.IsNaN(_pending) && vMv < _level && tMs - _lastSpike >= _refractory) _armed = true;
             if (_armed && _lastV < _level && vMv >= _level)
             {
                 double frac = (_level - _lastV) / (vMv - _lastV);
-                result = tMs - dtMs + frac * dtMs;
-                _lastSpike = result;
+                _pending = tMs - dtMs + frac * dtMs;
+                _lastSpike = _pending;
                 _armed = false;
             }
         }

@@ -134,7 +134,7 @@ public static class CatalogBuilder
             Insert(conn, tx, "INSERT INTO gene_identifiers VALUES ($a,$b,$c,$d)", i.Identifier, i.Kind, i.Symbol, Word(i.Species));
     }
 
-    internal static string Word<T>(T value) where T : struct, Enum =>
+    public static string Word<T>(T value) where T : struct, Enum =>
         System.Text.Json.JsonNamingPolicy.KebabCaseLower.ConvertName(value.ToString());
 
     private static void Exec(SqliteConnection conn, SqliteTransaction tx, string sql)

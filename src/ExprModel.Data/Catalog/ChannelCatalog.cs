@@ -50,6 +50,12 @@ public sealed class ChannelCatalog
 
     public bool Contains(string id) => _latest.ContainsKey(id);
 
+    /// <summary>What the expression mapping needs: latest entries, links, statuses, identifiers.</summary>
+    public ExprModel.Core.Mapping.MappingCatalog ForMapping() => new(Latest, GeneLinks, GeneStatuses, GeneIdentifiers);
+
+    /// <summary>Resolves a model file's entries (pinned versions, or latest) into a simulatable cell.</summary>
+    public ExprModel.Core.Cell.CellModel BuildCell(ModelDocument doc) => doc.ToCellModel(Resolve);
+
     public ModelDocument Preset(string id) =>
         Presets.TryGetValue(id, out var p) ? p : throw new CatalogException($"Unknown preset '{id}'. Presets: {string.Join(", ", Presets.Keys.Order(StringComparer.Ordinal))}.");
 

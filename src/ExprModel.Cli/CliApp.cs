@@ -1,0 +1,66 @@
+using System.CommandLine;
+using ExprModel.Cli.Commands;
+using ExprModel.Core.Expression;
+using ExprModel.Core.Models;
+using ExprModel.Core.Simulation;
+using ExprModel.Data.Catalog;
+
+namespace ExprModel.Cli;
+
+/// <summary>The exprmodel command line: one root with a sub-command per task; errors go to stderr with a non-zero exit.</summary>
+public static class CliApp
+{
+    public static int Run(string[] args, TextWriter stdout, TextWriter stderr)
+    {
+        var ctx = new CliContext(stdout, stderr);
+        var root = new RootCommand("exprmodel: predict firing from ion-channel gene expression with conductance-based single-compartment models.");
+        root.Subcommands.Add(CatalogCommands.Create(ctx));
+        foreach (var c in ModelCommands.Create(ctx)) root.Subcommands.Add(c);
+        foreach (var c in ExpressionCommands.Create(ctx)) root.Subcommands.Add(c);
+        var parse = root.Parse(args);
+        if (parse.Errors.Count > 0)
+        {
+            foreach (var e in parse.Errors) stderr.WriteLine($"error: {e.Message}");
+            return 2;
+        }
+        try
+        {
+            return parse.Invoke(new InvocationConfiguration { Output = stdout, Error = stderr, EnableDefaultExceptionHandler = false });
+        }
+        catch (Exception e) when (e is CatalogException or ModelFileException or ModelException or SimulationBlowUpException
+            or ExpressionFormatException or CliException or ArgumentException or IOException or UnauthorizedAccessException)
+        {
+            stderr.WriteLine($"error: {e.Message}");
+            return 1;
+        }
+    }
+}
+
+/// <summary>A usage problem the user can fix (names the option).</summary>
+public sealed class CliException(string message) : Exception(message);
+
+/// <summary>Where a command writes, and the catalog it uses (opened on first need).</summary>
+public sealed class CliContext(TextWriter stdout, TextWriter stderr)
+{
+    private ChannelCatalog? _catalog;
+    public TextWriter Out { get; } = stdout;
+    public TextWriter Error { get; } = stderr;
+    public string? DatabasePath { get; set; }
+
+    public ChannelCatalog Catalog => _catalog ??= CatalogLocator.Ensure(DatabasePath);
+
+    /// <summary>Writes text to a file atomically (temp file then rename) or to stdout when no path is given.</summary>
+    public void Emit(string text, string? path)
+    {
+        if (string.IsNullOrEmpty(path) || path == "-")
+        {
+            Out.Write(text);
+            return;
+        }
+        var full = Path.GetFullPath(path);
+        var tmp = full + $".{Environment.ProcessId}.tmp";
+        File.WriteAllText(tmp, text);
+        File.Move(tmp, full, overwrite: true);
+        Error.WriteLine($"wrote {path}");
+    }
+}

@@ -1,0 +1,343 @@
+using System.CommandLine;
+using System.Globalization;
+using ExprModel.Core.Analysis;
+using ExprModel.Core.Cell;
+using ExprModel.Core.Export;
+using ExprModel.Core.Expression;
+using ExprModel.Core.Expression.Metadata;
+using ExprModel.Core.Mapping;
+using ExprModel.Core.Models;
+using ExprModel.Core.Simulation;
+
+namespace ExprModel.Cli.Commands;
+
+/// <summary>exprmodel build | batch | merge: from an expression table to models and read-outs.</summary>
+public static class ExpressionCommands
+{
+    /// <summary>Standard absolute steps (pA) at which batch reports firing rates.</summary>
+    public static readonly double[] StandardStepsPa = [100, 200, 400];
+
+    private sealed class Inputs
+    {
+        public readonly Option<string> Expression = new("--expression") { Description = "Expression table: CSV/TSV (optionally .gz), Matrix Market directory or .mtx, or .h5ad.", Required = true };
+        public readonly Option<string?> Metadata = new("--metadata") { Description = "Cell metadata table (cell id column plus group labels)." };
+        public readonly Option<string?> GroupBy = new("--group-by") { Description = "Metadata column holding the group labels." };
+        public readonly Option<string?> Unit = new("--unit") { Description = "Values are counts, cpm, tpm, fpkm (default: detected, with a note)." };
+        public readonly Option<string?> Log = new("--log") { Description = "Values are log-transformed: ln1p, log2p1 or log10p1 (undone before use)." };
+        public readonly Option<string?> Orientation = new("--orientation") { Description = "genes-as-rows or cells-as-rows (default: detected, with a note)." };
+        public readonly Option<string?> ReferenceGroup = new("--reference-group") { Description = "Scale densities relative to this group's mean instead of the dataset median." };
+        public readonly Option<double> Exponent = new("--exponent") { Description = "Exponent of the density rule (1 = linear).", DefaultValueFactory = _ => 1.0 };
+        public readonly Option<bool> NoClamp = new("--no-clamp") { Description = "Do not clamp densities to each entry's plausible range." };
+        public readonly Option<double> CapacitancePf = new("--capacitance") { Description = "Whole-cell capacitance of the model (pF).", DefaultValueFactory = _ => 50 };
+        public readonly Option<double> Temperature = new("--temperature") { Description = "Model temperature (C).", DefaultValueFactory = _ => 34 };
+        public readonly Option<string[]> Exclude = new("--exclude") { Description = "Leave this gene out (repeatable).", AllowMultipleArgumentsPerToken = false };
+        public readonly Option<string[]> Repoint = new("--repoint") { Description = "GENE=ENTRY[:WEIGHT]: feed this gene to another entry only (repeatable)." };
+        public readonly Option<string[]> Weight = new("--weight") { Description = "GENE=WEIGHT: change the weight of a gene's links (repeatable)." };
+        public readonly Option<string?> Db = new("--db") { Description = "Catalog database file." };
+
+        public void AddTo(Command c)
+        {
+            foreach (var o in new Option[] { Expression, Metadata, GroupBy, Unit, Log, Orientation, ReferenceGroup, Exponent, NoClamp, CapacitancePf, Temperature, Exclude, Repoint, Weight, Db })
+                c.Options.Add(o);
+        }
+
+        public (ExpressionTable Table, CellGroups? Groups, MappingReport Report, MappingCatalog Catalog, DensityRule Rule) Load(ParseResult p, CliContext ctx)
+        {
+            ctx.DatabasePath = p.GetValue(Db);
+            var catalog = ctx.Catalog.ForMapping();
+            var resolver = new GeneResolver(catalog.Links, catalog.Statuses, catalog.Identifiers);
+            var options = new ExpressionReadOptions
+            {
+                KeepGene = resolver.Knows,
+                Unit = p.GetValue(Unit) is { } u ? ParseUnit(u) : null,
+                LogTransform = p.GetValue(Log) is { } l ? ParseLog(l) : LogTransform.None,
+                Orientation = p.GetValue(Orientation) switch
+                {
+                    null => null,
+                    "genes-as-rows" => TableOrientation.GenesAsRows,
+                    "cells-as-rows" => TableOrientation.CellsAsRows,
+                    var o => throw new CliException($"--orientation: '{o}' is not genes-as-rows or cells-as-rows."),
+                },
+            };
+            var table = ExpressionReader.Read(p.GetValue(Expression)!, options);
+            CellGroups? groups = null;
+            if (p.GetValue(Metadata) is { } metaPath)
+            {
+                var column = p.GetValue(GroupBy) ?? throw new CliException("--metadata needs --group-by COLUMN.");
+                var meta = CellMetadataReader.Read(metaPath, new CellMetadataOptions { GroupColumns = [column] });
+                if (!meta.Labels.ContainsKey(column)) throw new CliException($"{Path.GetFileName(metaPath)}: no column '{column}' (columns: {string.Join(", ", meta.Labels.Keys)}).");
+                var labels = new Dictionary<string, string>(StringComparer.Ordinal);
+                foreach (var id in table.CellIds)
+                    if (meta.Label(column, id) is { } g) labels[id] = g;
+                groups = new CellGroups(table.CellIds, labels, column);
+                int missing = table.CellIds.Count - labels.Count;
+                if (missing > 0) ctx.Error.WriteLine($"note: {missing} cell(s) of the table have no '{column}' label in {Path.GetFileName(metaPath)}.");
+            }
+            else if (p.GetValue(GroupBy) is not null) throw new CliException("--group-by needs --metadata FILE.");
+            var report = ExpressionMapping.Map(table, catalog, Overrides(p));
+            var rule = new DensityRule
+            {
+                Reference = p.GetValue(ReferenceGroup) is null ? DensityReference.DatasetMedian : DensityReference.ReferenceGroup,
+                ReferenceGroup = p.GetValue(ReferenceGroup),
+                Exponent = p.GetValue(Exponent),
+                ClampToPlausibleRange = !p.GetValue(NoClamp),
+                CapacitancePf = p.GetValue(CapacitancePf),
+                TemperatureC = p.GetValue(Temperature),
+            };
+            return (table, groups, report, catalog, rule);
+        }
+
+        private List<GeneOverride> Overrides(ParseResult p)
+        {
+            var list = new List<GeneOverride>();
+            foreach (var g in p.GetValue(Exclude) ?? []) list.Add(new GeneOverride(g, Exclude: true));
+            foreach (var r in p.GetValue(Repoint) ?? [])
+            {
+                var parts = r.Split('=', 2);
+                if (parts.Length != 2) throw new CliException($"--repoint '{r}': use GENE=ENTRY or GENE=ENTRY:WEIGHT.");
+                var target = parts[1].Split(':', 2);
+                double? w = target.Length == 2 ? ParseNumber(target[1], "--repoint weight") : null;
+                list.Add(new GeneOverride(parts[0], EntryId: target[0], Weight: w));
+            }
+            foreach (var r in p.GetValue(Weight) ?? [])
+            {
+                var parts = r.Split('=', 2);
+                if (parts.Length != 2) throw new CliException($"--weight '{r}': use GENE=WEIGHT.");
+                list.Add(new GeneOverride(parts[0], Weight: ParseNumber(parts[1], "--weight")));
+            }
+            return list;
+        }
+    }
+
+    private static double ParseNumber(string s, string what) =>
+        double.TryParse(s, NumberStyles.Float, CultureInfo.InvariantCulture, out var v) && double.IsFinite(v) ? v : throw new CliException($"{what}: '{s}' is not a number.");
+
+    private static ExpressionUnit ParseUnit(string u) => u.ToLowerInvariant() switch
+    {
+        "counts" or "count" or "raw" => ExpressionUnit.Counts,
+        "cpm" => ExpressionUnit.Cpm,
+        "tpm" => ExpressionUnit.Tpm,
+        "fpkm" or "rpkm" => ExpressionUnit.Fpkm,
+        _ => throw new CliException($"--unit: '{u}' is not counts, cpm, tpm or fpkm (use --log for log-transformed values)."),
+    };
+
+    private static LogTransform ParseLog(string l) => l.ToLowerInvariant() switch
+    {
+        "ln1p" => LogTransform.NaturalLog1p,
+        "log2p1" => LogTransform.Log2Plus1,
+        "log10p1" => LogTransform.Log10Plus1,
+        _ => throw new CliException($"--log: '{l}' is not ln1p, log2p1 or log10p1."),
+    };
+
+    public static IEnumerable<Command> Create(CliContext ctx)
+    {
+        yield return Build(ctx);
+        yield return Batch(ctx);
+        yield return Merge(ctx);
+    }
+
+    private static void PrintReport(CliContext ctx, ExpressionTable table, MappingReport report, CellGroups? groups)
+    {
+        var w = ctx.Error;
+        w.WriteLine($"table: {table.Source}: {table.CellIds.Count} cells, {table.TotalGeneCount} genes; {table.OrientationNote}; unit: {table.Unit} ({table.UnitNote})");
+        foreach (var n in table.Notes) w.WriteLine($"note: {n}");
+        if (groups is not null) w.WriteLine($"groups ({groups.Column}): {string.Join(", ", groups.Members.Select(g => $"{g.Key} ({g.Value.Length})"))}");
+        w.WriteLine($"mapped channel genes: {report.Genes.Count(g => !g.Excluded)} -> {report.EntryExpression().Count} entries");
+        foreach (var g in report.Genes)
+            w.WriteLine($"  {g.Symbol,-10} {string.Join(", ", g.Entries.Select(e => $"{e.EntryId} x{e.Weight:G3}")),-40} mean {g.ExpressionByCell.Average():G4}{(g.How == "symbol" ? "" : " [" + g.How + "]")}{(g.Note is null ? "" : " (" + g.Note + ")")}");
+        if (report.Unmapped.Count > 0)
+            w.WriteLine($"channel genes not mapped: {string.Join("; ", report.Unmapped.Select(u => $"{u.Symbol} ({u.Status}: {u.Reason})"))}");
+        if (report.EntriesWithoutExpressedGene.Count > 0)
+            w.WriteLine($"entries with no expressed gene: {string.Join(", ", report.EntriesWithoutExpressedGene)}");
+        foreach (var pr in report.Problems) w.WriteLine($"problem: {pr}");
+    }
+
+    private static Command Build(CliContext ctx)
+    {
+        var c = new Command("build", "Build a model for one group or one cell from an expression table; prints the mapping report.");
+        var inputs = new Inputs();
+        inputs.AddTo(c);
+        var group = new Option<string?>("--group") { Description = "Model this group (mean of its cells)." };
+        var cell = new Option<string?>("--cell") { Description = "Model this cell." };
+        var output = new Option<string?>("--out") { Description = "Model file to write (default: standard output)." };
+        c.Options.Add(group);
+        c.Options.Add(cell);
+        c.Options.Add(output);
+        c.SetAction(p =>
+        {
+            if ((p.GetValue(group) is null) == (p.GetValue(cell) is null)) throw new CliException("Give exactly one of --group NAME or --cell ID.");
+            var (table, groups, report, catalog, rule) = inputs.Load(p, ctx);
+            PrintReport(ctx, table, report, groups);
+            var target = p.GetValue(group) is { } g ? ModelTarget.ForGroup(g) : ModelTarget.ForCell(p.GetValue(cell)!);
+            var built = ExpressionModelBuilder.Build(table, report, catalog, rule, target, groups);
+            foreach (var d in built.Densities)
+                ctx.Error.WriteLine($"density {d.EntryId,-20} {d.DensityMsPerCm2,10:G4} mS/cm2 = {d.TypicalMsPerCm2:G4} x ({d.Expression:G4} / {d.Reference:G4})^{rule.Exponent:G3}{(d.Clamped ? " [clamped]" : "")}");
+            foreach (var wn in built.Warnings) ctx.Error.WriteLine($"warning: {wn}");
+            var doc = built.Document with { Caution = ResearchCaution.Text };
+            ctx.Emit(doc.ToJson() + "\n", p.GetValue(output));
+            return 0;
+        });
+        return c;
+    }
+
+    private static Command Batch(CliContext ctx)
+    {
+        var c = new Command("batch", "Read-outs for every group (or every cell): one CSV row each, with a progress bar.");
+        var inputs = new Inputs();
+        inputs.AddTo(c);
+        var per = new Option<string>("--per") { Description = "group or cell.", DefaultValueFactory = _ => "group" };
+        var shard = new Option<string?>("--shard") { Description = "I/N: process only the I-th of N equal parts (join with exprmodel merge)." };
+        var output = new Option<string?>("--out") { Description = "CSV file to write (default: standard output)." };
+        c.Options.Add(per);
+        c.Options.Add(shard);
+        c.Options.Add(output);
+        c.SetAction(p =>
+        {
+            var (table, groups, report, catalog, rule) = inputs.Load(p, ctx);
+            PrintReport(ctx, table, report, groups);
+            var items = p.GetValue(per) switch
+            {
+                "group" => (groups ?? throw new CliException("--per group needs --metadata and --group-by.")).Members.Keys.Select(ModelTarget.ForGroup).ToArray(),
+                "cell" => table.CellIds.Select(ModelTarget.ForCell).ToArray(),
+                var o => throw new CliException($"--per: '{o}' is not group or cell."),
+            };
+            var (index, count) = ParseShard(p.GetValue(shard));
+            int from = (int)((long)items.Length * (index - 1) / count), to = (int)((long)items.Length * index / count);
+            var header = new List<string> { "item_index", "item", "cells", "resting_potential_mv", "input_resistance_mohm", "membrane_time_constant_ms", "rheobase_pa",
+                "spike_threshold_mv", "spike_half_width_ms" };
+            header.AddRange(StandardStepsPa.Select(s => $"rate_at_{s:F0}pa_hz"));
+            header.AddRange(["excitability_class", "adaptation_ratio", "adaptation_index", "warnings"]);
+            var rows = new object?[to - from][];
+            int done = 0;
+            var progress = new Progress(ctx.Error, to - from);
+            Parallel.For(from, to, new ParallelOptions { MaxDegreeOfParallelism = Environment.ProcessorCount }, i =>
+            {
+                var t = items[i];
+                var row = new object?[header.Count];
+                row[0] = i;
+                row[1] = t.Group ?? t.CellId;
+                try
+                {
+                    var built = ExpressionModelBuilder.Build(table, report, catalog, rule, t, groups);
+                    row[2] = t.Group is { } g ? groups!.Members[g].Length : 1;
+                    var cell = new CompiledCell(built.Document.ToCellModel((id, v) => catalog.Entry(id)!));
+                    var r = Features.Measure(cell, ReadoutSettings.Batch);
+                    var geo = cell.Model.Geometry;
+                    var rates = FiCurve.Measure(cell, StandardStepsPa.Select(s => geo.PicoampsToDensity(s)).ToArray(), 1000, null, null);
+                    int k = 3;
+                    foreach (var v in new object?[] { r.RestingPotentialMv, r.InputResistanceMOhm, r.MembraneTimeConstantMs, r.RheobasePa, r.ThresholdMv, r.HalfWidthMs })
+                        row[k++] = v;
+                    foreach (var q in rates) row[k++] = q.WholeStepRateHz;
+                    row[k++] = r.ExcitabilityClass;
+                    row[k++] = r.AdaptationRatio;
+                    row[k++] = r.AdaptationIndex;
+                    row[k] = string.Join(" | ", built.Warnings.Concat(r.Notes));
+                }
+                catch (Exception e) when (e is ArgumentException or ModelException or SimulationBlowUpException)
+                {
+                    row[^1] = "failed: " + e.Message;
+                }
+                rows[i - from] = row;
+                progress.Report(Interlocked.Increment(ref done));
+            });
+            progress.Finish();
+            var csv = new CsvTable([ResearchCaution.Text, $"source: {table.Source}; shard {index}/{count} of {items.Length} items"], header);
+            foreach (var row in rows) csv.Row(row);
+            ctx.Emit(csv.ToString(), p.GetValue(output));
+            return 0;
+        });
+        return c;
+    }
+
+    internal static (int Index, int Count) ParseShard(string? text)
+    {
+        if (text is null) return (1, 1);
+        var parts = text.Split('/');
+        if (parts.Length == 2 && int.TryParse(parts[0], out var i) && int.TryParse(parts[1], out var n) && n >= 1 && i >= 1 && i <= n) return (i, n);
+        throw new CliException($"--shard '{text}': use I/N with 1 <= I <= N, e.g. 2/8.");
+    }
+
+    private static Command Merge(CliContext ctx)
+    {
+        var c = new Command("merge", "Join batch shards into one table (checks headers, duplicates and gaps).");
+        var files = new Argument<string[]>("shards") { Description = "Shard CSV files written by exprmodel batch --shard.", Arity = ArgumentArity.OneOrMore };
+        var output = new Option<string?>("--out") { Description = "CSV file to write (default: standard output)." };
+        c.Arguments.Add(files);
+        c.Options.Add(output);
+        c.SetAction(p =>
+        {
+            string? header = null;
+            var rows = new SortedDictionary<int, string>();
+            var comments = new List<string>();
+            int? total = null;
+            foreach (var f in p.GetValue(files)!)
+            {
+                if (!File.Exists(f)) throw new CliException($"{f}: no such shard file.");
+                int line = 0;
+                foreach (var raw in File.ReadLines(f))
+                {
+                    line++;
+                    if (raw.StartsWith('#'))
+                    {
+                        if (raw.Contains(" of ") && raw.Contains(" items") && int.TryParse(raw[(raw.LastIndexOf(" of ", StringComparison.Ordinal) + 4)..raw.LastIndexOf(" items", StringComparison.Ordinal)], out var t))
+                        {
+                            if (total is { } prev && prev != t) throw new CliException($"{f}: line {line}: shard of {t} items, others have {prev}.");
+                            total = t;
+                        }
+                        else if (comments.Count == 0) comments.Add(raw);
+                        continue;
+                    }
+                    if (raw.Length == 0) continue;
+                    if (header is null) { header = raw; continue; }
+                    if (raw == header) continue;
+                    if (!raw.StartsWith("item_index", StringComparison.Ordinal) && header is not null && rows.Count >= 0)
+                    {
+                        var comma = raw.IndexOf(',');
+                        if (comma < 0 || !int.TryParse(raw[..comma], out var idx)) throw new CliException($"{f}: line {line}, column 1: '{raw.Split(',')[0]}' is not an item index.");
+                        if (!rows.TryAdd(idx, raw)) throw new CliException($"{f}: line {line}: item {idx} appears in more than one shard.");
+                    }
+                }
+                var fileHeader = File.ReadLines(f).FirstOrDefault(l => !l.StartsWith('#'));
+                if (fileHeader != header) throw new CliException($"{f}: its header differs from the first shard's.");
+            }
+            if (header is null) throw new CliException("The shards hold no rows.");
+            if (total is { } n)
+            {
+                var missing = Enumerable.Range(0, n).Where(i => !rows.ContainsKey(i)).ToArray();
+                if (missing.Length > 0) throw new CliException($"Items missing from the shards: {string.Join(", ", missing.Take(20))}{(missing.Length > 20 ? " ..." : "")} ({missing.Length} of {n}).");
+            }
+            var text = string.Join("\n", comments.Append(header).Concat(rows.Values)) + "\n";
+            ctx.Emit(text, p.GetValue(output));
+            return 0;
+        });
+        return c;
+    }
+
+    /// <summary>A progress bar on standard error (a line per 10 % when it is not a terminal).</summary>
+    private sealed class Progress(TextWriter w, int total)
+    {
+        private readonly Lock _gate = new();
+        private int _lastDecile = -1;
+
+        public void Report(int done)
+        {
+            lock (_gate)
+            {
+                if (total == 0) return;
+                if (Console.IsErrorRedirected || w != Console.Error)
+                {
+                    int decile = done * 10 / total;
+                    if (decile != _lastDecile) { _lastDecile = decile; w.WriteLine($"progress: {done}/{total}"); }
+                    return;
+                }
+                int width = 30, fill = done * width / total;
+                w.Write($"\r[{new string('#', fill)}{new string('.', width - fill)}] {done}/{total}");
+            }
+        }
+
+        public void Finish()
+        {
+            if (!Console.IsErrorRedirected && w == Console.Error) w.WriteLine();
+        }
+    }
+}

@@ -1,0 +1,237 @@
+using ExprModel.Core.Simulation;
+
+namespace ExprModel.Core.Analysis;
+
+/// <summary>Every standard read-out of a model cell (names are ours; definitions in DEVELOPERS.md, "Read-outs").</summary>
+public sealed record CellReadouts
+{
+    public double? RestingPotentialMv { get; init; }
+    public bool FiresAtRest { get; init; }
+    public double? InputResistanceMOhm { get; init; }
+    public double? MembraneTimeConstantMs { get; init; }
+    public double? SagRatio { get; init; }
+    public double? RheobaseUaPerCm2 { get; init; }
+    public double? RheobasePa { get; init; }
+    public double? RheobaseToleranceUaPerCm2 { get; init; }
+    public double? ThresholdMv { get; init; }
+    public double? PeakMv { get; init; }
+    public double? AmplitudeMv { get; init; }
+    public double? HalfWidthMs { get; init; }
+    public double? AfterHyperpolarisationMv { get; init; }
+    public double? MaxRiseMvPerMs { get; init; }
+    public double? FirstSpikeLatencyMs { get; init; }
+    public IReadOnlyList<FiPoint> FiCurve { get; init; } = [];
+    public double? FiGainHzPerUaPerCm2 { get; init; }
+    public double? FiGainHzPerNa { get; init; }
+    public double? SustainedFiringOnsetUaPerCm2 { get; init; }
+    public double? OnsetRateHz { get; init; }
+    public int? ExcitabilityClass { get; init; }
+    public double? AdaptationStepUaPerCm2 { get; init; }
+    public double? AdaptationRatio { get; init; }
+    public double? AdaptationIndex { get; init; }
+    public double? DepolarisationBlockUaPerCm2 { get; init; }
+    public double? BlockSearchLimitUaPerCm2 { get; init; }
+    public double AreaUm2 { get; init; }
+    public IReadOnlyList<string> Notes { get; init; } = [];
+
+    /// <summary>Every scalar read-out as (name, unit, value) rows, in a fixed order, for tables and CSV.</summary>
+    public IEnumerable<(string Name, string Unit, double? Value)> Rows()
+    {
+        yield return ("resting_potential", "mV", RestingPotentialMv);
+        yield return ("fires_at_rest", "0/1", FiresAtRest ? 1 : 0);
+        yield return ("input_resistance", "MOhm", InputResistanceMOhm);
+        yield return ("membrane_time_constant", "ms", MembraneTimeConstantMs);
+        yield return ("sag_ratio", "fraction", SagRatio);
+        yield return ("rheobase", "uA/cm2", RheobaseUaPerCm2);
+        yield return ("rheobase_absolute", "pA", RheobasePa);
+        yield return ("spike_threshold", "mV", ThresholdMv);
+        yield return ("spike_peak", "mV", PeakMv);
+        yield return ("spike_amplitude", "mV", AmplitudeMv);
+        yield return ("spike_half_width", "ms", HalfWidthMs);
+        yield return ("after_hyperpolarisation", "mV", AfterHyperpolarisationMv);
+        yield return ("max_rise_rate", "mV/ms", MaxRiseMvPerMs);
+        yield return ("first_spike_latency", "ms", FirstSpikeLatencyMs);
+        yield return ("fi_gain", "Hz per uA/cm2", FiGainHzPerUaPerCm2);
+        yield return ("fi_gain_absolute", "Hz/nA", FiGainHzPerNa);
+        yield return ("sustained_firing_onset", "uA/cm2", SustainedFiringOnsetUaPerCm2);
+        yield return ("onset_rate", "Hz", OnsetRateHz);
+        yield return ("excitability_class", "1 or 2", ExcitabilityClass);
+        yield return ("adaptation_step", "uA/cm2", AdaptationStepUaPerCm2);
+        yield return ("adaptation_ratio", "last/first ISI", AdaptationRatio);
+        yield return ("adaptation_index", "mean normalised ISI change", AdaptationIndex);
+        yield return ("depolarisation_block_onset", "uA/cm2", DepolarisationBlockUaPerCm2);
+    }
+}
+
+/// <summary>The one feature extractor, used by the CLI, the web app and the tests alike.</summary>
+public static class Features
+{
+    public static CellReadouts Measure(CompiledCell cell, ReadoutSettings? settings = null, CancellationToken cancel = default)
+    {
+        var s = settings ?? ReadoutSettings.Default;
+        var sim = s.Simulation;
+        double dt = sim.DtMs;
+        double area = cell.Model.Geometry.AreaUm2;
+        var notes = new List<string>();
+
+        // 1. Rest: settle at zero current.
+        var settle = Simulator.Run(cell, new NoCurrent(), s.SettleMs, sim with { RecordEvery = 0 }, null, cancel);
+        var rest = settle.FinalState;
+        bool firesAtRest = settle.SpikeTimesMs.Any(t => t > s.SettleMs / 2);
+        double? restMv = firesAtRest ? null : rest.VoltageMv;
+        if (firesAtRest) notes.Add("The cell fires without input; passive read-outs and rheobase are not defined.");
+
+        double gSlope = Passive.SteadySlopeConductance(cell, rest.VoltageMv);
+        if (!(gSlope > 1e-4))
+        {
+            notes.Add($"Steady-state slope conductance at rest is {gSlope:G3} mS/cm2 (not positive); passive steps sized from total leak instead.");
+            gSlope = Math.Max(1e-3, cell.Model.Channels.Where(c => c.Entry.Gates.Count == 0).Sum(c => c.EffectiveDensityMsPerCm2));
+        }
+
+        double? rin = null, tau = null, sag = null;
+        if (!firesAtRest)
+        {
+            // 2. Input resistance and time constant from a small hyperpolarising step.
+            double iSmall = s.PassiveDeflectionMv * gSlope;
+            var small = Simulator.Run(cell, Protocols.Step(iSmall, 100, 500), 600, sim with { RecordEvery = 1, RecordCurrents = false }, rest, cancel);
+            int onset = (int)Math.Round(100 / dt);
+            int endIdx = (int)Math.Round(600 / dt);
+            double vEnd = Mean(small.VoltageMv, endIdx - (int)(20 / dt), endIdx);
+            double dv = vEnd - rest.VoltageMv;
+            double nA = iSmall * area / 100.0 / 1000.0;
+            if (Math.Abs(nA) > 0) rin = dv / nA;
+            tau = Passive.TimeConstantMs(small.VoltageMv, dt, onset, rest.VoltageMv, dv);
+
+            // 3. Sag from a larger hyperpolarising step.
+        }
+        if (!firesAtRest && s.IncludeSag)
+        {
+            double iSag = s.SagDeflectionMv * gSlope;
+            var big = Simulator.Run(cell, Protocols.Step(iSag, 100, 1000), 1100, sim with { RecordEvery = 1 }, rest, cancel);
+            int bOn = (int)Math.Round(100 / dt), bEnd = (int)Math.Round(1100 / dt);
+            double vMin = double.PositiveInfinity;
+            for (int i = bOn; i < bEnd; i++) vMin = Math.Min(vMin, big.VoltageMv[i]);
+            double vSs = Mean(big.VoltageMv, bEnd - (int)(50 / dt), bEnd);
+            double peakDefl = rest.VoltageMv - vMin;
+            sag = peakDefl > 1e-9 ? Math.Max(0, (vSs - vMin) / peakDefl) : 0;
+        }
+
+        // 4. Rheobase by k-section bisection.
+        double maxSearch = Math.Max(gSlope * 400, 50);
+        var rheo = firesAtRest ? null : RheobaseSearch.Rheobase(cell, rest, gSlope * 5, maxSearch, s, cancel);
+        if (!firesAtRest && rheo is null) notes.Add($"No spike for steps up to {maxSearch:G3} uA/cm2.");
+        double? rheobase = rheo?.AtOrAboveUaPerCm2;
+
+        SpikeShape? shape = null;
+        double? latency = null;
+        IReadOnlyList<FiPoint> fi = [];
+        double? gain = null, onsetCurrent = null, onsetRate = null, adaptStep = null, adaptRatio = null, adaptIndex = null, block = null, blockLimit = null;
+        int? cls = null;
+        if (rheobase is { } rb)
+        {
+            // 5. Spike shape and latency at rheobase.
+            var at = Simulator.Run(cell, Protocols.Step(rb, 100, s.StepDurationMs), 100 + s.StepDurationMs, sim with { RecordEvery = 1 }, rest, cancel);
+            var inStep = at.SpikeTimesMs.Where(t => t >= 100).ToArray();
+            if (inStep.Length > 0)
+            {
+                latency = inStep[0] - 100;
+                shape = SpikeShapes.Measure(at.VoltageMv, dt, 0, inStep[0], inStep.Length > 1 ? inStep[1] : null, s.ThresholdSlopeMvPerMs);
+            }
+
+            // 6. f-I curve from 0 to a multiple of rheobase.
+            fi = FiCurve.Measure(cell, 0, s.FiMaxMultiple * rb, s.FiSteps, s.StepDurationMs, rest, sim, cancel);
+            gain = FiCurve.Gain(fi);
+
+            // 7. Excitability class from the onset of sustained firing.
+            var sustained = RheobaseSearch.FindOnset(amps =>
+            {
+                var pts = FiCurve.Measure(cell, amps, s.ClassStepMs, rest, sim, cancel);
+                return pts.Select(p => p.LateRateHz > 0).ToArray();
+            }, rb, rb * s.BlockSearchMultiple, s.RheobaseAbsoluteToleranceUaPerCm2, s.RheobaseRelativeTolerance, cancel);
+            if (sustained is not null)
+            {
+                onsetCurrent = sustained.AtOrAboveUaPerCm2;
+                var p = FiCurve.Measure(cell, [onsetCurrent.Value], s.ClassStepMs, rest, sim, cancel)[0];
+                onsetRate = p.LateRateHz;
+                cls = onsetRate < s.ClassOneOnsetRateHz ? 1 : 2;
+            }
+            else
+            {
+                notes.Add($"No sustained firing for steps up to {rb * s.BlockSearchMultiple:G3} uA/cm2; class not defined.");
+            }
+
+            // 8. Adaptation on a step well above onset.
+            adaptStep = Math.Max(s.AdaptationStepMultiple * rb, 1.2 * (onsetCurrent ?? rb));
+            var ad = FiCurve.Measure(cell, [adaptStep.Value], s.StepDurationMs, rest, sim, cancel)[0];
+            (adaptRatio, adaptIndex) = Adaptation(ad.SpikeTimesMs);
+            if (adaptRatio is null) notes.Add($"Fewer than three spikes at {adaptStep:G3} uA/cm2; adaptation not defined.");
+
+            // 9. Depolarisation block: the smallest step above sustained firing where late firing stops.
+            blockLimit = rb * s.BlockSearchMultiple;
+            if (onsetCurrent is { } oc && s.IncludeDepolarisationBlock)
+            {
+                var b = RheobaseSearch.FindOnset(amps =>
+                {
+                    var pts = FiCurve.Measure(cell, amps.Select(a => oc + a).ToArray(), s.StepDurationMs, rest, sim, cancel);
+                    return pts.Select(p => p.LateRateHz == 0).ToArray();
+                }, oc * 0.5, blockLimit.Value - oc, s.RheobaseAbsoluteToleranceUaPerCm2 * 10, 0.02, cancel);
+                if (b is not null) block = oc + b.AtOrAboveUaPerCm2;
+            }
+        }
+
+        return new CellReadouts
+        {
+            RestingPotentialMv = restMv,
+            FiresAtRest = firesAtRest,
+            InputResistanceMOhm = rin,
+            MembraneTimeConstantMs = tau,
+            SagRatio = sag,
+            RheobaseUaPerCm2 = rheobase,
+            RheobasePa = rheobase is { } r ? cell.Model.Geometry.DensityToPicoamps(r) : null,
+            RheobaseToleranceUaPerCm2 = rheo?.ToleranceUaPerCm2,
+            ThresholdMv = shape?.ThresholdMv,
+            PeakMv = shape?.PeakMv,
+            AmplitudeMv = shape?.AmplitudeMv,
+            HalfWidthMs = shape is { } sh && !double.IsNaN(sh.HalfWidthMs) ? sh.HalfWidthMs : null,
+            AfterHyperpolarisationMv = shape?.AfterHyperpolarisationMv,
+            MaxRiseMvPerMs = shape?.MaxRiseMvPerMs,
+            FirstSpikeLatencyMs = latency,
+            FiCurve = fi,
+            FiGainHzPerUaPerCm2 = gain,
+            FiGainHzPerNa = gain is { } g ? g / (area * 1e-5) : null,
+            SustainedFiringOnsetUaPerCm2 = onsetCurrent,
+            OnsetRateHz = onsetRate,
+            ExcitabilityClass = cls,
+            AdaptationStepUaPerCm2 = adaptStep,
+            AdaptationRatio = adaptRatio,
+            AdaptationIndex = adaptIndex,
+            DepolarisationBlockUaPerCm2 = block,
+            BlockSearchLimitUaPerCm2 = blockLimit,
+            AreaUm2 = area,
+            Notes = notes,
+        };
+    }
+
+    /// <summary>
+    /// Adaptation ratio (last ISI / first ISI) and adaptation index, the mean over successive pairs of
+    /// (ISI[n+1] - ISI[n]) / (ISI[n+1] + ISI[n]); both need at least three spikes (common practice).
+    /// </summary>
+    public static (double? Ratio, double? Index) Adaptation(IReadOnlyList<double> spikeTimesMs)
+    {
+        if (spikeTimesMs.Count < 3) return (null, null);
+        var isi = new double[spikeTimesMs.Count - 1];
+        for (int i = 0; i < isi.Length; i++) isi[i] = spikeTimesMs[i + 1] - spikeTimesMs[i];
+        double sum = 0;
+        for (int i = 0; i + 1 < isi.Length; i++) sum += (isi[i + 1] - isi[i]) / (isi[i + 1] + isi[i]);
+        return (isi[^1] / isi[0], sum / (isi.Length - 1));
+    }
+
+    private static double Mean(double[] v, int from, int to)
+    {
+        from = Math.Max(0, from);
+        to = Math.Min(v.Length, to);
+        double s = 0;
+        for (int i = from; i < to; i++) s += v[i];
+        return to > from ? s / (to - from) : double.NaN;
+    }
+}

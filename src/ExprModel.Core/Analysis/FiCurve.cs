@@ -1,0 +1,64 @@
+using ExprModel.Core.Simulation;
+
+namespace ExprModel.Core.Analysis;
+
+/// <summary>One point of an f-I curve.</summary>
+/// <param name="CurrentUaPerCm2">Step amplitude (uA/cm2).</param>
+/// <param name="SpikeCount">Spikes during the step.</param>
+/// <param name="WholeStepRateHz">Spike count divided by step duration.</param>
+/// <param name="FirstIsiRateHz">Inverse of the first inter-spike interval (0 with fewer than two spikes).</param>
+/// <param name="LateRateHz">Rate over the second half of the step: (n - 1) / (last - first) of the spikes there, 0 with fewer than two.</param>
+/// <param name="FirstSpikeLatencyMs">Time from step onset to the first spike (null if none).</param>
+public sealed record FiPoint(double CurrentUaPerCm2, int SpikeCount, double WholeStepRateHz, double FirstIsiRateHz, double LateRateHz, double? FirstSpikeLatencyMs)
+{
+    public IReadOnlyList<double> SpikeTimesMs { get; init; } = [];
+}
+
+/// <summary>Firing rate against step amplitude.</summary>
+public static class FiCurve
+{
+    public const double DefaultDelayMs = 100;
+
+    /// <summary>Runs a family of steps (in parallel) and measures the rates of each.</summary>
+    public static IReadOnlyList<FiPoint> Measure(CompiledCell cell, double fromUaPerCm2, double toUaPerCm2, int steps, double durationMs = 1000,
+        CellState? initial = null, SimulationSettings? settings = null, CancellationToken cancel = default)
+    {
+        var family = Protocols.StepFamily(fromUaPerCm2, toUaPerCm2, steps, DefaultDelayMs, durationMs);
+        return Measure(cell, family.Select(s => s.AmplitudeUaPerCm2).ToArray(), durationMs, initial, settings, cancel);
+    }
+
+    public static IReadOnlyList<FiPoint> Measure(CompiledCell cell, IReadOnlyList<double> amplitudesUaPerCm2, double durationMs = 1000,
+        CellState? initial = null, SimulationSettings? settings = null, CancellationToken cancel = default)
+    {
+        var stimuli = amplitudesUaPerCm2.Select(a => (Stimulus)Protocols.Step(a, DefaultDelayMs, durationMs)).ToArray();
+        var trains = Simulator.SpikeTimes(cell, stimuli, DefaultDelayMs + durationMs + 20, settings, initial, cancel);
+        return amplitudesUaPerCm2.Select((a, i) => Point(a, trains[i], DefaultDelayMs, durationMs)).ToArray();
+    }
+
+    /// <summary>Rates of one step response from its spike times.</summary>
+    public static FiPoint Point(double amplitude, IReadOnlyList<double> spikeTimesMs, double delayMs, double durationMs)
+    {
+        var inStep = spikeTimesMs.Where(t => t >= delayMs && t < delayMs + durationMs).ToArray();
+        double whole = inStep.Length / (durationMs / 1000.0);
+        double first = inStep.Length >= 2 ? 1000.0 / (inStep[1] - inStep[0]) : 0;
+        var late = inStep.Where(t => t >= delayMs + durationMs / 2).ToArray();
+        double lateRate = late.Length >= 2 ? 1000.0 * (late.Length - 1) / (late[^1] - late[0]) : 0;
+        double? latency = inStep.Length > 0 ? inStep[0] - delayMs : null;
+        return new FiPoint(amplitude, inStep.Length, whole, first, lateRate, latency) { SpikeTimesMs = inStep };
+    }
+
+    /// <summary>
+    /// Gain: least-squares slope of whole-step rate against current over the points from the first firing one up to
+    /// twice its current (Hz per uA/cm2); null with fewer than two such points. Uses MathNet's line fit.
+    /// </summary>
+    public static double? Gain(IReadOnlyList<FiPoint> curve)
+    {
+        var firing = curve.Where(p => p.SpikeCount > 0).OrderBy(p => p.CurrentUaPerCm2).ToArray();
+        if (firing.Length < 2) return null;
+        double onset = firing[0].CurrentUaPerCm2;
+        var used = firing.Where(p => p.CurrentUaPerCm2 <= Math.Max(2 * onset, firing[1].CurrentUaPerCm2)).ToArray();
+        if (used.Length < 2) return null;
+        var (_, slope) = MathNet.Numerics.Fit.Line(used.Select(p => p.CurrentUaPerCm2).ToArray(), used.Select(p => p.WholeStepRateHz).ToArray());
+        return slope;
+    }
+}

@@ -1,0 +1,60 @@
+using ExprModel.Core.Simulation;
+
+namespace ExprModel.Core.Analysis;
+
+/// <summary>
+/// Finds the smallest step amplitude for which a property holds (a spike; sustained firing), assuming it holds
+/// for every larger amplitude in the bracket. Each round tests several amplitudes in parallel (one lane per core)
+/// and keeps the sub-interval that contains the onset: bisection generalised to k sections.
+/// </summary>
+public static class RheobaseSearch
+{
+    /// <summary>Result of an onset search: the largest amplitude without and the smallest with the property.</summary>
+    public sealed record Bracket(double BelowUaPerCm2, double AtOrAboveUaPerCm2, double ToleranceUaPerCm2);
+
+    public static Bracket? FindOnset(Func<IReadOnlyList<double>, bool[]> holds, double startUaPerCm2, double maxUaPerCm2,
+        double absoluteTolerance, double relativeTolerance, CancellationToken cancel = default)
+    {
+        // Grow geometrically until the property holds.
+        double lo = 0, hi = Math.Max(startUaPerCm2, 1e-4);
+        while (true)
+        {
+            cancel.ThrowIfCancellationRequested();
+            var probes = new[] { hi, hi * 1.5, hi * 2.25, hi * 3.375 }.Where(x => x <= maxUaPerCm2 * 1.000001).ToArray();
+            if (probes.Length == 0) return null;
+            var ok = holds(probes);
+            int first = Array.IndexOf(ok, true);
+            if (first >= 0)
+            {
+                hi = probes[first];
+                lo = first == 0 ? lo : probes[first - 1];
+                break;
+            }
+            lo = probes[^1];
+            hi = probes[^1] * 1.5;
+            if (lo >= maxUaPerCm2) return null;
+            hi = Math.Min(hi, maxUaPerCm2);
+        }
+        int lanes = Math.Max(3, Environment.ProcessorCount * 2 - 1);
+        while (hi - lo > Math.Max(absoluteTolerance, relativeTolerance * hi))
+        {
+            cancel.ThrowIfCancellationRequested();
+            var probes = Enumerable.Range(1, lanes).Select(i => lo + (hi - lo) * i / (lanes + 1)).ToArray();
+            var ok = holds(probes);
+            int first = Array.IndexOf(ok, true);
+            double newLo = first < 0 ? probes[^1] : first == 0 ? lo : probes[first - 1];
+            double newHi = first < 0 ? hi : probes[first];
+            lo = newLo;
+            hi = newHi;
+        }
+        return new Bracket(lo, hi, Math.Max(absoluteTolerance, relativeTolerance * hi));
+    }
+
+    /// <summary>Rheobase: the smallest step of <paramref name="durationMs"/> that evokes at least one spike.</summary>
+    public static Bracket? Rheobase(CompiledCell cell, CellState rest, double startUaPerCm2, double maxUaPerCm2, ReadoutSettings s, CancellationToken cancel = default) =>
+        FindOnset(amps =>
+        {
+            var fi = FiCurve.Measure(cell, amps, s.StepDurationMs, rest, s.Simulation, cancel);
+            return fi.Select(p => p.SpikeCount > 0).ToArray();
+        }, startUaPerCm2, maxUaPerCm2, s.RheobaseAbsoluteToleranceUaPerCm2, s.RheobaseRelativeTolerance, cancel);
+}

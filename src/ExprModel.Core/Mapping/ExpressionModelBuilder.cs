@@ -1,0 +1,149 @@
+using System.Globalization;
+using System.Text.Json.Nodes;
+using ExprModel.Core.Cell;
+using ExprModel.Core.Expression;
+using ExprModel.Core.Models;
+
+namespace ExprModel.Core.Mapping;
+
+/// <summary>Which cells a model stands for: one group (mean of its cells) or one cell.</summary>
+public sealed record ModelTarget(string? Group, string? CellId)
+{
+    public static ModelTarget ForGroup(string g) => new(g, null);
+    public static ModelTarget ForCell(string c) => new(null, c);
+    public string Label => Group is not null ? $"group {Group}" : $"cell {CellId}";
+}
+
+/// <summary>Why one entry's density is what it is.</summary>
+public sealed record DensityDerivation(string EntryId, int Version, double Expression, double Reference, double Ratio, double TypicalMsPerCm2,
+    double RawMsPerCm2, double DensityMsPerCm2, bool Clamped, IReadOnlyList<GeneContribution> Genes);
+
+public sealed record GeneContribution(string Gene, double Weight, double Expression);
+
+/// <summary>A model built from expression, with the derivation of every density and the warnings a user should read.</summary>
+public sealed record BuiltModel(ModelDocument Document, IReadOnlyList<DensityDerivation> Densities, IReadOnlyList<string> Warnings);
+
+/// <summary>Turns an expression table, its mapping and a density rule into a model file that records how it was made.</summary>
+public static class ExpressionModelBuilder
+{
+    public static BuiltModel Build(ExpressionTable table, MappingReport report, MappingCatalog catalog, DensityRule rule, ModelTarget target, CellGroups? groups)
+    {
+        if (rule.Problem() is { } p) throw new ArgumentException("density rule: " + p);
+        var warnings = new List<string>();
+        int[] targetCells = TargetCells(table, target, groups);
+        int[]? referenceCells = null;
+        if (rule.Reference == DensityReference.ReferenceGroup)
+        {
+            if (groups is null) throw new ArgumentException("A reference group needs a metadata table with a group column.");
+            if (!groups.Members.TryGetValue(rule.ReferenceGroup!, out referenceCells))
+                throw new ArgumentException($"Reference group '{rule.ReferenceGroup}' is not among the groups ({string.Join(", ", groups.Members.Keys)}).");
+        }
+
+        var entryExpression = report.EntryExpression();
+        var channels = new List<ChannelDocument>();
+        var derivations = new List<DensityDerivation>();
+        bool needsShell = false;
+        foreach (var (entryId, perCell) in entryExpression)
+        {
+            var entry = catalog.Entry(entryId)!;
+            double expr = targetCells.Average(i => perCell[i]);
+            double reference;
+            if (referenceCells is not null) reference = referenceCells.Average(i => perCell[i]);
+            else
+            {
+                reference = Median(perCell);
+                if (reference <= 0) reference = perCell.Average();
+            }
+            double ratio = reference > 0 ? expr / reference : 0;
+            double raw = entry.TypicalDensityMsPerCm2 * Math.Pow(ratio, rule.Exponent);
+            double final = raw;
+            bool clamped = false;
+            if (rule.ClampToPlausibleRange && raw > 0 && (raw < entry.MinDensityMsPerCm2 || raw > entry.MaxDensityMsPerCm2))
+            {
+                final = Math.Clamp(raw, entry.MinDensityMsPerCm2, entry.MaxDensityMsPerCm2);
+                clamped = true;
+                warnings.Add($"{entryId}: predicted {raw:G3} mS/cm2 lies outside the plausible range {entry.MinDensityMsPerCm2:G3}-{entry.MaxDensityMsPerCm2:G3}; clamped to {final:G3}.");
+            }
+            var contributions = report.Genes.Where(g => !g.Excluded)
+                .SelectMany(g => g.Entries.Where(e => e.EntryId == entryId).Select(e => new GeneContribution(g.Symbol, e.Weight, targetCells.Average(i => g.ExpressionByCell[i]))))
+                .ToArray();
+            derivations.Add(new DensityDerivation(entryId, entry.Version, expr, reference, ratio, entry.TypicalDensityMsPerCm2, raw, final, clamped, contributions));
+            if (final <= 0) continue;
+            channels.Add(new ChannelDocument { Entry = entryId, Version = entry.Version, DensityMsPerCm2 = final });
+            if (entry.Gates.Any(g => g.Kind == Kinetics.GateKind.Calcium) || entry.Ion == Kinetics.Ion.Calcium) needsShell = true;
+        }
+        var leak = catalog.Entry("leak") ?? throw new ArgumentException("The catalog has no 'leak' entry.");
+        channels.Add(new ChannelDocument { Entry = "leak", Version = leak.Version, DensityMsPerCm2 = rule.LeakMsPerCm2, ReversalMv = rule.LeakReversalMv });
+        if (!derivations.Any(d => d.DensityMsPerCm2 > 0 && catalog.Entry(d.EntryId)!.Ion == Kinetics.Ion.Sodium))
+            warnings.Add("No sodium channel entry is expressed: the model cannot fire action potentials.");
+
+        var derivation = new JsonObject
+        {
+            ["method"] = "density = typical * (expression / reference)^exponent, clamped to the entry's plausible range",
+            ["source"] = table.Source,
+            ["unit"] = table.Unit.ToString(),
+            ["unitNote"] = table.UnitNote,
+            ["target"] = target.Label,
+            ["targetCells"] = targetCells.Length,
+            ["reference"] = rule.Reference == DensityReference.ReferenceGroup ? $"group {rule.ReferenceGroup}" : "dataset median",
+            ["exponent"] = rule.Exponent,
+            ["clamp"] = rule.ClampToPlausibleRange,
+            ["overrides"] = new JsonArray(report.Overrides.Select(o => (JsonNode)new JsonObject
+            {
+                ["gene"] = o.Gene, ["exclude"] = o.Exclude, ["entry"] = o.EntryId, ["weight"] = o.Weight,
+            }).ToArray()),
+            ["densities"] = new JsonArray(derivations.Select(d => (JsonNode)new JsonObject
+            {
+                ["entry"] = d.EntryId,
+                ["version"] = d.Version,
+                ["expression"] = d.Expression,
+                ["reference"] = d.Reference,
+                ["ratio"] = d.Ratio,
+                ["typicalMsPerCm2"] = d.TypicalMsPerCm2,
+                ["predictedMsPerCm2"] = d.RawMsPerCm2,
+                ["densityMsPerCm2"] = d.DensityMsPerCm2,
+                ["clamped"] = d.Clamped,
+                ["genes"] = new JsonArray(d.Genes.Select(g => (JsonNode)new JsonObject { ["gene"] = g.Gene, ["weight"] = g.Weight, ["expression"] = g.Expression }).ToArray()),
+            }).ToArray()),
+            ["warnings"] = new JsonArray(warnings.Select(w => (JsonNode)JsonValue.Create(w)!).ToArray()),
+        };
+        var doc = new ModelDocument
+        {
+            Name = $"{target.Label} ({Path.GetFileName(table.Source)})",
+            Description = $"Built from expression of {targetCells.Length} cell(s); densities relative to the {(rule.Reference == DensityReference.ReferenceGroup ? "reference group " + rule.ReferenceGroup : "dataset median")}.",
+            Cell = new CellGeometryDocument { CapacitancePf = rule.CapacitancePf },
+            TemperatureC = rule.TemperatureC,
+            InitialVoltageMv = rule.LeakReversalMv,
+            CalciumShell = needsShell ? new CalciumShell() : null,
+            Channels = channels,
+            Derivation = derivation,
+        };
+        return new BuiltModel(doc, derivations, warnings);
+    }
+
+    private static int[] TargetCells(ExpressionTable table, ModelTarget target, CellGroups? groups)
+    {
+        if (target.Group is { } g)
+        {
+            if (groups is null) throw new ArgumentException("Building a group's model needs a metadata table and --group-by column.");
+            return groups.Members.TryGetValue(g, out var m) && m.Length > 0 ? m
+                : throw new ArgumentException($"Group '{g}' is not in column '{groups.Column}' (groups: {string.Join(", ", groups.Members.Keys)}).");
+        }
+        if (target.CellId is { } c)
+        {
+            for (int i = 0; i < table.CellIds.Count; i++) if (table.CellIds[i] == c) return [i];
+            throw new ArgumentException($"Cell '{c}' is not in {table.Source}.");
+        }
+        throw new ArgumentException("Choose a group or a cell to model.");
+    }
+
+    private static double Median(double[] v)
+    {
+        if (v.Length == 0) return 0;
+        var s = (double[])v.Clone();
+        Array.Sort(s);
+        return s.Length % 2 == 1 ? s[s.Length / 2] : 0.5 * (s[s.Length / 2 - 1] + s[s.Length / 2]);
+    }
+
+    internal static string F(double x) => x.ToString("G4", CultureInfo.InvariantCulture);
+}

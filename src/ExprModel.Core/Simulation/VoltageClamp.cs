@@ -1,0 +1,84 @@
+namespace ExprModel.Core.Simulation;
+
+/// <summary>One command step of a voltage-clamp family, with each channel's current.</summary>
+public sealed record ClampStep(double CommandMv, double[] TimeMs, IReadOnlyDictionary<string, double[]> CurrentsUaPerCm2)
+{
+    /// <summary>Per channel: current of largest magnitude after the step onset (uA/cm2).</summary>
+    public required IReadOnlyDictionary<string, double> PeakUaPerCm2 { get; init; }
+    /// <summary>Per channel: mean current over the last 5% of the step (uA/cm2).</summary>
+    public required IReadOnlyDictionary<string, double> SteadyUaPerCm2 { get; init; }
+    /// <summary>Per channel: largest conductance during the step (mS/cm2).</summary>
+    public required IReadOnlyDictionary<string, double> PeakConductanceMsPerCm2 { get; init; }
+}
+
+/// <summary>
+/// Ideal voltage clamp: V is held at the command, so each gate follows its exact exponential relaxation toward
+/// the steady state at that voltage (the equations are linear in the gate for fixed V).
+/// </summary>
+public static class VoltageClamp
+{
+    public static IReadOnlyList<ClampStep> StepFamily(CompiledCell cell, double holdingMv, IReadOnlyList<double> commandsMv,
+        double holdMs = 50, double stepMs = 100, double dtMs = 0.025, CancellationToken cancel = default)
+    {
+        var result = new ClampStep[commandsMv.Count];
+        Parallel.For(0, commandsMv.Count, new ParallelOptions { CancellationToken = cancel }, i => result[i] = Run(cell, holdingMv, commandsMv[i], holdMs, stepMs, dtMs));
+        return result;
+    }
+
+    private static ClampStep Run(CompiledCell cell, double holdingMv, double commandMv, double holdMs, double stepMs, double dtMs)
+    {
+        var state = cell.SteadyState(holdingMv);
+        var x = state.Gates;
+        double ca = state.CalciumMm;
+        int holdSteps = (int)Math.Round(holdMs / dtMs), steps = (int)Math.Round(stepMs / dtMs);
+        int total = holdSteps + steps;
+        var t = new double[total + 1];
+        var currents = Enumerable.Range(0, cell.ChannelCount).Select(_ => new double[total + 1]).ToArray();
+        var conductance = new double[cell.ChannelCount];
+        for (int s = 0; s <= total; s++)
+        {
+            double v = s <= holdSteps ? holdingMv : commandMv;
+            t[s] = s * dtMs;
+            if (s > 0)
+            {
+                for (int g = 0; g < cell.GateCount; g++)
+                {
+                    double inf = cell.GateSteadyState(g, v, ca);
+                    if (cell.GateIsInstantaneous[g]) { x[g] = inf; continue; }
+                    double tau = cell.GateTimeConstantMs(g, v);
+                    x[g] = inf + (x[g] - inf) * Math.Exp(-dtMs / tau);
+                }
+                if (cell.HasShell)
+                {
+                    double ica = cell.CalciumCurrent(v, x, ca);
+                    double caInf = cell.ShellRestMm - cell.ShellInflowPerCurrent * cell.ShellDecayMs * ica;
+                    ca = Math.Max(0, caInf + (ca - caInf) * Math.Exp(-dtMs / cell.ShellDecayMs));
+                }
+            }
+            for (int c = 0; c < cell.ChannelCount; c++)
+            {
+                currents[c][s] = cell.ChannelCurrent(c, v, x, ca);
+                if (s > holdSteps) conductance[c] = Math.Max(conductance[c], cell.Conductance(c, x));
+            }
+        }
+        var labels = new Dictionary<string, double[]>();
+        for (int c = 0; c < cell.ChannelCount; c++) labels[Simulator.UniqueLabel(cell, c, labels)] = currents[c];
+        var keys = labels.Keys.ToArray();
+        var peak = new Dictionary<string, double>();
+        var steady = new Dictionary<string, double>();
+        var gmax = new Dictionary<string, double>();
+        int tail = Math.Max(1, steps / 20);
+        for (int c = 0; c < keys.Length; c++)
+        {
+            var cur = labels[keys[c]];
+            double best = 0;
+            for (int s = holdSteps + 1; s <= total; s++) if (Math.Abs(cur[s]) > Math.Abs(best)) best = cur[s];
+            peak[keys[c]] = best;
+            double sum = 0;
+            for (int s = total - tail + 1; s <= total; s++) sum += cur[s];
+            steady[keys[c]] = sum / tail;
+            gmax[keys[c]] = conductance[c];
+        }
+        return new ClampStep(commandMv, t, labels) { PeakUaPerCm2 = peak, SteadyUaPerCm2 = steady, PeakConductanceMsPerCm2 = gmax };
+    }
+}

@@ -1,0 +1,43 @@
+#!/usr/bin/env bash
+# Runs every test of the solution on a fresh machine with the .NET SDK: installs what the tests need
+# (Debian's chromium for the browser tests), builds, runs each test project and prints a final summary line
+# "tests: N passed, N failed[, N skipped]". Exit status is non-zero when any test fails or a project cannot run.
+set -uo pipefail
+cd "$(dirname "$0")/.."
+
+if ! command -v chromium >/dev/null 2>&1 && [ ! -x /usr/bin/chromium ]; then
+  if [ "$(id -u)" = "0" ] && command -v apt-get >/dev/null 2>&1; then
+    echo "installing Debian chromium for the browser tests..."
+    (apt-get update -qq && DEBIAN_FRONTEND=noninteractive apt-get install -y -qq chromium >/dev/null) || echo "warning: chromium could not be installed; browser tests will fail"
+  else
+    echo "warning: /usr/bin/chromium is missing and this user cannot install it (apt-get install chromium)"
+  fi
+fi
+
+dotnet build ExprModel.sln -c Release -nologo -v q || { echo "tests: 0 passed, 1 failed"; exit 1; }
+
+passed=0; failed=0; skipped=0; status=0
+for proj in tests/*/*.csproj; do
+  name=$(basename "$proj" .csproj)
+  [ "$name" = "ExprModel.Benchmarks" ] && continue
+  log=$(mktemp)
+  dotnet test "$proj" -c Release --no-build -nologo --logger "console;verbosity=normal" 2>&1 | tee "$log" | grep -E "^\s*(Failed|Passed!|Failed!|Skipped!)|error" || true
+  line=$(grep -E "(Passed|Failed)!\s+-\s+Failed:" "$log" | tail -n 1)
+  if [ -z "$line" ]; then
+    echo "$name: no test summary (build or host failure)"; failed=$((failed + 1)); status=1
+  else
+    p=$(echo "$line" | sed -E 's/.*Passed:\s*([0-9]+).*/\1/')
+    f=$(echo "$line" | sed -E 's/.*Failed:\s*([0-9]+),.*/\1/')
+    s=$(echo "$line" | sed -E 's/.*Skipped:\s*([0-9]+).*/\1/')
+    passed=$((passed + p)); failed=$((failed + f)); skipped=$((skipped + s))
+    [ "$f" != "0" ] && status=1
+  fi
+  rm -f "$log"
+done
+
+if [ "$skipped" != "0" ]; then
+  echo "tests: $passed passed, $failed failed, $skipped skipped"
+else
+  echo "tests: $passed passed, $failed failed"
+fi
+exit $status
