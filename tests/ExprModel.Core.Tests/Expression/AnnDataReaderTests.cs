@@ -63,7 +63,7 @@ public sealed class AnnDataReaderTests : IDisposable
             ["obs"] = Frame(Cells,
                 ("group", Categorical([0, 1, 0], ["fast", "adapting"])),
                 ("rheobase_pA", new double[] { 50, double.NaN, 120 })),
-            ["var"] = Frame(Genes),
+            ["var"] = Frame(Genes, ("symbol_upper", Genes.Select(g => g.ToUpperInvariant()).ToArray())),
             Attributes = new() { ["encoding-type"] = "anndata", ["encoding-version"] = "0.1.0" },
         };
         file.Write(path);
@@ -132,5 +132,12 @@ public sealed class AnnDataReaderTests : IDisposable
         Assert.Equal([2.0, 0, 7], t.Genes["Gapdh"]);
         Assert.Equal([10.0, 4, 1], t.Genes["Actb"]);
         Assert.Equal([17.0, 8, 8], t.LibrarySizes);
+    }
+
+    [Fact]
+    public void GeneColumn_ReplacesTheVarIndex()
+    {
+        var t = AnnDataReader.Read(Write("col.h5ad", Dense), new() { GeneColumn = "symbol_upper", KeepGene = g => g == "SCN1A" });
+        Assert.Equal([5.0, 1, 0], t.Genes["SCN1A"]);
     }
 }

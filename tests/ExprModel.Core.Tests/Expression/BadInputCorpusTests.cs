@@ -67,6 +67,7 @@ public sealed class BadInputCorpusTests(ITestOutputHelper output) : IDisposable
         { "mtx_negative_value", Reader.Expression, "matrix.mtx", "line 4, column 3", "negative" },
         { "mtx_bad_size_line", Reader.Expression, "matrix.mtx", "line 2, column 2", "not a whole number" },
         { "mtx_short_entry", Reader.Expression, "matrix.mtx", "line 4, column 3", "row column value" },
+        { "mtx_duplicate_entry", Reader.Expression, "matrix.mtx", "line 5, column 1", "appears a second time" },
         { "mtx_duplicate_barcodes", Reader.Expression, "barcodes.tsv", "line 2, column 1", "duplicated" },
         { "mtx_ragged_features", Reader.Expression, "features.tsv", "line 2, column 3", "ragged" },
         { "metadata_ragged.csv", Reader.Metadata, "metadata_ragged.csv", "line 3, column 3", "ragged" },
