@@ -6,16 +6,14 @@ namespace ExprModel.Core.Simulation;
 /// <summary>
 /// The sweep hot loop with four stimuli as SIMD lanes (AVX2 gathers from the rate tables, FMA, vector exp).
 /// Same staggered scheme and the same spike rule as the scalar loop, so results agree with it to rounding.
-/// Used for spike-only runs of cells whose channels are all ohmic and voltage-gated (no calcium shell);
-/// everything else takes the scalar loop.
+/// Handles voltage gates from tables, calcium-gated (Hill) gates, calcium channels with a Nernst or GHK driving
+/// force and the calcium shell, exactly as the scalar loop orders them.
 /// </summary>
 internal static unsafe class SweepKernel
 {
     public const int Width = 4;
 
-    public static bool CanRun(CompiledCell cell) =>
-        Avx2.IsSupported && Fma.IsSupported && !cell.HasShell
-        && cell.Mode.All(m => m == DriveMode.Ohmic) && !cell.GateIsCalcium.Any(b => b);
+    public static bool CanRun(CompiledCell cell) => Avx2.IsSupported && Fma.IsSupported;
 
     /// <summary>Runs up to four stimuli (each sampled per step) from the same initial state; returns spike times per lane.</summary>
     public static List<double>[] Run(CompiledCell cell, RateTable table, IReadOnlyList<double[]> stimuli, int steps, SimulationSettings settings, CellState init, CancellationToken cancel)
@@ -38,6 +36,27 @@ internal static unsafe class SweepKernel
         bool anyInstant = instant.Any(b => b);
         var gateStart = cell.GateStart;
         var gateEnd = cell.GateEnd;
+        var isCaGate = cell.GateIsCalcium;
+        var hill = cell.Gates.Select(gs => gs.Calcium?.HillCoefficient ?? 1).ToArray();
+        var kdPow = cell.Gates.Select(gs => gs.Calcium is { } ca ? Vector256.Create(Math.Pow(ca.HalfActivationMm, ca.HillCoefficient)) : default).ToArray();
+        var caDecay = table.CalciumDecay.Select(Vector256.Create).ToArray();
+        var mode = cell.Mode;
+        bool anySpecial = mode.Any(m => m != DriveMode.Ohmic);
+        var carriesCalcium = cell.Model.Channels.Select(ch => ch.Entry.Ion == Kinetics.Ion.Calcium).ToArray();
+        bool hasShell = cell.HasShell;
+        var caOut = Vector256.Create(cell.CalciumOutsideMm);
+        var caOutScalar = cell.CalciumOutsideMm;
+        double vt2 = Kinetics.Nernst.ThermalVoltageMv(cell.TemperatureC, 2);
+        var vt2v = Vector256.Create(vt2);
+        var invVt2 = Vector256.Create(1 / vt2);
+        var caFloor = Vector256.Create(1e-9);
+        var shellDecay = Vector256.Create(hasShell ? Math.Exp(-dt / cell.ShellDecayMs) : 0);
+        var shellGain = Vector256.Create(hasShell ? cell.ShellInflowPerCurrent * cell.ShellDecayMs : 0);
+        var shellRest = Vector256.Create(cell.ShellRestMm);
+        var ca = Vector256.Create(init.CalciumMm);
+        var gcs = new Vector256<double>[channels];
+        var one = Vector256.Create(1.0);
+        var smallU = Vector256.Create(1e-6);
         var v = Vector256.Create(init.VoltageMv);
         var vPrev = v;
         var vMin = Vector256.Create(RateTable.MinMv);
@@ -82,6 +101,14 @@ internal static unsafe class SweepKernel
                 }
                 for (int g = 0; g < gates; g++)
                 {
+                    if (isCaGate[g])
+                    {
+                        // Hill steady state of a calcium-gated subunit; constant time constant.
+                        var cn = hill[g] == 1 ? Vector256.Max(ca, zero) : Vector256.Exp(Vector256.Create(hill[g]) * Vector256.Log(Vector256.Max(ca, Vector256.Create(1e-300))));
+                        var inf = cn / (cn + kdPow[g]);
+                        x[g] = Fma.MultiplyAdd(x[g] - inf, caDecay[g], inf);
+                        continue;
+                    }
                     double* baseP = T + (long)g * stride;
                     if (instant[g])
                     {
@@ -100,6 +127,7 @@ internal static unsafe class SweepKernel
                 }
                 var gSum = zero;
                 var gE = zero;
+                var extra = zero;
                 for (int c = 0; c < channels; c++)
                 {
                     var gc = gbar[c];
@@ -110,22 +138,40 @@ internal static unsafe class SweepKernel
                         for (int q = 1; q < power[k]; q++) p *= xv;
                         gc *= p;
                     }
-                    gSum += gc;
-                    gE = Fma.MultiplyAdd(gc, erev[c], gE);
+                    gcs[c] = gc;
+                    if (!anySpecial || mode[c] == DriveMode.Ohmic)
+                    {
+                        gSum += gc;
+                        gE = Fma.MultiplyAdd(gc, erev[c], gE);
+                    }
+                    else
+                    {
+                        extra = Fma.MultiplyAdd(gc, Driving(mode[c], v, ca), extra);
+                    }
                 }
                 var current = Vector256.Load(S + (long)s * Width);
                 vPrev = v;
-                var drive = gE + current;
+                var drive = gE + current - extra;
                 var vInf = drive / Vector256.Max(gSum, tiny);
                 var relaxed = Fma.MultiplyAdd(v - vInf, Vector256.Exp(gSum * minusDtOverC), vInf);
                 var euler = Fma.MultiplyAdd(dtOverC, drive - gSum * v, v);
                 v = Vector256.ConditionalSelect(Vector256.GreaterThan(gSum, tiny), relaxed, euler);
 
+                if (hasShell)
+                {
+                    var vMid = (v + vPrev) * half;
+                    var ica = zero;
+                    for (int c = 0; c < channels; c++)
+                        if (carriesCalcium[c]) ica = Fma.MultiplyAdd(gcs[c], mode[c] == DriveMode.Ohmic ? vMid - erev[c] : Driving(mode[c], vMid, ca), ica);
+                    var caInf = shellRest - shellGain * ica;
+                    ca = Vector256.Max(Fma.MultiplyAdd(ca - caInf, shellDecay, caInf), zero);
+                }
+
                 if (!Vector256.LessThanAll(Vector256.Abs(v), limit))
                 {
                     for (int l = 0; l < lanes; l++)
                         if (!(Math.Abs(v[l]) < 1000))
-                            throw Simulator.BlowUp(cell, (s + 1) * dt, vPrev[l], x.Select(xx => xx[l]).ToArray(), cell.ShellRestMm, stim[s * Width + l]);
+                            throw Simulator.BlowUp(cell, (s + 1) * dt, vPrev[l], x.Select(xx => xx[l]).ToArray(), ca[l], stim[s * Width + l]);
                 }
 
                 if (anyPending || Vector256.GreaterThanOrEqualAny(v, level) || Vector256.GreaterThanOrEqualAny(vPrev, level))
@@ -153,5 +199,16 @@ internal static unsafe class SweepKernel
             }
         }
         return spikes;
+
+        // Driving term (mV) of a calcium channel: V - E_Ca(Nernst, shell calcium) or the scaled GHK term.
+        Vector256<double> Driving(DriveMode m, Vector256<double> vm, Vector256<double> caIn)
+        {
+            var ci = Vector256.Max(caIn, caFloor);
+            if (m == DriveMode.NernstCalcium) return vm - vt2v * Vector256.Log(caOut / ci);
+            var u = vm * invVt2;
+            var e = Vector256.Exp(zero - u);
+            var linear = Vector256.ConditionalSelect(Vector256.LessThan(Vector256.Abs(u), smallU), vt2v * Fma.MultiplyAdd(u, half, one), vm / (one - e));
+            return linear * (ci / caOut - e);
+        }
     }
 }
