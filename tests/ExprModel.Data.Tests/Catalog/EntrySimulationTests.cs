@@ -77,7 +77,7 @@ public class EntrySweepConsistencyTests
         Assert.Equal(single, sweep);
     }
 
-    [Fact(Skip = "Simulation/SweepKernel.cs treats every calcium gate as a Hill gate (Calcium sensitivity), so the BK gate written as calcium-dependent rates is fully open in f-I sweeps; un-skip once the kernel evaluates such gates with GateSpec.SteadyStateAt(v, ca) or SweepKernel.CanRun declines them.")]
+    [Fact]
     public void Sweep_and_single_trace_agree_for_the_bk_entry()
     {
         var (sweep, single) = Counts(E("bk-moczydlowski1983"));
