@@ -74,7 +74,41 @@ public static class CatalogCommands
             return 0;
         });
 
+        var genes = new Command("genes", "Every channel gene the catalog knows: species, status (linked, auxiliary, non-neuronal, not-modelled) and entries.");
+        var genesFormat = new Option<string>("--format") { Description = "csv or table", DefaultValueFactory = _ => "table" };
+        genes.Options.Add(db);
+        genes.Options.Add(genesFormat);
+        genes.SetAction(p =>
+        {
+            ctx.DatabasePath = p.GetValue(db);
+            var rows = GeneCoverage.Rows(ctx.Catalog);
+            if (p.GetValue(genesFormat) == "csv")
+            {
+                ctx.Out.Write(GeneCoverage.ToCsv(rows));
+                return 0;
+            }
+            foreach (var r in rows) ctx.Out.WriteLine($"{r.Symbol,-10} {Word(r.Species),-6} {r.Status,-13} {string.Join(" ", r.Entries)}");
+            var v = GeneCoverage.VoltageGatedPoreCoverage(ctx.Catalog);
+            ctx.Out.WriteLine($"{rows.Count} rows; {v.Group} linked: {v.Linked} of {v.Total} ({v.Fraction:P0}); unlinked: {string.Join(", ", v.Unlinked)}");
+            return 0;
+        });
+
+        var report = new Command("report", "A reviewer's report: every entry's citation, status, half-activations, time constants and curve table.");
+        var all = new Option<bool>("--all-versions") { Description = "Include superseded versions." };
+        var reportOut = new Option<string?>("--out") { Description = "Write the report (Markdown) to this file." };
+        report.Options.Add(db);
+        report.Options.Add(all);
+        report.Options.Add(reportOut);
+        report.SetAction(p =>
+        {
+            ctx.DatabasePath = p.GetValue(db);
+            ctx.Emit(CatalogReport.Markdown(ctx.Catalog, p.GetValue(all)), p.GetValue(reportOut));
+            return 0;
+        });
+
         catalog.Subcommands.Add(list);
+        catalog.Subcommands.Add(genes);
+        catalog.Subcommands.Add(report);
         catalog.Subcommands.Add(show);
         catalog.Subcommands.Add(build);
         return catalog;

@@ -46,6 +46,9 @@ public sealed record ExpressionReadOptions
     /// <summary>For Matrix Market feature sidecars: 1-based column holding the gene identifier to use (1 = Ensembl id, 2 = symbol). Null uses column 2 when present.</summary>
     public int? FeatureColumn { get; init; }
 
+    /// <summary>For AnnData files: the var column holding the gene identifiers to use (e.g. symbols when the index holds Ensembl ids). Null uses the var index.</summary>
+    public string? GeneColumn { get; init; }
+
     /// <summary>Guard against decompression bombs: the most bytes a compressed input may inflate to.</summary>
     public long MaxDecompressedBytes { get; init; } = 32L << 30;
 

@@ -25,5 +25,5 @@ public static class ChannelFamilies
     };
 
     /// <summary>Families without a voltage band (leak, calcium-gated, inward rectifier, historical).</summary>
-    public static readonly IReadOnlySet<string> Unbanded = new HashSet<string> { "leak", "SK", "BK", "Kir", "K2P", "historical", "delayed-rectifier-model" };
+    public static readonly IReadOnlySet<string> Unbanded = new HashSet<string> { "leak", "SK", "BK", "Kir", "K2P", "historical", "Kdr-model" };
 }

@@ -40,7 +40,7 @@ public sealed class CompiledCell
     internal readonly bool[] GateIsInstantaneous;
     internal readonly double CapacitanceUfPerCm2;
     internal readonly bool HasShell;
-    /// <summary>mM/ms of calcium per uA/cm2 of inward calcium current: 10 / (2 F d[um]) (see <see cref="CalciumShell"/>).</summary>
+    /// <summary>mM/ms of free calcium per uA/cm2 of inward calcium current: 10 / (2 F d[um] (1 + kappa)) (see <see cref="CalciumShell"/>).</summary>
     internal readonly double ShellInflowPerCurrent;
     internal readonly double ShellDecayMs;
     internal readonly double ShellRestMm;
@@ -96,7 +96,7 @@ public sealed class CompiledCell
         if (model.CalciumShell is { } shell)
         {
             HasShell = true;
-            ShellInflowPerCurrent = 10.0 / (2 * PhysicalConstants.Faraday * shell.DepthUm);
+            ShellInflowPerCurrent = 10.0 / (2 * PhysicalConstants.Faraday * shell.DepthUm * (1 + shell.BufferCapacity));
             ShellDecayMs = shell.DecayMs;
             ShellRestMm = shell.RestMm;
         }
@@ -114,6 +114,12 @@ public sealed class CompiledCell
 
     /// <summary>Time constant (ms) of gate g at V, scaled for temperature by Q10.</summary>
     public double GateTimeConstantMs(int g, double vMv) => Gates[g].TimeConstantAt(vMv - GateShiftMv[g]) / GateTemperatureFactor[g];
+
+    /// <summary>Time constant (ms) of gate g at V and intracellular calcium (BK-type gates depend on both).</summary>
+    public double GateTimeConstantMs(int g, double vMv, double calciumMm) => Gates[g].TimeConstantAt(vMv - GateShiftMv[g], calciumMm) / GateTemperatureFactor[g];
+
+    /// <summary>True for calcium gates written as voltage- and calcium-dependent rates (BK-type): tau varies every step.</summary>
+    internal bool GateHasCalciumRates(int g) => Gates[g].Kind == GateKind.Calcium && Gates[g].Calcium is null;
 
     /// <summary>The state with V at <paramref name="vMv"/> and every gate at its steady state there.</summary>
     public CellState SteadyState(double vMv)
@@ -178,7 +184,7 @@ public sealed class CompiledCell
         {
             if (GateIsInstantaneous[g]) { dy[g + 1] = 0; continue; }
             double inf = GateSteadyState(g, v, ca);
-            double tau = GateTimeConstantMs(g, v);
+            double tau = GateTimeConstantMs(g, v, ca);
             dy[g + 1] = (inf - y[g + 1]) / tau;
         }
         if (HasShell)

@@ -88,6 +88,7 @@ public static class Simulator
             var power = cell.GatePower;
             var isCa = cell.GateIsCalcium;
             var instant = cell.GateIsInstantaneous;
+            var caRates = Enumerable.Range(0, gateCount).Select(cell.GateHasCalciumRates).ToArray();
             double vPrevious = v;
             bool anyCalciumGate = isCa.Any(b => b);
             bool anySpecial = mode.Any(m => m != DriveMode.Ohmic);
@@ -132,7 +133,8 @@ public static class Simulator
                     if (t is null)
                     {
                         double inf = cell.GateSteadyState(k, v, ca);
-                        x[k] = inf + (x[k] - inf) * caDecay[k];
+                        double decay = caRates[k] ? Math.Exp(-dt / cell.GateTimeConstantMs(k, v, ca)) : caDecay[k];
+                        x[k] = inf + (x[k] - inf) * decay;
                         continue;
                     }
                     if (instant[k])

@@ -13,7 +13,21 @@ internal static unsafe class SweepKernel
 {
     public const int Width = 4;
 
-    public static bool CanRun(CompiledCell cell) => Avx2.IsSupported && Fma.IsSupported;
+    public static bool CanRun(CompiledCell cell) =>
+        Avx2.IsSupported && Fma.IsSupported
+        && Enumerable.Range(0, cell.GateCount).All(g => !cell.GateHasCalciumRates(g) || (IsCalciumRate(cell.Gates[g].Alpha) && IsCalciumRate(cell.Gates[g].Beta)));
+
+    private static bool IsCalciumRate(Kinetics.GateRate? r) => r is { Shape: Kinetics.RateShape.CalciumBoundOpening or Kinetics.RateShape.CalciumBoundClosing };
+
+    /// <summary>A calcium-bound rate (Moczydlowski &amp; Latorre 1983), as GateRate.Evaluate(v, ca) computes it.</summary>
+    private static Vector256<double> CalciumRate(Kinetics.GateRate r, Vector256<double> v, Vector256<double> ca)
+    {
+        var e = Vector256.Exp(Vector256<double>.Zero - v / Vector256.Create(r.K));
+        var one = Vector256.Create(1.0);
+        return r.Shape == Kinetics.RateShape.CalciumBoundOpening
+            ? Vector256.Create(r.A) / (one + Vector256.Create(r.C1) * e / Vector256.Max(ca, Vector256.Create(1e-12)))
+            : Vector256.Create(r.A) / (one + Vector256.Max(ca, Vector256<double>.Zero) / (Vector256.Create(r.C1) * e));
+    }
 
     /// <summary>Runs up to four stimuli (each sampled per step) from the same initial state; returns spike times per lane.</summary>
     public static List<double>[] Run(CompiledCell cell, RateTable table, IReadOnlyList<double[]> stimuli, int steps, SimulationSettings settings, CellState init, CancellationToken cancel)
@@ -37,6 +51,10 @@ internal static unsafe class SweepKernel
         var gateStart = cell.GateStart;
         var gateEnd = cell.GateEnd;
         var isCaGate = cell.GateIsCalcium;
+        var caRates = Enumerable.Range(0, gates).Select(cell.GateHasCalciumRates).ToArray();
+        var shiftV = cell.GateShiftMv.Select(Vector256.Create).ToArray();
+        // exp(-dt * (alpha + beta) * rateFactor * temperature factor): the same tau the scalar loop takes.
+        var rateMult = Enumerable.Range(0, gates).Select(g => Vector256.Create(-dt * cell.Gates[g].RateFactor * cell.GateTemperatureFactor[g])).ToArray();
         var hill = cell.Gates.Select(gs => gs.Calcium?.HillCoefficient ?? 1).ToArray();
         var kdPow = cell.Gates.Select(gs => gs.Calcium is { } ca ? Vector256.Create(Math.Pow(ca.HalfActivationMm, ca.HillCoefficient)) : default).ToArray();
         var caDecay = table.CalciumDecay.Select(Vector256.Create).ToArray();
@@ -101,6 +119,17 @@ internal static unsafe class SweepKernel
                 }
                 for (int g = 0; g < gates; g++)
                 {
+                    if (caRates[g])
+                    {
+                        // BK-type: rates depend on V (with the channel's shift) and calcium; exact update for the step.
+                        var vs = v - shiftV[g];
+                        var opening = CalciumRate(cell.Gates[g].Alpha!, vs, ca);
+                        var closing = CalciumRate(cell.Gates[g].Beta!, vs, ca);
+                        var sum = opening + closing;
+                        var inf = opening / sum;
+                        x[g] = Fma.MultiplyAdd(x[g] - inf, Vector256.Exp(sum * rateMult[g]), inf);
+                        continue;
+                    }
                     if (isCaGate[g])
                     {
                         // Hill steady state of a calcium-gated subunit; constant time constant.

@@ -45,7 +45,7 @@ public static class VoltageClamp
                 {
                     double inf = cell.GateSteadyState(g, v, ca);
                     if (cell.GateIsInstantaneous[g]) { x[g] = inf; continue; }
-                    double tau = cell.GateTimeConstantMs(g, v);
+                    double tau = cell.GateTimeConstantMs(g, v, ca);
                     x[g] = inf + (x[g] - inf) * Math.Exp(-dtMs / tau);
                 }
                 if (cell.HasShell)

@@ -21,3 +21,29 @@ public class CatalogCommandsTests
         File.Delete(db);
     }
 }
+
+public class CatalogGenesAndReportTests
+{
+    [Fact]
+    public void GenesCsvListsSymbolSpeciesStatusAndEntries()
+    {
+        var (exit, stdout, err) = CliRunner.Run("catalog", "genes", "--format", "csv");
+        Assert.True(exit == 0, err);
+        var lines = stdout.Split('\n', StringSplitOptions.RemoveEmptyEntries);
+        Assert.Equal("symbol,species,status,entries", lines[0]);
+        // SCN1A is the HGNC symbol of Nav1.1 (r-bioc-org.hs.eg.db); it must be linked to a transient sodium entry.
+        Assert.Contains(lines, l => l.StartsWith("SCN1A,human,linked,") && l.Contains("traub-na"));
+        Assert.Contains(lines, l => l.StartsWith("Scn1a,mouse,linked,"));
+        Assert.Contains(lines, l => l.StartsWith("SCN1B,human,auxiliary"));
+    }
+
+    [Fact]
+    public void ReportShowsEveryEntryWithItsVerificationStatus()
+    {
+        var (exit, stdout, err) = CliRunner.Run("catalog", "report");
+        Assert.True(exit == 0, err);
+        Assert.Contains("squid-na-hh1952@1", stdout);
+        Assert.Contains("recalled", stdout);
+        Assert.Contains("half-activation", stdout);
+    }
+}

@@ -1,6 +1,8 @@
 using ExprModel.Core.Expression;
 using ExprModel.Core.Expression.AnnData;
 using PureHDF;
+using PureHDF.Filters;
+using PureHDF.VOL.Native;
 
 namespace ExprModel.Core.Tests.Expression;
 
@@ -61,7 +63,7 @@ public sealed class AnnDataReaderTests : IDisposable
             ["obs"] = Frame(Cells,
                 ("group", Categorical([0, 1, 0], ["fast", "adapting"])),
                 ("rheobase_pA", new double[] { 50, double.NaN, 120 })),
-            ["var"] = Frame(Genes),
+            ["var"] = Frame(Genes, ("symbol_upper", Genes.Select(g => g.ToUpperInvariant()).ToArray())),
             Attributes = new() { ["encoding-type"] = "anndata", ["encoding-version"] = "0.1.0" },
         };
         file.Write(path);
@@ -118,5 +120,24 @@ public sealed class AnnDataReaderTests : IDisposable
         Assert.Equal("rheobase", rheobase.Name);
         Assert.Equal("pA", rheobase.Unit);
         Assert.Equal([50.0, null, 120.0], rheobase.Values);
+    }
+
+    [Fact]
+    public void ReadsChunkedDeflateCompressedX()
+    {
+        // Writers commonly store X chunked and gzip (deflate) compressed; slices must cross chunk boundaries.
+        var creation = new H5DatasetCreation { Filters = [DeflateFilter.Id] };
+        var x = new H5Dataset(Dense, chunks: [2, 3], datasetCreation: creation);
+        var t = AnnDataReader.Read(Write("chunked.h5ad", x), new() { KeepGene = g => g is "Gapdh" or "Actb" });
+        Assert.Equal([2.0, 0, 7], t.Genes["Gapdh"]);
+        Assert.Equal([10.0, 4, 1], t.Genes["Actb"]);
+        Assert.Equal([17.0, 8, 8], t.LibrarySizes);
+    }
+
+    [Fact]
+    public void GeneColumn_ReplacesTheVarIndex()
+    {
+        var t = AnnDataReader.Read(Write("col.h5ad", Dense), new() { GeneColumn = "symbol_upper", KeepGene = g => g == "SCN1A" });
+        Assert.Equal([5.0, 1, 0], t.Genes["SCN1A"]);
     }
 }

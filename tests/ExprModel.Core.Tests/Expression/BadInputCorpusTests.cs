@@ -67,6 +67,7 @@ public sealed class BadInputCorpusTests(ITestOutputHelper output) : IDisposable
         { "mtx_negative_value", Reader.Expression, "matrix.mtx", "line 4, column 3", "negative" },
         { "mtx_bad_size_line", Reader.Expression, "matrix.mtx", "line 2, column 2", "not a whole number" },
         { "mtx_short_entry", Reader.Expression, "matrix.mtx", "line 4, column 3", "row column value" },
+        { "mtx_duplicate_entry", Reader.Expression, "matrix.mtx", "line 5, column 1", "appears a second time" },
         { "mtx_duplicate_barcodes", Reader.Expression, "barcodes.tsv", "line 2, column 1", "duplicated" },
         { "mtx_ragged_features", Reader.Expression, "features.tsv", "line 2, column 3", "ragged" },
         { "metadata_ragged.csv", Reader.Metadata, "metadata_ragged.csv", "line 3, column 3", "ragged" },
@@ -123,6 +124,7 @@ public sealed class BadInputCorpusTests(ITestOutputHelper output) : IDisposable
         ["csr_data_too_short.h5ad"] = ((f, n) => H5ad(f, n, x: Csr(data: [5, 2, 10])), Reader.AnnData, "dataset /X/data", "shape"),
         ["csr_missing_indices.h5ad"] = ((f, n) => H5ad(f, n, x: Csr(dropIndices: true)), Reader.AnnData, "dataset /X/indices", "missing"),
         ["x_unknown_encoding.h5ad"] = ((f, n) => H5ad(f, n, x: new H5Group { ["data"] = new float[] { 1 }, Attributes = new() { ["encoding-type"] = "coo_matrix" } }), Reader.AnnData, "dataset /X", "coo_matrix"),
+        ["old_layout_obs.h5ad"] = ((f, n) => OldLayout(f, n), Reader.AnnData, "dataset /obs", "older AnnData layout"),
         ["no_var.h5ad"] = ((f, n) => H5ad(f, n, x: AnnDataReaderTests.Dense, withVar: false), Reader.AnnData, "dataset /var", "missing"),
         ["duplicate_obs.h5ad"] = ((f, n) => H5ad(f, n, x: AnnDataReaderTests.Dense, cells: ["c1", "c2", "c1"]), Reader.AnnData, "dataset /obs index, row 2", "duplicated"),
         ["not_hdf5.h5ad"] = ((f, n) => f.Text(n, "gene,c1\nScn1a,1\n"), Reader.AnnData, "byte 0", "not an HDF5 file"),
@@ -200,6 +202,14 @@ public sealed class BadInputCorpusTests(ITestOutputHelper output) : IDisposable
     {
         var bytes = File.ReadAllBytes(path);
         File.WriteAllBytes(path, bytes[..(int)(bytes.Length * keep)]);
+        return path;
+    }
+
+    /// <summary>obs written as one dataset rather than a group, as older writers did with compound data frames.</summary>
+    private static string OldLayout(TempFiles f, string name)
+    {
+        var path = Path.Combine(f.Dir, name);
+        new H5File { ["obs"] = new int[] { 1, 2, 3 }, ["var"] = AnnDataReaderTests.Frame(AnnDataReaderTests.Genes), ["X"] = AnnDataReaderTests.Dense }.Write(path);
         return path;
     }
 

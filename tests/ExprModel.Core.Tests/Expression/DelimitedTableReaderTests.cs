@@ -194,4 +194,14 @@ public sealed class DelimitedTableReaderTests : IDisposable
         Assert.Contains("decompressed data", e.Message);
         Assert.Contains("limit of 10,000 bytes", e.Message);
     }
+
+    [Fact]
+    public void CellsSummingToAnotherCommonTotal_AreReadAsGivenWithThatTotalInTheNote()
+    {
+        // Each cell sums to 10,000 (2500.5 + 7499.5, 100 + 9900): normalised, but not per million.
+        const string scaled = "gene,c1,c2\nScn1a,2500.5,100\nGapdh,7499.5,9900\n";
+        var t = DelimitedTableReader.Read(_files.Text("p10k.csv", scaled));
+        Assert.Equal(ExpressionUnit.Fpkm, t.Unit);
+        Assert.Contains("sums to 10000", t.UnitNote);
+    }
 }

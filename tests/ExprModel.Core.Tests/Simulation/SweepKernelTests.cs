@@ -60,7 +60,7 @@ public class SweepKernelTests
         var preset = cat.BuildCell(cat.Preset("hh1952"));
         var model = preset with
         {
-            CalciumShell = new CalciumShell { DepthUm = 0.1, DecayMs = 50, RestMm = 5e-5 },
+            CalciumShell = new CalciumShell { DepthUm = 0.1, DecayMs = 50, RestMm = 5e-5, BufferCapacity = 0 },
             Channels = [.. preset.Channels, new ChannelInstance { Entry = calcium, DensityMsPerCm2 = 0.1 }, new ChannelInstance { Entry = sk, DensityMsPerCm2 = 0.5 }],
         };
         var cell = new CompiledCell(model);

@@ -34,3 +34,53 @@ public class EntrySimulationTests
         Assert.All(trace.VoltageMv, v => Assert.InRange(v, -130, 90));
     }
 }
+
+/// <summary>The parallel f-I sweep path and the single-trace path give the same spike counts for every entry.</summary>
+public class EntrySweepConsistencyTests
+{
+    private static ChannelEntry E(string id) => CatalogFiles.Content.Entries.Single(e => e.Id == id);
+
+    private static (int[] Sweep, int[] Single) Counts(ChannelEntry entry)
+    {
+        var channels = new List<ChannelInstance>
+        {
+            new() { Entry = E("traub-na"), DensityMsPerCm2 = 50 },
+            new() { Entry = E("traub-kdr"), DensityMsPerCm2 = 5 },
+            new() { Entry = E("leak"), DensityMsPerCm2 = 0.05 },
+            new() { Entry = E("cav-hva-reuveni1993"), DensityMsPerCm2 = 0.3 },
+        };
+        if (channels.All(c => c.Entry.Key != entry.Key))
+            channels.Add(new() { Entry = entry, DensityMsPerCm2 = entry.TypicalDensityMsPerCm2 });
+        var cell = new CompiledCell(new CellModel
+        {
+            Geometry = Geometry.FromDiameter(30), TemperatureC = 36, InitialVoltageMv = -70, CalciumShell = new CalciumShell(), Channels = channels,
+        });
+        var stimuli = new[] { 2.0, 6, 12, 20 }.Select(a => (Stimulus)new StepCurrent(0, 300, a)).ToList();
+        var sweep = Simulator.SpikeTimes(cell, stimuli, 300).Select(s => s.Count).ToArray();
+        var single = stimuli.Select(s => Simulator.Run(cell, s, 300).SpikeTimesMs.Count).ToArray();
+        return (sweep, single);
+    }
+
+    public static TheoryData<string> VoltageOrHillGatedEntries()
+    {
+        var data = new TheoryData<string>();
+        foreach (var e in CatalogFiles.Content.Entries.Where(e => !e.Gates.Any(g => g.Kind == GateKind.Calcium && g.Calcium is null)))
+            data.Add(e.Key);
+        return data;
+    }
+
+    [Theory]
+    [MemberData(nameof(VoltageOrHillGatedEntries))]
+    public void Sweep_and_single_trace_agree(string key)
+    {
+        var (sweep, single) = Counts(CatalogFiles.Content.Entries.Single(e => e.Key == key));
+        Assert.Equal(single, sweep);
+    }
+
+    [Fact]
+    public void Sweep_and_single_trace_agree_for_the_bk_entry()
+    {
+        var (sweep, single) = Counts(E("bk-moczydlowski1983"));
+        Assert.Equal(single, sweep);
+    }
+}

@@ -83,7 +83,7 @@ public class GeneLinkTests
         Assert.Equal(meta["ENSOURCEDATE"], p["ensemblSourceDate"]);
         Assert.Equal(meta["GOSOURCEDATE"], p["goSourceDate"]);
         Assert.Equal("catalog/scripts/derive-identifiers.sh", p["script"]);
-        var deb = Directory.GetFiles(GenePackage.CacheDirectory, GenePackage.Package + "_*.deb").SingleOrDefault();
+        var deb = Directory.GetFiles(GenePackage.CacheDirectory, GenePackage.Package + "_*.deb").Order(StringComparer.Ordinal).LastOrDefault();
         if (deb is not null) Assert.Contains("_" + p["packageVersion"] + "_", Path.GetFileName(deb));
     }
 

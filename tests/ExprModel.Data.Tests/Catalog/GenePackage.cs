@@ -32,25 +32,41 @@ public static class GenePackage
         var deb = Directory.GetFiles(CacheDirectory, Package + "_*.deb").Order(StringComparer.Ordinal).LastOrDefault();
         if (deb is null)
         {
-            if (Run("apt-get", $"download {Package}") != 0)
+            // Download into a private folder and move the finished file in, so concurrent test runs never read a partial .deb.
+            var download = Path.Combine(CacheDirectory, "download-" + Guid.NewGuid().ToString("N"));
+            Directory.CreateDirectory(download);
+            try
             {
-                // Package lists may be missing on a fresh machine: refresh once and retry.
-                Run("apt-get", "update");
-                if (Run("apt-get", $"download {Package}") != 0) throw new InvalidOperationException($"apt-get download {Package} failed");
+                if (Run("apt-get", $"download {Package}", download) != 0)
+                {
+                    // Package lists may be missing on a fresh machine: refresh once and retry.
+                    Run("apt-get", "update", download);
+                    if (Run("apt-get", $"download {Package}", download) != 0) throw new InvalidOperationException($"apt-get download {Package} failed");
+                }
+                var got = Directory.GetFiles(download, Package + "_*.deb").Single();
+                deb = Path.Combine(CacheDirectory, Path.GetFileName(got));
+                if (!File.Exists(deb)) File.Move(got, deb);
             }
-            deb = Directory.GetFiles(CacheDirectory, Package + "_*.deb").Order(StringComparer.Ordinal).Last();
+            finally { Directory.Delete(download, recursive: true); }
         }
-        var partial = root + ".partial";
-        if (Directory.Exists(partial)) Directory.Delete(partial, recursive: true);
-        if (Run("dpkg", $"-x {deb} {partial}") != 0) throw new InvalidOperationException($"dpkg -x {deb} failed");
-        if (Directory.Exists(root)) Directory.Delete(root, recursive: true);
-        Directory.Move(partial, root);
+        var partial = Path.Combine(CacheDirectory, "root-" + Guid.NewGuid().ToString("N"));
+        try
+        {
+            if (Run("dpkg", $"-x {deb} {partial}", CacheDirectory) != 0) throw new InvalidOperationException($"dpkg -x {deb} failed");
+            if (!File.Exists(sqlite))
+            {
+                if (Directory.Exists(root)) Directory.Delete(root, recursive: true); // an earlier, interrupted unpack
+                Directory.Move(partial, root);
+            }
+        }
+        catch (IOException) when (File.Exists(sqlite)) { } // another test run finished the unpack first
+        finally { if (Directory.Exists(partial)) Directory.Delete(partial, recursive: true); }
         return sqlite;
     }
 
-    private static int Run(string file, string args)
+    private static int Run(string file, string args, string workingDirectory)
     {
-        var psi = new ProcessStartInfo(file, args) { WorkingDirectory = CacheDirectory, RedirectStandardOutput = true, RedirectStandardError = true };
+        var psi = new ProcessStartInfo(file, args) { WorkingDirectory = workingDirectory, RedirectStandardOutput = true, RedirectStandardError = true };
         using var p = Process.Start(psi)!;
         p.StandardOutput.ReadToEnd();
         p.StandardError.ReadToEnd();

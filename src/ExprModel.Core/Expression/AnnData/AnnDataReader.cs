@@ -32,6 +32,7 @@ public static class AnnDataReader
         var notes = new List<string>();
         var cells = ReadIndex(h5, "obs", at);
         var genes = ReadIndex(h5, "var", at);
+        if (o.GeneColumn is { } column) genes = ReadVarColumn(h5, column, genes.Length, at);
         var cellRegistry = new CellRegistry(file);
         for (int i = 0; i < cells.Length; i++) cellRegistry.Add(cells[i], $"dataset /obs index, row {i}");
         var registry = new GeneRegistry(file, o, notes);
@@ -154,8 +155,10 @@ public static class AnnDataReader
     private static string[] ReadIndex(NativeFile h5, string frame, Location at)
     {
         at.Path = "/" + frame;
-        if (!Guard(at, () => h5.LinkExists(frame)) || Guard(at, () => h5.Get(frame)) is not IH5Group group)
+        if (!Guard(at, () => h5.LinkExists(frame)))
             throw at.Error($"missing: the file has no {frame} data frame.");
+        if (Guard(at, () => h5.Get(frame)) is not IH5Group group)
+            throw at.Error($"is a single dataset, not a group: an older AnnData layout (compound data frames) that is not read; save the file again with a current AnnData version.");
         string indexName = ReadStringAttribute(group, "_index", at) ?? "_index";
         at.Path = $"/{frame}/{indexName}";
         if (!Guard(at, () => group.LinkExists(indexName)) || Guard(at, () => group.Get(indexName)) is not IH5Dataset index)
@@ -165,6 +168,22 @@ public static class AnnDataReader
         var names = Guard(at, () => index.Read<string[]>());
         if (names.Length == 0) throw at.Error("empty index.");
         return names;
+    }
+
+    /// <summary>A string or categorical var column, used as gene identifiers instead of the var index.</summary>
+    private static string[] ReadVarColumn(NativeFile h5, string column, int genes, Location at)
+    {
+        at.Path = $"/var/{column}";
+        var var = h5.Group("var");
+        if (!Guard(at, () => var.LinkExists(column))) throw at.Error("missing: no such var column.");
+        var obj = Guard(at, () => var.Get(column));
+        string?[] values;
+        if (obj is IH5Group g && ReadStringAttribute(g, "encoding-type", at) == "categorical") values = ReadCategorical(g, genes, at);
+        else if (obj is IH5Dataset d && IsString(Guard(at, () => d.Type))) { CheckLength(d, genes, at); values = Guard(at, () => d.Read<string[]>()); }
+        else throw at.Error("is not a string or categorical column.");
+        int empty = Array.FindIndex(values, v => string.IsNullOrWhiteSpace(v));
+        if (empty >= 0) throw at.Error($"row {empty}: empty gene identifier.");
+        return values!;
     }
 
     private static string? ReadStringAttribute(IH5Object obj, string name, Location at)

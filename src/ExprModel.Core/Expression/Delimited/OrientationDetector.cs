@@ -18,6 +18,8 @@ internal static partial class OrientationDetector
 
     public static bool IsCornerLabel(string text) => GeneCornerLabel().IsMatch(text.Trim()) || CellCornerLabel().IsMatch(text.Trim());
 
+    private const int SampleSize = 200;
+
     /// <summary>How much more gene-like one axis must look than the other to decide by shape alone.</summary>
     private const double Margin = 0.2;
 
@@ -36,7 +38,8 @@ internal static partial class OrientationDetector
             return (TableOrientation.GenesAsRows, $"detected genes as rows: the top-left cell says '{label}'.");
         if (CellCornerLabel().IsMatch(label))
             return (TableOrientation.CellsAsRows, $"detected cells as rows: the top-left cell says '{label}'.");
-        double rows = GeneIdentifiers.GeneLikeness(firstColumn), cols = GeneIdentifiers.GeneLikeness(header.Take(firstColumn.Count > 0 ? Math.Max(200, firstColumn.Count) : 200).ToList());
+        // Compare like with like: as many header names as row names were probed (at least a few hundred).
+        double rows = GeneIdentifiers.GeneLikeness(firstColumn), cols = GeneIdentifiers.GeneLikeness(header.Take(Math.Max(SampleSize, firstColumn.Count)).ToList());
         if (rows - cols >= Margin)
             return (TableOrientation.GenesAsRows, $"detected genes as rows: row names look like gene identifiers (score {rows:F2} against {cols:F2} for column names).");
         if (cols - rows >= Margin)

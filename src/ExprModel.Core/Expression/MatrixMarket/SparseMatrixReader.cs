@@ -88,7 +88,13 @@ public static class SparseMatrixReader
             if (!isGene[i - 1]) continue;
             stats.Add(v);
             library[j - 1] += v;
-            if (slot[i - 1] is { } s) s[j - 1] += v;
+            if (slot[i - 1] is { } s)
+            {
+                // Coordinate entries name each position once; a repeat would be silently summed, so refuse it
+                // (detectable for kept genes, whose values are held; a repeated zero cannot be told apart).
+                if (s[j - 1] != 0) throw r.Error(1, $"entry ({i}, {j}) appears a second time.");
+                s[j - 1] = v;
+            }
         }
         if (seen < entries)
             throw new ExpressionFormatException($"{file}: line {r.LineNumber + 1}: the size line declares {entries} entries but the file ends after {seen} (truncated?).");

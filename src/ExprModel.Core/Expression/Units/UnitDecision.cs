@@ -50,7 +50,18 @@ internal static class UnitDecision
                 "Refusing to guess the transform: state it (ln(1 + x), log2(1 + x), log10(1 + x)) so it can be undone, or state the unit if the values are linear.");
         if (sumsToMillion)
             return (ExpressionUnit.Cpm, $"{undone}detected CPM or TPM: values are not whole numbers and every cell sums to one million (within {MillionTolerance:P0}); read as given.");
+        if (CommonSum(librarySizes) is { } total)
+            return (ExpressionUnit.Fpkm, $"{undone}values are not whole numbers and every cell sums to {total:G6}, not one million: normalised to another total; read as given (FPKM-like, relative levels only). State the unit to be sure.");
         return (ExpressionUnit.Fpkm, $"{undone}detected FPKM/RPKM-like values: not whole numbers, largest {s.Max:G6}, and cells do not sum to one million; read as given. State the unit to be sure.");
+    }
+
+    /// <summary>The total every non-empty cell sums to (within the same tolerance), or null.</summary>
+    private static double? CommonSum(double[] librarySizes)
+    {
+        var nonzero = librarySizes.Where(l => l > 0).ToList();
+        if (nonzero.Count < 2) return null;
+        double first = nonzero[0];
+        return nonzero.All(l => Math.Abs(l - first) <= MillionTolerance * first) ? first : null;
     }
 
     private static bool SumsToMillion(double[] librarySizes)

@@ -1,0 +1,75 @@
+using ExprModel.Core.Analysis;
+using ExprModel.Core.Expression;
+using ExprModel.Core.Expression.Metadata;
+using ExprModel.Core.Mapping;
+using ExprModel.Core.Simulation;
+using ExprModel.Data.Catalog;
+
+namespace ExprModel.Core.Tests.Mapping;
+
+/// <summary>
+/// The invented demo survey end to end: table, metadata, mapping, density rule, models, read-outs. The scenario
+/// was designed (catalog/demo/README.md) so its five groups fire differently; these tests hold it to that design.
+/// </summary>
+public class DemoGroupsTests
+{
+    private static readonly Lazy<IReadOnlyDictionary<string, (CompiledCell Cell, CellReadouts Readouts)>> Groups = new(() =>
+    {
+        var dir = CatalogLocator.FindSourceDirectory()!;
+        var catalog = TestCatalog.Catalog.ForMapping();
+        var resolver = new GeneResolver(catalog.Links, catalog.Statuses, catalog.Identifiers);
+        var table = ExpressionReader.Read(Path.Combine(dir, "demo", "counts.csv"), new ExpressionReadOptions { KeepGene = resolver.Knows });
+        var meta = CellMetadataReader.Read(Path.Combine(dir, "demo", "metadata.csv"), new CellMetadataOptions { GroupColumns = ["group"] });
+        var labels = table.CellIds.Where(id => meta.Label("group", id) is not null).ToDictionary(id => id, id => meta.Label("group", id)!);
+        var groups = new CellGroups(table.CellIds, labels, "group");
+        var report = ExpressionMapping.Map(table, catalog);
+        return groups.Members.Keys.ToDictionary(g => g, g =>
+        {
+            var built = ExpressionModelBuilder.Build(table, report, catalog, new DensityRule(), ModelTarget.ForGroup(g), groups);
+            var cell = new CompiledCell(TestCatalog.Catalog.BuildCell(built.Document));
+            return (cell, Features.Measure(cell, ReadoutSettings.Batch));
+        });
+    });
+
+    [Fact]
+    public void TheFiveGroupsFireDifferently()
+    {
+        var r = Groups.Value.ToDictionary(p => p.Key, p => p.Value.Readouts);
+        Assert.Equal(5, r.Count);
+        Assert.True(r["T5-pacing"].FiresAtRest);
+        Assert.All(r.Where(p => p.Key != "T5-pacing"), p => Assert.False(p.Value.FiresAtRest, p.Key));
+        var quiet = r.Where(p => p.Key != "T5-pacing").ToDictionary(p => p.Key, p => p.Value);
+        Assert.Equal("T4-low-threshold", quiet.MinBy(p => p.Value.RheobaseUaPerCm2!.Value).Key);
+        Assert.Equal("T2-adapting", quiet.MaxBy(p => p.Value.AdaptationIndex ?? double.MinValue).Key);
+        Assert.True(quiet["T3-bursting"].AdaptationRatio < 1, "bursting-prone group: intervals shorten within the train");
+        Assert.True(quiet["T1-fast"].HalfWidthMs < quiet["T2-adapting"].HalfWidthMs, "fast group: narrower spikes");
+    }
+
+    [Fact]
+    public void SimdSweepMatchesScalarLoopOnEveryDemoModel()
+    {
+        foreach (var (group, (cell, readouts)) in Groups.Value)
+        {
+            double top = 3 * (readouts.RheobaseUaPerCm2 ?? 1);
+            var amps = Enumerable.Range(0, 4).Select(i => top * i / 3).ToArray();
+            IReadOnlyList<FiPoint> simd, scalar;
+            try
+            {
+                Simulator.UseSimd = true;
+                simd = FiCurve.Measure(cell, amps, 500);
+                Simulator.UseSimd = false;
+                scalar = FiCurve.Measure(cell, amps, 500);
+            }
+            finally
+            {
+                Simulator.UseSimd = true;
+            }
+            for (int i = 0; i < amps.Length; i++)
+            {
+                Assert.True(scalar[i].SpikeCount == simd[i].SpikeCount, $"{group} at {amps[i]:G3}: scalar {scalar[i].SpikeCount}, SIMD {simd[i].SpikeCount}");
+                for (int k = 0; k < scalar[i].SpikeTimesMs.Count; k++)
+                    Assert.Equal(scalar[i].SpikeTimesMs[k], simd[i].SpikeTimesMs[k], 1e-6);
+            }
+        }
+    }
+}
