@@ -60,7 +60,7 @@ public sealed class ExpressionFlowTests(AppFixture app)
         await page.Locator("[data-testid=to-map]").ClickAsync();
         await page.Locator("[data-testid=build]").ClickAsync();
         await page.Locator("[data-testid=compare-on-workbench]").ClickAsync();
-        await page.WaitForFunctionAsync("() => document.querySelectorAll('[data-testid=readouts] thead th').length >= 6", null, new() { Timeout = 120_000 });
+        await page.WaitForFunctionAsync("() => document.querySelectorAll('[data-testid=readouts] thead th').length >= 7", null, new() { Timeout = 120_000 });
         await page.WaitForTimeoutAsync(1500);
         await app.ScreenshotAsync(page, "workbench-compare-groups");
         Assert.Empty(errors);
