@@ -77,6 +77,7 @@ public sealed class WorkbenchTests(AppFixture app)
         var (fresh, page2, errors2) = await app.NewPageAsync();
         await page2.GotoAsync(link);
         await page2.WaitForSelectorAsync("[data-testid=reproduced]");
+        await page2.WaitForSelectorAsync("[data-testid=plot-shared-voltage] .main-svg .scatterlayer .trace");
         await app.ScreenshotAsync(page2, "shared-model");
         Assert.Contains("matches the saved values exactly", await page2.Locator("[data-testid=reproduced]").InnerTextAsync());
         Assert.Equal(shown, await ReadoutValues(page2, "re-run now"));
