@@ -72,11 +72,24 @@ public sealed class ModelRunner(ChannelCatalog catalog, SimulationGate gate)
         return gate.RunAsync(token => Fi(cell, fi, token), cancel);
     }
 
-    public Task<ReadoutSet> ReadoutsAsync(ModelDocument doc, CancellationToken cancel)
+    /// <summary>
+    /// Read-outs of a model. Results are kept for the last <see cref="CacheSize"/> distinct models (keyed by the model
+    /// file's exact text, so any change is a new key): returning to an earlier slider position or to 100% is immediate.
+    /// </summary>
+    /// <remarks>Only the Workbench's live loop uses the cache; the API and the shared-model check always measure afresh.</remarks>
+    public async Task<ReadoutSet> ReadoutsAsync(ModelDocument doc, CancellationToken cancel, bool useCache = false)
     {
         var cell = Compile(doc);
-        return gate.RunAsync(token => Readouts(cell, token), cancel);
+        var key = doc.ToJson();
+        if (useCache && _cache.TryGetValue(key, out var hit)) return hit;
+        var set = await gate.RunAsync(token => Readouts(cell, token), cancel);
+        if (_cache.Count >= CacheSize) _cache.Clear();
+        _cache[key] = set;
+        return set;
     }
+
+    public const int CacheSize = 512;
+    private readonly System.Collections.Concurrent.ConcurrentDictionary<string, ReadoutSet> _cache = new(StringComparer.Ordinal);
 
     /// <summary>The trace of one step with channel currents, shaped for the plots.</summary>
     public static StepView Step(CompiledCell cell, StepProtocol step, CancellationToken cancel)
@@ -105,7 +118,10 @@ public sealed class ModelRunner(ChannelCatalog catalog, SimulationGate gate)
         try
         {
             var r = Features.Measure(cell, null, cancel);
-            return new ReadoutSet(r.Rows().Select(x => new ReadoutRow(x.Name, x.Unit, x.Value)).ToArray(), r.Notes);
+            return new ReadoutSet(r.Rows().Select(x => new ReadoutRow(x.Name, x.Unit, x.Value)).ToArray(), r.Notes)
+            {
+                Fi = r.FiCurve.Select(p => new FiRow(p.CurrentUaPerCm2, p.SpikeCount, p.WholeStepRateHz, p.FirstIsiRateHz, p.LateRateHz)).ToArray(),
+            };
         }
         catch (SimulationBlowUpException e)
         {

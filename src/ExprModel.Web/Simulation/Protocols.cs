@@ -42,6 +42,9 @@ public sealed record ReadoutRow(string Name, string Unit, double? Value);
 /// <summary>All read-outs of one model with the extractor's notes (why a read-out is missing, for example).</summary>
 public sealed record ReadoutSet(IReadOnlyList<ReadoutRow> Rows, IReadOnlyList<string> Notes)
 {
+    /// <summary>The f-I curve the read-outs were measured on (the library's standard sweep, 0 to 3x rheobase).</summary>
+    public IReadOnlyList<FiRow> Fi { get; init; } = [];
+
     public double? Value(string name) => Rows.FirstOrDefault(r => r.Name == name)?.Value;
 }
 
