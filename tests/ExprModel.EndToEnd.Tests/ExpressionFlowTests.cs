@@ -13,7 +13,8 @@ public sealed class ExpressionFlowTests(AppFixture app)
         await app.GotoAsync(page, "/load");
         await page.Locator("[data-testid=use-demo]").ClickAsync();
         await page.WaitForSelectorAsync("[data-testid=preview]");
-        Assert.Contains("gene,", await page.Locator("[data-testid=preview]").InnerTextAsync());
+        Assert.Contains("FH1001", await page.Locator("[data-testid=preview] tr.head").InnerTextAsync());
+        Assert.Contains("Scn1a", await page.Locator("[data-testid=preview]").InnerTextAsync());
         Assert.Equal("group", await page.Locator("[data-testid=group-column]").InputValueAsync());
         await app.ScreenshotAsync(page, "load-demo");
 
