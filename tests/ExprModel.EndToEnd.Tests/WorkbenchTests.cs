@@ -99,3 +99,60 @@ public sealed class WorkbenchTests(AppFixture app)
         await fresh.CloseAsync();
     }
 }
+
+/// <summary>Exports carry the research-use caution; an exported model imports back to the same read-outs.</summary>
+[Collection("app")]
+public sealed class ExportTests(AppFixture app)
+{
+    private static async Task<string> DownloadText(IPage page, string selector)
+    {
+        var download = await page.RunAndWaitForDownloadAsync(() => page.Locator(selector).ClickAsync());
+        var path = await download.PathAsync();
+        return await File.ReadAllTextAsync(path!);
+    }
+
+    [Fact]
+    public async Task Csv_and_json_exports_carry_the_caution_and_the_model_imports_back()
+    {
+        var (context, page, errors) = await app.NewPageAsync();
+        await app.GotoAsync(page, "/workbench?preset=hh1952");
+        await WorkbenchTests.WaitForUpdateAfter(page, 0);
+        var shown = await WorkbenchTests.ReadoutValues(page);
+
+        var csv = await DownloadText(page, "text=read-outs CSV");
+        Assert.StartsWith("# Research tool.", csv);
+        Assert.Contains("\nreadout,unit,now\n", csv);
+        Assert.Contains("\nrheobase,uA/cm2,", csv);
+
+        var trace = await DownloadText(page, "text=trace CSV");
+        Assert.StartsWith("# Research tool.", trace);
+        Assert.Contains("time_ms,voltage_mv,stimulus_ua_per_cm2", trace);
+
+        var json = await DownloadText(page, "[data-testid=export-model]");
+        Assert.Contains("\"caution\": \"Research tool.", json);
+        Assert.Contains("\"version\": 1", json);
+
+        // Import the exported file into a fresh page: same read-outs.
+        var file = Path.Combine(app.WorkDir, "exported.model.json");
+        await File.WriteAllTextAsync(file, json);
+        var (fresh, page2, errors2) = await app.NewPageAsync();
+        await app.GotoAsync(page2, "/workbench?preset=wb1996");
+        await WorkbenchTests.WaitForUpdateAfter(page2, 0);
+        int count = await WorkbenchTests.UpdateCount(page2);
+        await page2.Locator("[data-testid=import-model]").SetInputFilesAsync(file);
+        await WorkbenchTests.WaitForUpdateAfter(page2, count);
+        await page2.WaitForFunctionAsync("() => document.querySelector('[data-testid=model-name]').innerText.includes('imported')");
+        Assert.Equal(shown, await WorkbenchTests.ReadoutValues(page2));
+
+        // A broken model file is refused with its line and position.
+        var broken = Path.Combine(app.WorkDir, "broken.model.json");
+        await File.WriteAllTextAsync(broken, "{ \"format\": \"exprmodel-model\", \"schemaVersion\": 1, \"cell\": ");
+        await page2.Locator("[data-testid=import-model]").SetInputFilesAsync(broken);
+        var error = await page2.WaitForSelectorAsync("[data-testid=error]");
+        Assert.Contains("broken.model.json", await error!.InnerTextAsync());
+        Assert.Empty(errors);
+        Assert.Empty(errors2);
+        await context.CloseAsync();
+        await fresh.CloseAsync();
+    }
+}
