@@ -40,7 +40,10 @@ public sealed class BuildApiTests(AppFactory factory) : ApiTestBase(factory)
         var gene = densities.SelectMany(d => d.GetProperty("genes").EnumerateArray()).First().GetProperty("gene").GetString()!;
         var without = await Json(await Client.PostAsJsonAsync("/api/build", new
         {
-            expression = Demo("counts.csv"), metadata = Demo("metadata.csv"), groupBy = "group", group = "T1-fast",
+            expression = Demo("counts.csv"),
+            metadata = Demo("metadata.csv"),
+            groupBy = "group",
+            group = "T1-fast",
             overrides = new[] { new { gene, exclude = true } },
         }));
         Assert.NotEqual(plain.GetProperty("model").GetProperty("channels").GetRawText(), without.GetProperty("model").GetProperty("channels").GetRawText());
