@@ -39,8 +39,7 @@ internal static unsafe class SweepKernel
         var stim = new double[steps * Width];
         for (int s = 0; s < steps; s++)
             for (int l = 0; l < Width; l++) stim[s * Width + l] = l < lanes ? stimuli[l][s] : stimuli[0][s];
-        var flat = table.Flat;
-        int stride = 2 * table.Points;
+        var tablePointers = table.Pointers();
         var x = new Vector256<double>[gates];
         for (int g = 0; g < gates; g++) x[g] = Vector256.Create(init.Gates[g]);
         var gbar = cell.Gbar.Select(Vector256.Create).ToArray();
@@ -96,8 +95,10 @@ internal static unsafe class SweepKernel
         Array.Fill(pending, double.NaN);
         Array.Fill(lastCross, double.NegativeInfinity);
         bool anyPending = false;
+        double? stopAfter = settings.StopAtFirstSpikeAfterMs;
+        var doneLane = new bool[Width];
+        int lanesDone = 0;
 
-        fixed (double* T = flat)
         fixed (double* S = stim)
         {
             for (int s = 0; s < steps; s++)
@@ -138,7 +139,7 @@ internal static unsafe class SweepKernel
                         x[g] = Fma.MultiplyAdd(x[g] - inf, caDecay[g], inf);
                         continue;
                     }
-                    double* baseP = T + (long)g * stride;
+                    double* baseP = tablePointers[g];
                     if (instant[g])
                     {
                         var d0 = Avx2.GatherVector256(baseP + 1, idxMid, 8);
@@ -212,7 +213,12 @@ internal static unsafe class SweepKernel
                         double vl = v[l], vp = vPrev[l];
                         if (!double.IsNaN(pending[l]))
                         {
-                            if (vl < levelMv) { spikes[l].Add(pending[l]); pending[l] = double.NaN; }
+                            if (vl < levelMv)
+                            {
+                                spikes[l].Add(pending[l]);
+                                if (stopAfter is { } after && pending[l] >= after && !doneLane[l]) { doneLane[l] = true; lanesDone++; }
+                                pending[l] = double.NaN;
+                            }
                             else if (t - pending[l] > maxWidth) pending[l] = double.NaN;
                         }
                         // Armed at an upward crossing iff the previous sample was below the level at least one
@@ -224,6 +230,7 @@ internal static unsafe class SweepKernel
                         }
                         if (!double.IsNaN(pending[l])) anyPending = true;
                     }
+                    if (lanesDone == lanes) break;
                 }
             }
         }
