@@ -86,6 +86,7 @@ public static class Simulator
     /// <summary>The hot loop for one stimulus. Flat arrays, no allocation per step.</summary>
     private static class Lane
     {
+        [MethodImpl(MethodImplOptions.AggressiveOptimization)]
         public static Trace Run(CompiledCell cell, RateTable table, double[] stim, int steps, SimulationSettings settings, CellState init, CancellationToken cancel)
         {
             int gateCount = cell.GateCount, channelCount = cell.ChannelCount;
