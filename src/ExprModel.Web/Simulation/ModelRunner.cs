@@ -1,0 +1,115 @@
+using ExprModel.Core.Analysis;
+using ExprModel.Core.Models;
+using ExprModel.Core.Simulation;
+using ExprModel.Data.Catalog;
+
+namespace ExprModel.Web.Simulation;
+
+/// <summary>A model or protocol the user must fix, with the field at fault (shown as a 400 ProblemDetails or a page message).</summary>
+public sealed class UserInputException(string message) : Exception(message);
+
+/// <summary>
+/// What the pages and the HTTP API run: a model document and a protocol in, plot-ready views out. All science is the
+/// library's (<see cref="Simulator"/>, the read-out and f-I facades); this class only compiles, bounds and shapes.
+/// </summary>
+public sealed class ModelRunner(ChannelCatalog catalog, SimulationGate gate)
+{
+    /// <summary>Samples kept per plotted voltage trace (min/max per bucket, so spike peaks survive).</summary>
+    public const int PlotBuckets = 1500;
+
+    public ChannelCatalog Catalog => catalog;
+
+    /// <summary>Resolves the document's entries and compiles the cell; user errors come back as <see cref="UserInputException"/>.</summary>
+    public CompiledCell Compile(ModelDocument doc)
+    {
+        try
+        {
+            return new CompiledCell(doc.ToCellModel(catalog.Resolve));
+        }
+        catch (Exception e) when (e is CatalogException or ModelFileException or ModelException or ArgumentException)
+        {
+            throw new UserInputException(e.Message);
+        }
+    }
+
+    /// <summary>Parses a model file's text, naming <paramref name="where"/> in errors.</summary>
+    public static ModelDocument Parse(string json, string where)
+    {
+        try
+        {
+            return ModelDocument.Parse(json, where);
+        }
+        catch (ModelFileException e)
+        {
+            throw new UserInputException(e.Message);
+        }
+    }
+
+    /// <summary>The document with every entry pinned to the catalog version it resolves to today.</summary>
+    public ModelDocument Pin(ModelDocument doc)
+    {
+        try
+        {
+            return doc.Pinned(catalog.Resolve);
+        }
+        catch (CatalogException e)
+        {
+            throw new UserInputException(e.Message);
+        }
+    }
+
+    public Task<StepView> StepAsync(ModelDocument doc, StepProtocol step, CancellationToken cancel)
+    {
+        if (step.Problem() is { } p) throw new UserInputException(p);
+        var cell = Compile(doc);
+        return gate.RunAsync(token => Step(cell, step, token), cancel);
+    }
+
+    public Task<IReadOnlyList<FiRow>> FiAsync(ModelDocument doc, FiProtocol fi, CancellationToken cancel)
+    {
+        if (fi.Problem() is { } p) throw new UserInputException(p);
+        var cell = Compile(doc);
+        return gate.RunAsync(token => Fi(cell, fi, token), cancel);
+    }
+
+    public Task<ReadoutSet> ReadoutsAsync(ModelDocument doc, CancellationToken cancel)
+    {
+        var cell = Compile(doc);
+        return gate.RunAsync(token => Readouts(cell, token), cancel);
+    }
+
+    /// <summary>The trace of one step with channel currents, shaped for the plots.</summary>
+    public static StepView Step(CompiledCell cell, StepProtocol step, CancellationToken cancel)
+    {
+        var stimulus = new StepCurrent(step.DelayMs, step.StepMs, step.AmplitudeUaPerCm2);
+        var settings = SimulationSettings.Default with { RecordEvery = 1, RecordCurrents = true };
+        Trace trace;
+        try
+        {
+            trace = Simulator.Run(cell, stimulus, step.TotalMs, settings, null, cancel);
+        }
+        catch (SimulationBlowUpException e)
+        {
+            throw new UserInputException(e.Message);
+        }
+        return StepView.From(trace, step);
+    }
+
+    public static IReadOnlyList<FiRow> Fi(CompiledCell cell, FiProtocol fi, CancellationToken cancel) =>
+        FiCurve.Measure(cell, fi.FromUaPerCm2, fi.ToUaPerCm2, fi.Steps, fi.DurationMs, null, null, cancel)
+            .Select(p => new FiRow(p.CurrentUaPerCm2, p.SpikeCount, p.WholeStepRateHz, p.FirstIsiRateHz, p.LateRateHz)).ToArray();
+
+    /// <summary>Every read-out of the library's one feature extractor, as table rows.</summary>
+    public static ReadoutSet Readouts(CompiledCell cell, CancellationToken cancel)
+    {
+        try
+        {
+            var r = Features.Measure(cell, null, cancel);
+            return new ReadoutSet(r.Rows().Select(x => new ReadoutRow(x.Name, x.Unit, x.Value)).ToArray(), r.Notes);
+        }
+        catch (SimulationBlowUpException e)
+        {
+            throw new UserInputException(e.Message);
+        }
+    }
+}

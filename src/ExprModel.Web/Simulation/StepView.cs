@@ -1,0 +1,108 @@
+using ExprModel.Core.Simulation;
+
+namespace ExprModel.Web.Simulation;
+
+/// <summary>
+/// One step's trace shaped for the browser: a voltage trace thinned to <see cref="ModelRunner.PlotBuckets"/> buckets
+/// (each keeps its lowest and highest sample, so spike peaks and troughs survive), the phase-plane points (dV/dt by
+/// central differences of the recorded samples, thinned where the membrane is quiet), and each channel's current in a
+/// window around the first spike.
+/// </summary>
+public sealed record StepView
+{
+    public required StepProtocol Protocol { get; init; }
+    public required double[] TimeMs { get; init; }
+    public required double[] VoltageMv { get; init; }
+    public required double[] PhaseVoltageMv { get; init; }
+    public required double[] PhaseSlopeMvPerMs { get; init; }
+    public required IReadOnlyList<double> SpikeTimesMs { get; init; }
+    /// <summary>Time relative to the first spike (ms), empty when there is no spike.</summary>
+    public required double[] SpikeWindowMs { get; init; }
+    /// <summary>Per channel label, its current density (uA/cm2, outward positive) over <see cref="SpikeWindowMs"/>.</summary>
+    public required IReadOnlyDictionary<string, double[]> SpikeWindowCurrents { get; init; }
+    /// <summary>Full-resolution samples for CSV export (time, V, stimulus).</summary>
+    public required double[] FullTimeMs { get; init; }
+    public required double[] FullVoltageMv { get; init; }
+    public required double[] FullStimulusUaPerCm2 { get; init; }
+
+    public const double WindowBeforeMs = 3, WindowAfterMs = 8;
+
+    public static StepView From(Trace trace, StepProtocol step)
+    {
+        var t = trace.TimeMs;
+        var v = trace.VoltageMv;
+        var (tt, vv) = Thin(t, v, ModelRunner.PlotBuckets);
+        var (pv, ps) = Phase(t, v);
+        double[] window = [];
+        var currents = new Dictionary<string, double[]>();
+        if (trace.SpikeTimesMs.Count > 0)
+        {
+            double s = trace.SpikeTimesMs[0];
+            int from = Math.Max(0, Index(t, s - WindowBeforeMs)), to = Math.Min(t.Length - 1, Index(t, s + WindowAfterMs));
+            // Every second sample (50 us) is plenty for the plot and halves what goes to the browser.
+            var idx = Enumerable.Range(from, to - from + 1).Where(k => (k - from) % 2 == 0).ToArray();
+            window = idx.Select(k => t[k] - s).ToArray();
+            foreach (var (name, i) in trace.ChannelCurrentsUaPerCm2) currents[name] = idx.Select(k => i[k]).ToArray();
+        }
+        return new StepView
+        {
+            Protocol = step,
+            TimeMs = tt,
+            VoltageMv = vv,
+            PhaseVoltageMv = pv,
+            PhaseSlopeMvPerMs = ps,
+            SpikeTimesMs = trace.SpikeTimesMs,
+            SpikeWindowMs = window,
+            SpikeWindowCurrents = currents,
+            FullTimeMs = t,
+            FullVoltageMv = v,
+            FullStimulusUaPerCm2 = trace.StimulusUaPerCm2,
+        };
+    }
+
+    private static int Index(double[] t, double time)
+    {
+        int i = Array.BinarySearch(t, time);
+        return i >= 0 ? i : ~i;
+    }
+
+    /// <summary>Keeps each bucket's first extreme then its other extreme, in time order.</summary>
+    internal static (double[] T, double[] V) Thin(double[] t, double[] v, int buckets)
+    {
+        if (t.Length <= 2 * buckets) return (t, v);
+        var tl = new List<double>(2 * buckets + 1);
+        var vl = new List<double>(2 * buckets + 1);
+        double per = (double)t.Length / buckets;
+        for (int b = 0; b < buckets; b++)
+        {
+            int lo = (int)(b * per), hi = Math.Min(t.Length, (int)((b + 1) * per));
+            if (hi <= lo) continue;
+            int iMin = lo, iMax = lo;
+            for (int i = lo; i < hi; i++)
+            {
+                if (v[i] < v[iMin]) iMin = i;
+                if (v[i] > v[iMax]) iMax = i;
+            }
+            int first = Math.Min(iMin, iMax), second = Math.Max(iMin, iMax);
+            tl.Add(t[first]); vl.Add(v[first]);
+            if (second != first) { tl.Add(t[second]); vl.Add(v[second]); }
+        }
+        tl.Add(t[^1]); vl.Add(v[^1]);
+        return (tl.ToArray(), vl.ToArray());
+    }
+
+    /// <summary>dV/dt against V; quiet stretches (|dV/dt| under 1 mV/ms) keep one sample in 20, the rest one in 2.</summary>
+    internal static (double[] V, double[] Slope) Phase(double[] t, double[] v)
+    {
+        var pv = new List<double>();
+        var ps = new List<double>();
+        for (int i = 1; i < v.Length - 1; i++)
+        {
+            double slope = (v[i + 1] - v[i - 1]) / (t[i + 1] - t[i - 1]);
+            if (Math.Abs(slope) < 1 ? i % 20 != 0 : i % 2 != 0) continue;
+            pv.Add(v[i]);
+            ps.Add(slope);
+        }
+        return (pv.ToArray(), ps.ToArray());
+    }
+}

@@ -1,0 +1,73 @@
+using System.Text.Json;
+using ExprModel.Core.Models;
+using ExprModel.Data.Store;
+using ExprModel.Web.Simulation;
+
+namespace ExprModel.Web.Workspace;
+
+/// <summary>The protocol a snapshot's read-outs were taken with.</summary>
+public sealed record SnapshotProtocol
+{
+    public StepProtocol Step { get; init; } = new();
+    public FiProtocol Fi { get; init; } = new();
+}
+
+/// <summary>A stored snapshot opened again: its model, and its read-outs as saved and as re-run now.</summary>
+public sealed record OpenedSnapshot(Snapshot Stored, ModelDocument Model, SnapshotProtocol Protocol,
+    IReadOnlyList<ReadoutRow> SavedReadouts, IReadOnlyList<ReadoutRow> RerunReadouts)
+{
+    /// <summary>True when the re-run reproduces every saved read-out exactly (same bits).</summary>
+    public bool Reproduced => SavedReadouts.Count == RerunReadouts.Count &&
+        SavedReadouts.Zip(RerunReadouts).All(p => p.First.Name == p.Second.Name && Same(p.First.Value, p.Second.Value));
+
+    private static bool Same(double? a, double? b) =>
+        a is null ? b is null : b is not null && (a.Value.Equals(b.Value) || (double.IsNaN(a.Value) && double.IsNaN(b.Value)));
+}
+
+/// <summary>Saves and opens shared snapshots: pins the model, takes its read-outs, and writes it in one transaction.</summary>
+public sealed class SnapshotService(SnapshotStore store, ModelRunner runner)
+{
+    public static readonly JsonSerializerOptions Json = new(JsonSerializerDefaults.Web) { NumberHandling = System.Text.Json.Serialization.JsonNumberHandling.AllowNamedFloatingPointLiterals };
+
+    public SnapshotStore Store => store;
+
+    public async Task<(Snapshot Snapshot, ReadoutSet Readouts)> SaveAsync(ModelDocument model, SnapshotProtocol protocol, string notes,
+        string? parentId, byte[]? expression, string? expressionName, CancellationToken cancel)
+    {
+        if (parentId is not null && store.Find(parentId) is null) throw new UserInputException($"parentId: no shared model '{parentId}' exists.");
+        var pinned = runner.Pin(model) with { Caution = ResearchCaution.Text };
+        var readouts = await runner.ReadoutsAsync(pinned, cancel);
+        var versions = pinned.Channels.Select(c => $"{c.Entry}@{c.Version}").Distinct().Order(StringComparer.Ordinal).ToArray();
+        try
+        {
+            var snap = store.Save(new NewSnapshot
+            {
+                ParentId = parentId,
+                ModelJson = pinned.ToJson(),
+                CatalogVersions = versions,
+                ProtocolJson = JsonSerializer.Serialize(protocol, Json),
+                ReadoutsJson = JsonSerializer.Serialize(readouts.Rows, Json),
+                Notes = notes,
+                Expression = expression,
+                ExpressionName = expressionName,
+            });
+            return (snap, readouts);
+        }
+        catch (SnapshotException e)
+        {
+            throw new UserInputException(e.Message);
+        }
+    }
+
+    /// <summary>Opens a snapshot and re-runs its read-outs; null when there is no such snapshot.</summary>
+    public async Task<OpenedSnapshot?> OpenAsync(string id, CancellationToken cancel)
+    {
+        var snap = store.Find(id);
+        if (snap is null) return null;
+        var model = ModelRunner.Parse(snap.ModelJson, $"snapshot {id}");
+        var protocol = JsonSerializer.Deserialize<SnapshotProtocol>(snap.ProtocolJson, Json) ?? new SnapshotProtocol();
+        var saved = JsonSerializer.Deserialize<List<ReadoutRow>>(snap.ReadoutsJson, Json) ?? [];
+        var rerun = await runner.ReadoutsAsync(model, cancel);
+        return new OpenedSnapshot(snap, model, protocol, saved, rerun.Rows);
+    }
+}

@@ -1,0 +1,59 @@
+using ExprModel.Core.Models;
+
+namespace ExprModel.Web.Workspace;
+
+/// <summary>One user's work in progress in this browser tab (a Blazor circuit): the loaded table, built models, the Workbench model.</summary>
+public sealed class WorkspaceState
+{
+    /// <summary>The model open on the Workbench, and where it came from ("preset hh1952", "group Pv-fast", "shared model ...").</summary>
+    public ModelDocument? Model { get; private set; }
+    public string ModelOrigin { get; private set; } = "";
+    /// <summary>The shared snapshot the Workbench model was opened from; saving an edit records it as the parent.</summary>
+    public string? ParentSnapshotId { get; private set; }
+
+    /// <summary>The uploaded expression table as received (kept only in this tab unless the user stores it with a snapshot).</summary>
+    public byte[]? ExpressionBytes { get; set; }
+    public string? ExpressionName { get; set; }
+    public byte[]? MetadataBytes { get; set; }
+    public string? MetadataName { get; set; }
+
+    /// <summary>Models built from the expression table, by group (or cell) name, for the Workbench's comparison overlay.</summary>
+    public Dictionary<string, ModelDocument> GroupModels { get; } = new(StringComparer.Ordinal);
+
+    /// <summary>The user's answers on the Load page (blank = detect).</summary>
+    public IntakeChoices Intake { get; } = new();
+
+    /// <summary>The table as read and mapped (null until the Map page reads it), the user's overrides and rule.</summary>
+    public ExpressionSession? Session { get; set; }
+    public List<ExprModel.Core.Mapping.GeneOverride> Overrides { get; } = [];
+    public ExprModel.Core.Mapping.DensityRule Rule { get; set; } = new();
+    /// <summary>Built models with their derivations and warnings, by target label.</summary>
+    public Dictionary<string, ExprModel.Core.Mapping.BuiltModel> Built { get; } = new(StringComparer.Ordinal);
+
+    /// <summary>Forgets everything derived from the loaded table (a new table or new read choices).</summary>
+    public void ResetDerived()
+    {
+        Session = null;
+        Overrides.Clear();
+        Built.Clear();
+        GroupModels.Clear();
+    }
+
+    public event Action? Changed;
+
+    public void Open(ModelDocument model, string origin, string? parentSnapshotId = null)
+    {
+        Model = model;
+        ModelOrigin = origin;
+        ParentSnapshotId = parentSnapshotId;
+        Changed?.Invoke();
+    }
+}
+
+/// <summary>Orientation, unit and grouping as confirmed on the Load page; empty strings mean "detect" or "none".</summary>
+public sealed class IntakeChoices
+{
+    public string Orientation { get; set; } = "";
+    public string Unit { get; set; } = "";
+    public string GroupColumn { get; set; } = "";
+}

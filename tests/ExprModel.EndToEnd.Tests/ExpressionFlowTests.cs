@@ -1,0 +1,98 @@
+using Microsoft.Playwright;
+
+namespace ExprModel.EndToEnd.Tests;
+
+/// <summary>From the demo survey to a group's model on the Workbench; a bad file is reported where it was loaded.</summary>
+[Collection("app")]
+public sealed class ExpressionFlowTests(AppFixture app)
+{
+    [Fact]
+    public async Task Demo_to_a_groups_model_whose_readouts_follow_a_slider()
+    {
+        var (context, page, errors) = await app.NewPageAsync();
+        await app.GotoAsync(page, "/load");
+        await page.Locator("[data-testid=use-demo]").ClickAsync();
+        await page.WaitForSelectorAsync("[data-testid=preview]");
+        Assert.Contains("gene,", await page.Locator("[data-testid=preview]").InnerTextAsync());
+        Assert.Equal("group", await page.Locator("[data-testid=group-column]").InputValueAsync());
+        await app.ScreenshotAsync(page, "load-demo");
+
+        await page.Locator("[data-testid=to-map]").ClickAsync();
+        await page.WaitForSelectorAsync("[data-testid=mapping-table]");
+        Assert.Contains("240 cells", await page.Locator("[data-testid=table-summary]").InnerTextAsync());
+        Assert.True(await page.Locator("[data-testid=mapping-table] tbody tr").CountAsync() > 5);
+        Assert.True(await page.Locator("[data-testid=unmapped-table] tbody tr").CountAsync() > 0);
+
+        // An override: exclude one gene; the page notes it.
+        var firstGene = await page.Locator("[data-testid=mapping-table] tbody tr").First.GetAttributeAsync("data-gene");
+        await page.Locator($"[data-testid=exclude-{firstGene}]").CheckAsync();
+        await page.WaitForSelectorAsync($"tr.excluded[data-gene={firstGene}]");
+        await page.Locator($"[data-testid=exclude-{firstGene}]").UncheckAsync();
+        await page.WaitForSelectorAsync($"tr[data-gene={firstGene}]:not(.excluded)");
+
+        await page.Locator("[data-testid=build]").ClickAsync();
+        await page.WaitForSelectorAsync("[data-testid=built] tr[data-built=T1-fast]");
+        Assert.Equal(5, await page.Locator("[data-testid=built] tbody tr").CountAsync());
+        await app.ScreenshotAsync(page, "map-built");
+
+        await page.Locator("[data-testid=open-T1-fast]").ClickAsync();
+        await WorkbenchTests.WaitForUpdateAfter(page, 0);
+        Assert.Contains("T1-fast", await page.Locator("[data-testid=model-name]").InnerTextAsync());
+        var before = await WorkbenchTests.ReadoutValues(page);
+        int count = await WorkbenchTests.UpdateCount(page);
+        var slider = page.Locator(".density-slider input[type=range]").First;
+        await slider.FillAsync("300");
+        await WorkbenchTests.WaitForUpdateAfter(page, count);
+        Assert.NotEqual(before, await WorkbenchTests.ReadoutValues(page));
+        await page.WaitForTimeoutAsync(1500);
+        await app.ScreenshotAsync(page, "workbench-group");
+        Assert.Empty(errors);
+        await context.CloseAsync();
+    }
+
+    [Fact]
+    public async Task Groups_can_be_compared_on_the_workbench()
+    {
+        var (context, page, errors) = await app.NewPageAsync();
+        page.SetDefaultTimeout(120_000);
+        await app.GotoAsync(page, "/load");
+        await page.Locator("[data-testid=use-demo]").ClickAsync();
+        await page.Locator("[data-testid=to-map]").ClickAsync();
+        await page.Locator("[data-testid=build]").ClickAsync();
+        await page.Locator("[data-testid=compare-on-workbench]").ClickAsync();
+        await page.WaitForFunctionAsync("() => document.querySelectorAll('[data-testid=readouts] thead th').length >= 7", null, new() { Timeout = 120_000 });
+        await page.WaitForTimeoutAsync(1500);
+        await app.ScreenshotAsync(page, "workbench-compare-groups");
+        Assert.Empty(errors);
+        await context.CloseAsync();
+    }
+
+    [Fact]
+    public async Task A_bad_file_shows_where_it_is_wrong()
+    {
+        var (context, page, errors) = await app.NewPageAsync();
+        await app.GotoAsync(page, "/load");
+        await page.Locator("[data-testid=upload-expression]").SetInputFilesAsync(Path.Combine(AppContext.BaseDirectory, "data", "ragged.csv"));
+        await page.WaitForSelectorAsync("[data-testid=preview]");
+        await page.Locator("[data-testid=to-map]").ClickAsync();
+        var error = await page.WaitForSelectorAsync("[data-testid=error]");
+        var text = await error!.InnerTextAsync();
+        Assert.Contains("ragged.csv", text);
+        Assert.Contains("line 3", text);
+        await app.ScreenshotAsync(page, "load-bad-file");
+
+        // Binary garbage is refused at once, before any reading.
+        var garbage = Path.Combine(app.WorkDir, "garbage.csv");
+        await File.WriteAllBytesAsync(garbage, [0x50, 0x4b, 0x03, 0x04, 0x00, 0x00, 0xff, 0xfe]);
+        await page.Locator("[data-testid=upload-expression]").SetInputFilesAsync(garbage);
+        await page.WaitForFunctionAsync("() => document.querySelector('[data-testid=error]')?.innerText.includes('NUL')");
+
+        // Over the upload limit (1 MB in the test configuration).
+        var big = Path.Combine(app.WorkDir, "big.csv");
+        await File.WriteAllTextAsync(big, "gene,c1\n" + string.Concat(Enumerable.Range(0, 120_000).Select(i => $"G{i},{i}\n")));
+        await page.Locator("[data-testid=upload-expression]").SetInputFilesAsync(big);
+        await page.WaitForFunctionAsync("() => document.querySelector('[data-testid=error]')?.innerText.includes('upload limit')");
+        Assert.Empty(errors);
+        await context.CloseAsync();
+    }
+}

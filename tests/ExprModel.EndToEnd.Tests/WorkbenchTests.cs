@@ -1,0 +1,101 @@
+using Microsoft.Playwright;
+
+namespace ExprModel.EndToEnd.Tests;
+
+/// <summary>The Workbench from a published model: sliders move read-outs; sharing gives a link that reproduces them elsewhere.</summary>
+[Collection("app")]
+public sealed class WorkbenchTests(AppFixture app)
+{
+    internal static async Task<int> UpdateCount(IPage page) =>
+        int.Parse(await page.Locator("[data-testid=readouts]").GetAttributeAsync("data-update") ?? "0");
+
+    internal static async Task WaitForUpdateAfter(IPage page, int before) =>
+        await page.WaitForFunctionAsync($"() => Number(document.querySelector('[data-testid=readouts]')?.dataset.update ?? 0) > {before}");
+
+    internal static async Task<Dictionary<string, string>> ReadoutValues(IPage page, string column = "now")
+    {
+        var headers = await page.Locator("[data-testid=readouts] thead th").AllInnerTextsAsync();
+        int col = headers.ToList().IndexOf(column);
+        var result = new Dictionary<string, string>();
+        foreach (var row in await page.Locator("[data-testid=readouts] tbody tr").AllAsync())
+        {
+            var cells = await row.Locator("td").AllInnerTextsAsync();
+            result[cells[0]] = cells[col];
+        }
+        return result;
+    }
+
+    [Fact]
+    public async Task Moving_a_density_slider_changes_the_readouts()
+    {
+        var (context, page, errors) = await app.NewPageAsync();
+        await app.GotoAsync(page, "/workbench?preset=wb1996");
+        await WaitForUpdateAfter(page, 0);
+        await page.WaitForSelectorAsync("[data-testid=plot-fi] .main-svg");
+        await page.WaitForTimeoutAsync(1500);
+        await app.ScreenshotAsync(page, "workbench-preset");
+        var before = await ReadoutValues(page);
+        Assert.NotEmpty(before);
+
+        int count = await UpdateCount(page);
+        // Potassium delayed rectifier down to a few percent: the cell fires differently.
+        await page.Locator("[data-testid=slider-wb-k-1996] input[type=range]").FillAsync("250");
+        await WaitForUpdateAfter(page, count);
+        var after = await ReadoutValues(page);
+        Assert.NotEqual(before, after);
+        Assert.Contains("%", await page.Locator("[data-testid=slider-wb-k-1996] output").InnerTextAsync());
+        Assert.DoesNotContain("100%", await page.Locator("[data-testid=slider-wb-k-1996] output").InnerTextAsync());
+
+        // Reset brings the as-expressed read-outs back exactly.
+        count = await UpdateCount(page);
+        await page.Locator("[data-testid=reset-all]").ClickAsync();
+        await WaitForUpdateAfter(page, count);
+        Assert.Equal(before, await ReadoutValues(page));
+        Assert.Contains("Research use only", await page.Locator("[data-testid=caution]").InnerTextAsync());
+        Assert.Empty(errors);
+        await context.CloseAsync();
+    }
+
+    [Fact]
+    public async Task A_share_link_reproduces_the_readouts_in_a_fresh_browser()
+    {
+        var (context, page, errors) = await app.NewPageAsync();
+        await app.GotoAsync(page, "/workbench?preset=cortex-rs2008");
+        await WaitForUpdateAfter(page, 0);
+        int count = await UpdateCount(page);
+        await page.Locator("[data-testid=slider-kv7-m-yamada] input[type=range]").FillAsync("900");
+        await WaitForUpdateAfter(page, count);
+        var shown = await ReadoutValues(page);
+        await page.Locator("[data-testid=share-notes]").FillAsync("M-current raised; does adaptation grow?");
+        await page.Locator("[data-testid=share]").ClickAsync();
+        var link = await page.Locator("[data-testid=share-link]").InnerTextAsync();
+        Assert.Matches(@"/m/[A-Za-z0-9_-]{22}$", link);
+        await app.ScreenshotAsync(page, "workbench-shared");
+        await context.CloseAsync();
+
+        // A different browser context: no cookies, no circuit, nothing shared but the link.
+        var (fresh, page2, errors2) = await app.NewPageAsync();
+        await page2.GotoAsync(link);
+        await page2.WaitForSelectorAsync("[data-testid=reproduced]");
+        await page2.WaitForSelectorAsync("[data-testid=plot-shared-voltage] .main-svg .scatterlayer .trace");
+        await app.ScreenshotAsync(page2, "shared-model");
+        Assert.Contains("matches the saved values exactly", await page2.Locator("[data-testid=reproduced]").InnerTextAsync());
+        Assert.Equal(shown, await ReadoutValues(page2, "re-run now"));
+        Assert.Equal(shown, await ReadoutValues(page2, "saved"));
+        Assert.Contains("adaptation grow", await page2.Locator("[data-testid=shared-notes]").InnerTextAsync());
+        Assert.Contains("Research use only", await page2.Locator("[data-testid=caution]").InnerTextAsync());
+
+        // Editing the shared model and sharing again records the parent.
+        await page2.Locator("[data-testid=open-workbench]").ClickAsync();
+        await WaitForUpdateAfter(page2, 0);
+        Assert.Equal(shown, await ReadoutValues(page2));
+        await page2.Locator("[data-testid=share]").ClickAsync();
+        var link2 = await page2.Locator("[data-testid=share-link]").InnerTextAsync();
+        Assert.NotEqual(link, link2);
+        await page2.GotoAsync(link2);
+        await page2.WaitForSelectorAsync("[data-testid=parent-link]");
+        Assert.Empty(errors);
+        Assert.Empty(errors2);
+        await fresh.CloseAsync();
+    }
+}

@@ -1,0 +1,56 @@
+using Bunit;
+using ExprModel.Web.Components.Panels;
+using ExprModel.Web.Simulation;
+
+namespace ExprModel.Web.Tests.Components;
+
+public sealed class ReadoutPanelTests : BunitContext
+{
+    [Fact]
+    public void One_row_per_readout_and_one_column_per_variant()
+    {
+        ReadoutRow[] a = [new("rheobase", "uA/cm2", 0.16), new("excitability_class", "1 or 2", 1), new("adaptation_ratio", "last/first ISI", null)];
+        ReadoutRow[] b = [new("rheobase", "uA/cm2", 7.25), new("excitability_class", "1 or 2", 2)];
+        var cut = Render<ReadoutPanel>(p => p.Add(x => x.Columns, [new ReadoutPanel.Column("#1", "#c8553d", a), new ReadoutPanel.Column("now", "#1d2a36", b)]).Add(x => x.UpdateCount, 3));
+        Assert.Equal(["Read-out", "#1", "now", "Unit"], cut.FindAll("thead th").Select(t => t.TextContent));
+        var rows = cut.FindAll("tbody tr");
+        Assert.Equal(3, rows.Count);
+        var rheo = cut.Find("tr[data-readout=rheobase]").QuerySelectorAll("td").Select(t => t.TextContent).ToArray();
+        Assert.Equal(["rheobase", "0.16", "7.25", "uA/cm2"], rheo);
+        // Missing values (null, or absent for a variant) are a dash, never a zero.
+        var adapt = cut.Find("tr[data-readout=adaptation_ratio]").QuerySelectorAll("td").Select(t => t.TextContent).ToArray();
+        Assert.Equal("—", adapt[1]);
+        Assert.Equal("—", adapt[2]);
+        Assert.Equal("3", cut.Find("section").GetAttribute("data-update"));
+    }
+
+    [Fact]
+    public void Nothing_to_show_says_so()
+    {
+        var cut = Render<ReadoutPanel>();
+        Assert.Contains("No read-outs yet", cut.Markup);
+        Assert.Empty(cut.FindAll("table"));
+    }
+
+    [Theory]
+    [InlineData(-64.0175643, "-64.018")]
+    [InlineData(1217.70488, "1218")]
+    [InlineData(0.0012345, "0.001234")]
+    [InlineData(0.0, "0")]
+    public void Numbers_are_shown_compactly(double value, string shown) => Assert.Equal(shown, ReadoutPanel.Format(value));
+}
+
+public sealed class ErrorNoteTests : BunitContext
+{
+    [Fact]
+    public void Shows_the_message_as_an_alert()
+    {
+        var cut = Render<ErrorNote>(p => p.Add(x => x.Message, "counts.csv: line 4, column 3: 'abc' is not a number").Add(x => x.Title, "This file cannot be used"));
+        Assert.Equal("alert", cut.Find("div").GetAttribute("role"));
+        Assert.Contains("line 4, column 3", cut.Markup);
+        Assert.Contains("This file cannot be used", cut.Markup);
+    }
+
+    [Fact]
+    public void No_message_renders_nothing() => Assert.Equal("", Render<ErrorNote>().Markup.Trim());
+}

@@ -1,0 +1,90 @@
+using Bunit;
+using ExprModel.Data.Catalog;
+using ExprModel.Data.Store;
+using ExprModel.Web.Components.Pages;
+using ExprModel.Web.Hosting;
+using ExprModel.Web.Simulation;
+using ExprModel.Web.Workspace;
+using Microsoft.AspNetCore.Components;
+using Microsoft.Extensions.DependencyInjection;
+using Microsoft.Extensions.Options;
+
+namespace ExprModel.Web.Tests.Components;
+
+/// <summary>The Workbench page with the real catalog, simulator and read-outs (no browser; plots are not drawn).</summary>
+public sealed class WorkbenchPageTests : BunitContext
+{
+    private readonly string _dir = Path.Combine(Path.GetTempPath(), "exprmodel-bunit-" + Guid.NewGuid().ToString("N"));
+
+    public WorkbenchPageTests()
+    {
+        JSInterop.Mode = JSRuntimeMode.Loose;
+        Directory.CreateDirectory(_dir);
+        var options = Options.Create(new WebOptions());
+        Services.AddSingleton(options);
+        Services.AddSingleton(CatalogLocator.Ensure(Path.Combine(_dir, "catalog.db")));
+        Services.AddSingleton(SnapshotStore.Open(Path.Combine(_dir, "snapshots.db")));
+        Services.AddSingleton<SimulationGate>();
+        Services.AddSingleton<ModelRunner>();
+        Services.AddSingleton<SnapshotService>();
+        Services.AddScoped<WorkspaceState>();
+    }
+
+    private IRenderedComponent<Workbench> Open(string preset)
+    {
+        Services.GetRequiredService<NavigationManager>().NavigateTo($"workbench?preset={preset}");
+        var cut = Render<Workbench>();
+        cut.WaitForAssertion(() => Assert.NotEmpty(cut.FindAll("[data-testid=readouts] tbody tr")), TimeSpan.FromSeconds(60));
+        return cut;
+    }
+
+    private static string Value(IRenderedComponent<Workbench> cut, string readout) =>
+        cut.Find($"tr[data-readout={readout}]").QuerySelectorAll("td")[1].TextContent;
+
+    [Fact]
+    public void One_slider_per_channel_starting_at_as_expressed()
+    {
+        var cut = Open("cortex-rs2008");
+        var sliders = cut.FindAll(".density-slider");
+        Assert.Equal(4, sliders.Count);
+        Assert.All(sliders, s => Assert.Equal("100%", s.QuerySelector("output")!.TextContent));
+        Assert.Contains("Research use only", cut.Find("[data-testid=caution]").TextContent);
+        Assert.Contains("Regular-spiking", cut.Find("[data-testid=model-name]").TextContent);
+    }
+
+    [Fact]
+    public void Switching_sodium_off_changes_the_readouts()
+    {
+        var cut = Open("wb1996");
+        var rheobase = Value(cut, "rheobase");
+        Assert.NotEqual("—", rheobase);
+        int before = int.Parse(cut.Find("[data-testid=readouts]").GetAttribute("data-update")!);
+        cut.Find("[data-testid=slider-wb-na-1996] input").Input("0");
+        cut.WaitForAssertion(() => Assert.True(int.Parse(cut.Find("[data-testid=readouts]").GetAttribute("data-update")!) > before), TimeSpan.FromSeconds(60));
+        Assert.Equal("off", cut.Find("[data-testid=slider-wb-na-1996] output").TextContent);
+        Assert.NotEqual(rheobase, Value(cut, "rheobase"));
+    }
+
+    [Fact]
+    public void An_impossible_temperature_is_refused_with_a_message()
+    {
+        var cut = Open("hh1952");
+        cut.Find("[data-testid=temperature]").Change("90");
+        cut.WaitForAssertion(() => Assert.Contains("Temperature", cut.Find("[data-testid=error]").TextContent));
+        Assert.Contains("-5 and 50", cut.Find("[data-testid=error]").TextContent);
+    }
+
+    [Fact]
+    public void A_bad_fi_range_is_refused_with_the_field_named()
+    {
+        var cut = Open("hh1952");
+        cut.Find("[data-testid=fi-steps]").Change("1");
+        cut.WaitForAssertion(() => Assert.Contains("fi.steps", cut.Find("[data-testid=error]").TextContent));
+    }
+
+    public new void Dispose()
+    {
+        base.Dispose();
+        try { Directory.Delete(_dir, recursive: true); } catch (IOException) { }
+    }
+}
