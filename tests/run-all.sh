@@ -21,7 +21,7 @@ for proj in tests/*/*.csproj; do
   name=$(basename "$proj" .csproj)
   [ "$name" = "ExprModel.Benchmarks" ] && continue
   log=$(mktemp)
-  dotnet test "$proj" -c Release --no-build -nologo --logger "console;verbosity=normal" 2>&1 | tee "$log" | grep -E "^\s*(Failed|Passed!|Failed!|Skipped!)|error" || true
+  dotnet test "$proj" -c Release --no-build -nologo 2>&1 | tee "$log" | grep -E "^\s*(Failed|Passed!|Failed!|Skipped!)|error" || true
   line=$(grep -E "(Passed|Failed)!\s+-\s+Failed:" "$log" | tail -n 1)
   if [ -z "$line" ]; then
     echo "$name: no test summary (build or host failure)"; failed=$((failed + 1)); status=1

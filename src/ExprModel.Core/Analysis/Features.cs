@@ -80,7 +80,6 @@ public static class Features
         bool firesAtRest = settle.SpikeTimesMs.Any(t => t > s.SettleMs / 2);
         double? restMv = firesAtRest ? null : rest.VoltageMv;
         if (firesAtRest) notes.Add("The cell fires without input; passive read-outs and rheobase are not defined.");
-
         double gSlope = Passive.SteadySlopeConductance(cell, rest.VoltageMv);
         if (!(gSlope > 1e-4))
         {
@@ -115,13 +114,13 @@ public static class Features
             double peakDefl = rest.VoltageMv - vMin;
             sag = peakDefl > 1e-9 ? Math.Max(0, (vSs - vMin) / peakDefl) : 0;
         }
-
         // 4. Rheobase by k-section bisection.
-        double maxSearch = Math.Max(gSlope * 400, 50);
+        // Search up to 400 x the slope conductance in mV terms, but never past 200 uA/cm2 (10 nA on 5000 um2),
+        // far beyond any physiological rheobase.
+        double maxSearch = Math.Min(Math.Max(gSlope * 400, 50), 200);
         var rheo = firesAtRest ? null : RheobaseSearch.Rheobase(cell, rest, gSlope * 5, maxSearch, s, cancel);
         if (!firesAtRest && rheo is null) notes.Add($"No spike for steps up to {maxSearch:G3} uA/cm2.");
         double? rheobase = rheo?.AtOrAboveUaPerCm2;
-
         SpikeShape? shape = null;
         double? latency = null;
         IReadOnlyList<FiPoint> fi = [];
@@ -137,17 +136,22 @@ public static class Features
                 latency = inStep[0] - 100;
                 shape = SpikeShapes.Measure(at.VoltageMv, dt, 0, inStep[0], inStep.Length > 1 ? inStep[1] : null, s.ThresholdSlopeMvPerMs);
             }
-
             // 6. f-I curve from 0 to a multiple of rheobase.
             fi = FiCurve.Measure(cell, 0, s.FiMaxMultiple * rb, s.FiSteps, s.StepDurationMs, rest, sim, cancel);
             gain = FiCurve.Gain(fi);
-
             // 7. Excitability class from the onset of sustained firing.
+            // When the class step equals the f-I step, the f-I curve already brackets the onset of sustained firing.
+            (double, double)? known = null;
+            if (s.ClassStepMs == s.StepDurationMs)
+            {
+                int first = fi.ToList().FindIndex(p => p.LateRateHz > 0);
+                if (first > 0 && fi.Skip(first).All(p => p.LateRateHz > 0)) known = (fi[first - 1].CurrentUaPerCm2, fi[first].CurrentUaPerCm2);
+            }
             var sustained = RheobaseSearch.FindOnset(amps =>
             {
                 var pts = FiCurve.Measure(cell, amps, s.ClassStepMs, rest, sim, cancel);
                 return pts.Select(p => p.LateRateHz > 0).ToArray();
-            }, rb, rb * s.BlockSearchMultiple, s.RheobaseAbsoluteToleranceUaPerCm2, s.RheobaseRelativeTolerance, cancel);
+            }, rb, rb * s.BlockSearchMultiple, s.RheobaseAbsoluteToleranceUaPerCm2, s.RheobaseRelativeTolerance, cancel, known);
             if (sustained is not null)
             {
                 onsetCurrent = sustained.AtOrAboveUaPerCm2;
@@ -159,13 +163,11 @@ public static class Features
             {
                 notes.Add($"No sustained firing for steps up to {rb * s.BlockSearchMultiple:G3} uA/cm2; class not defined.");
             }
-
             // 8. Adaptation on a step well above onset.
             adaptStep = Math.Max(s.AdaptationStepMultiple * rb, 1.2 * (onsetCurrent ?? rb));
             var ad = FiCurve.Measure(cell, [adaptStep.Value], s.StepDurationMs, rest, sim, cancel)[0];
             (adaptRatio, adaptIndex) = Adaptation(ad.SpikeTimesMs);
             if (adaptRatio is null) notes.Add($"Fewer than three spikes at {adaptStep:G3} uA/cm2; adaptation not defined.");
-
             // 9. Depolarisation block: the smallest step above sustained firing where late firing stops.
             blockLimit = rb * s.BlockSearchMultiple;
             if (onsetCurrent is { } oc && s.IncludeDepolarisationBlock)

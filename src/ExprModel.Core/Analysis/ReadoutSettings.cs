@@ -38,10 +38,13 @@ public sealed record ReadoutSettings
 
     public static ReadoutSettings Default { get; } = new();
 
-    /// <summary>The batch read-outs: shorter settling, 1 % rheobase tolerance, 8 f-I steps, no sag or block search.</summary>
+    /// <summary>
+    /// The batch read-outs: shorter settling, 2 % tolerances, 8 f-I steps, class judged on 1 s steps (bracketed by
+    /// the f-I curve), no sag or block search.
+    /// </summary>
     public static ReadoutSettings Batch { get; } = new()
     {
-        SettleMs = 500, RheobaseRelativeTolerance = 0.01, RheobaseAbsoluteToleranceUaPerCm2 = 0.005, FiSteps = 8,
+        SettleMs = 300, RheobaseRelativeTolerance = 0.02, RheobaseAbsoluteToleranceUaPerCm2 = 0.005, FiSteps = 8, ClassStepMs = 1000,
         IncludeSag = false, IncludeDepolarisationBlock = false,
     };
 }

@@ -16,11 +16,16 @@ public static class RheobaseSearch
     private static int ProbesPerRound => Math.Max(4, 4 * Environment.ProcessorCount) - 1 + 1;
 
     public static Bracket? FindOnset(Func<IReadOnlyList<double>, bool[]> holds, double startUaPerCm2, double maxUaPerCm2,
-        double absoluteTolerance, double relativeTolerance, CancellationToken cancel = default)
+        double absoluteTolerance, double relativeTolerance, CancellationToken cancel = default, (double Below, double Above)? known = null)
     {
-        // Grow geometrically until the property holds.
+        // Grow geometrically until the property holds (unless a bracket is already known).
         double lo = 0, hi = Math.Max(startUaPerCm2, 1e-4);
-        while (true)
+        if (known is { } k)
+        {
+            lo = k.Below;
+            hi = k.Above;
+        }
+        while (known is null)
         {
             cancel.ThrowIfCancellationRequested();
             var probes = Enumerable.Range(0, ProbesPerRound).Select(k => hi * Math.Pow(1.3, k)).Where(x => x <= maxUaPerCm2 * 1.000001).ToArray();
@@ -57,7 +62,8 @@ public static class RheobaseSearch
     public static Bracket? Rheobase(CompiledCell cell, CellState rest, double startUaPerCm2, double maxUaPerCm2, ReadoutSettings s, CancellationToken cancel = default) =>
         FindOnset(amps =>
         {
-            var fi = FiCurve.Measure(cell, amps, s.StepDurationMs, rest, s.Simulation, cancel);
+            // Only "any spike in the step" matters here, so each run may end at its first spike.
+            var fi = FiCurve.Measure(cell, amps, s.StepDurationMs, rest, s.Simulation with { StopAtFirstSpikeAfterMs = FiCurve.DefaultDelayMs }, cancel);
             return fi.Select(p => p.SpikeCount > 0).ToArray();
         }, startUaPerCm2, maxUaPerCm2, s.RheobaseAbsoluteToleranceUaPerCm2, s.RheobaseRelativeTolerance, cancel);
 }

@@ -19,9 +19,11 @@ public sealed partial class GeneResolver
 
     public GeneResolver(IEnumerable<GeneLink> links, IEnumerable<GeneStatus> statuses, IEnumerable<GeneIdentifier> identifiers)
     {
-        foreach (var (symbol, species) in links.Select(l => (l.Symbol, l.Species)).Concat(statuses.Select(s => (s.Symbol, s.Species))))
+        // Mouse and rat share most symbols (capitalised); such a symbol is read as mouse, the commoner species, and
+        // since rat links mirror mouse links the mapping is the same either way.
+        foreach (var (symbol, species) in links.Select(l => (l.Symbol, l.Species)).Concat(statuses.Select(s => (s.Symbol, s.Species))).OrderBy(p => p.Item2))
         {
-            _symbols[symbol] = (symbol, species);
+            _symbols.TryAdd(symbol, (symbol, species));
             _folded.TryAdd(symbol, (symbol, species));
         }
         foreach (var i in identifiers)

@@ -34,6 +34,21 @@ public static class Simulator
     public static IReadOnlyList<IReadOnlyList<double>> SpikeTimes(CompiledCell cell, IReadOnlyList<Stimulus> stimuli, double durationMs,
         SimulationSettings? settings = null, CellState? initial = null, CancellationToken cancel = default)
     {
+        try
+        {
+            return SpikeTimesParallel(cell, stimuli, durationMs, settings, initial, cancel);
+        }
+        catch (AggregateException e) when (e.Flatten().InnerExceptions.FirstOrDefault(x => x is not OperationCanceledException) is { } first)
+        {
+            // Report the lane's own error (blow-up, bad model), not the parallel wrapper.
+            System.Runtime.ExceptionServices.ExceptionDispatchInfo.Capture(first).Throw();
+            throw;
+        }
+    }
+
+    private static IReadOnlyList<IReadOnlyList<double>> SpikeTimesParallel(CompiledCell cell, IReadOnlyList<Stimulus> stimuli, double durationMs,
+        SimulationSettings? settings = null, CellState? initial = null, CancellationToken cancel = default)
+    {
         settings = (settings ?? SimulationSettings.Default) with { RecordEvery = 0, RecordCurrents = false };
         Validate(durationMs, settings);
         int steps = (int)Math.Round(durationMs / settings.DtMs);
@@ -43,7 +58,6 @@ public static class Simulator
         var options = new ParallelOptions { CancellationToken = cancel, MaxDegreeOfParallelism = Environment.ProcessorCount };
         if (SweepKernel.CanRun(cell) && UseSimd)
         {
-            _ = table.Flat;
             int groups = (stimuli.Count + SweepKernel.Width - 1) / SweepKernel.Width;
             Parallel.For(0, groups, options, gi =>
             {
@@ -72,6 +86,7 @@ public static class Simulator
     /// <summary>The hot loop for one stimulus. Flat arrays, no allocation per step.</summary>
     private static class Lane
     {
+        [MethodImpl(MethodImplOptions.AggressiveOptimization)]
         public static Trace Run(CompiledCell cell, RateTable table, double[] stim, int steps, SimulationSettings settings, CellState init, CancellationToken cancel)
         {
             int gateCount = cell.GateCount, channelCount = cell.ChannelCount;
@@ -200,7 +215,11 @@ public static class Simulator
 
                 double time = (s + 1) * dt;
                 double spike = detector.Feed(time, v, dt);
-                if (!double.IsNaN(spike)) spikes.Add(spike);
+                if (!double.IsNaN(spike))
+                {
+                    spikes.Add(spike);
+                    if (every == 0 && settings.StopAtFirstSpikeAfterMs is { } after && spike >= after) break;
+                }
 
                 if (every > 0 && (s + 1) % every == 0)
                 {

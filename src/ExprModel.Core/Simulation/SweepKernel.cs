@@ -30,6 +30,7 @@ internal static unsafe class SweepKernel
     }
 
     /// <summary>Runs up to four stimuli (each sampled per step) from the same initial state; returns spike times per lane.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public static List<double>[] Run(CompiledCell cell, RateTable table, IReadOnlyList<double[]> stimuli, int steps, SimulationSettings settings, CellState init, CancellationToken cancel)
     {
         int lanes = stimuli.Count;
@@ -39,8 +40,7 @@ internal static unsafe class SweepKernel
         var stim = new double[steps * Width];
         for (int s = 0; s < steps; s++)
             for (int l = 0; l < Width; l++) stim[s * Width + l] = l < lanes ? stimuli[l][s] : stimuli[0][s];
-        var flat = table.Flat;
-        int stride = 2 * table.Points;
+        var quads = table.QuadPointers();
         var x = new Vector256<double>[gates];
         for (int g = 0; g < gates; g++) x[g] = Vector256.Create(init.Gates[g]);
         var gbar = cell.Gbar.Select(Vector256.Create).ToArray();
@@ -96,8 +96,10 @@ internal static unsafe class SweepKernel
         Array.Fill(pending, double.NaN);
         Array.Fill(lastCross, double.NegativeInfinity);
         bool anyPending = false;
+        double? stopAfter = settings.StopAtFirstSpikeAfterMs;
+        var doneLane = new bool[Width];
+        int lanesDone = 0;
 
-        fixed (double* T = flat)
         fixed (double* S = stim)
         {
             for (int s = 0; s < steps; s++)
@@ -107,15 +109,16 @@ internal static unsafe class SweepKernel
                 var fl = Vector256.Floor(pos);
                 var f = pos - fl;
                 var idx = Avx.ConvertToVector128Int32WithTruncation(fl);
-                idx = Sse2.ShiftLeftLogical(idx, 1);
-                Vector128<int> idxMid = default;
+                long i0 = 4L * idx.GetElement(0), i1 = 4L * idx.GetElement(1), i2 = 4L * idx.GetElement(2), i3 = 4L * idx.GetElement(3);
+                long m0 = 0, m1 = 0, m2 = 0, m3 = 0;
                 Vector256<double> fMid = default;
                 if (anyInstant)
                 {
                     var pm = Vector256.Min(Vector256.Max((Fma.MultiplyAdd(half, v - vPrev, v) - vMin) * invRes, zero), maxPos);
                     var flm = Vector256.Floor(pm);
                     fMid = pm - flm;
-                    idxMid = Sse2.ShiftLeftLogical(Avx.ConvertToVector128Int32WithTruncation(flm), 1);
+                    var im = Avx.ConvertToVector128Int32WithTruncation(flm);
+                    m0 = 4L * im.GetElement(0); m1 = 4L * im.GetElement(1); m2 = 4L * im.GetElement(2); m3 = 4L * im.GetElement(3);
                 }
                 for (int g = 0; g < gates; g++)
                 {
@@ -138,20 +141,28 @@ internal static unsafe class SweepKernel
                         x[g] = Fma.MultiplyAdd(x[g] - inf, caDecay[g], inf);
                         continue;
                     }
-                    double* baseP = T + (long)g * stride;
-                    if (instant[g])
+                    double* q = quads[g];
+                    bool mid = instant[g];
+                    var r0 = Avx.LoadVector256(q + (mid ? m0 : i0));
+                    var r1 = Avx.LoadVector256(q + (mid ? m1 : i1));
+                    var r2 = Avx.LoadVector256(q + (mid ? m2 : i2));
+                    var r3 = Avx.LoadVector256(q + (mid ? m3 : i3));
+                    // 4x4 transpose: lanes' [decay, drive, d_decay, d_drive] into four vectors across lanes.
+                    var t0 = Avx.UnpackLow(r0, r1);
+                    var t1 = Avx.UnpackHigh(r0, r1);
+                    var t2 = Avx.UnpackLow(r2, r3);
+                    var t3 = Avx.UnpackHigh(r2, r3);
+                    var decay0 = Avx.Permute2x128(t0, t2, 0x20);
+                    var dDecay = Avx.Permute2x128(t0, t2, 0x31);
+                    var drive0 = Avx.Permute2x128(t1, t3, 0x20);
+                    var dDrive = Avx.Permute2x128(t1, t3, 0x31);
+                    if (mid)
                     {
-                        var d0 = Avx2.GatherVector256(baseP + 1, idxMid, 8);
-                        var d1 = Avx2.GatherVector256(baseP + 3, idxMid, 8);
-                        x[g] = Fma.MultiplyAdd(fMid, d1 - d0, d0);
+                        x[g] = Fma.MultiplyAdd(fMid, dDrive, drive0);
                         continue;
                     }
-                    var a0 = Avx2.GatherVector256(baseP, idx, 8);
-                    var a1 = Avx2.GatherVector256(baseP + 2, idx, 8);
-                    var b0 = Avx2.GatherVector256(baseP + 1, idx, 8);
-                    var b1 = Avx2.GatherVector256(baseP + 3, idx, 8);
-                    var a = Fma.MultiplyAdd(f, a1 - a0, a0);
-                    var b = Fma.MultiplyAdd(f, b1 - b0, b0);
+                    var a = Fma.MultiplyAdd(f, dDecay, decay0);
+                    var b = Fma.MultiplyAdd(f, dDrive, drive0);
                     x[g] = Fma.MultiplyAdd(a, x[g], b);
                 }
                 var gSum = zero;
@@ -212,7 +223,12 @@ internal static unsafe class SweepKernel
                         double vl = v[l], vp = vPrev[l];
                         if (!double.IsNaN(pending[l]))
                         {
-                            if (vl < levelMv) { spikes[l].Add(pending[l]); pending[l] = double.NaN; }
+                            if (vl < levelMv)
+                            {
+                                spikes[l].Add(pending[l]);
+                                if (stopAfter is { } after && pending[l] >= after && !doneLane[l]) { doneLane[l] = true; lanesDone++; }
+                                pending[l] = double.NaN;
+                            }
                             else if (t - pending[l] > maxWidth) pending[l] = double.NaN;
                         }
                         // Armed at an upward crossing iff the previous sample was below the level at least one
@@ -224,6 +240,7 @@ internal static unsafe class SweepKernel
                         }
                         if (!double.IsNaN(pending[l])) anyPending = true;
                     }
+                    if (lanesDone == lanes) break;
                 }
             }
         }

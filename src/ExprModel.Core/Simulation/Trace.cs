@@ -9,6 +9,8 @@ public sealed record SimulationSettings
     public int RecordEvery { get; init; } = 1;
     public bool RecordCurrents { get; init; }
     public SpikeDetection Spikes { get; init; } = SpikeDetection.Default;
+    /// <summary>Spike-only runs end as soon as a spike after this time (ms) is confirmed (in a SIMD group: once every lane has one). Null runs to the end.</summary>
+    public double? StopAtFirstSpikeAfterMs { get; init; }
 
     public static SimulationSettings Default { get; } = new();
     public static SimulationSettings SpikesOnly { get; } = new() { RecordEvery = 0 };
