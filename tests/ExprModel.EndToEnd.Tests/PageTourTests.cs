@@ -24,3 +24,31 @@ public sealed class PageTourTests(AppFixture app)
         await context.CloseAsync();
     }
 }
+
+[Collection("app")]
+public sealed class CatalogPageTests(AppFixture app)
+{
+    [Fact]
+    public async Task Searching_by_gene_finds_its_entry_and_its_curves_follow_the_temperature()
+    {
+        var (context, page, errors) = await app.NewPageAsync();
+        await app.GotoAsync(page, "/catalog");
+        int all = await page.Locator("[data-testid=catalog-entries] li").CountAsync();
+        await page.Locator("[data-testid=catalog-search]").FillAsync("kcnc1");
+        await page.WaitForFunctionAsync($"() => document.querySelectorAll('[data-testid=catalog-entries] li').length < {all}");
+        var items = await page.Locator("[data-testid=catalog-entries] li").AllInnerTextsAsync();
+        Assert.NotEmpty(items);
+        Assert.All(items, i => Assert.Contains("KCNC1", i, StringComparison.OrdinalIgnoreCase));
+        await page.Locator("[data-testid=catalog-entries] li a").First.ClickAsync();
+        await page.WaitForSelectorAsync("[data-testid=entry-name]");
+        Assert.Contains("KCNC1", await page.Locator("[data-testid=entry-genes]").InnerTextAsync(), StringComparison.OrdinalIgnoreCase);
+        Assert.Matches("checked against the paper|recalled, not checked", await page.Locator("[data-testid=verification]").InnerTextAsync());
+        await page.WaitForSelectorAsync("[data-testid=plot-tau] .main-svg .scatterlayer .trace");
+        await page.Locator("[data-testid=curve-temperature]").FillAsync("20");
+        await page.Locator("[data-testid=curve-temperature]").PressAsync("Enter");
+        await page.WaitForFunctionAsync("() => document.querySelector('[data-testid=plot-tau]').innerText.includes('20 °C')");
+        await app.ScreenshotAsync(page, "catalog-search");
+        Assert.Empty(errors);
+        await context.CloseAsync();
+    }
+}
