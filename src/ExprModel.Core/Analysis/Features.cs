@@ -21,6 +21,8 @@ public sealed record CellReadouts
     public double? MaxRiseMvPerMs { get; init; }
     public double? FirstSpikeLatencyMs { get; init; }
     public IReadOnlyList<FiPoint> FiCurve { get; init; } = [];
+    /// <summary>Responses to <see cref="ReadoutSettings.ExtraStepsUaPerCm2"/>, in that order.</summary>
+    public IReadOnlyList<FiPoint> ExtraSteps { get; init; } = [];
     public double? FiGainHzPerUaPerCm2 { get; init; }
     public double? FiGainHzPerNa { get; init; }
     public double? SustainedFiringOnsetUaPerCm2 { get; init; }
@@ -92,9 +94,10 @@ public static class Features
         {
             // 2. Input resistance and time constant from a small hyperpolarising step.
             double iSmall = s.PassiveDeflectionMv * gSlope;
-            var small = Simulator.Run(cell, Protocols.Step(iSmall, 100, 500), 600, sim with { RecordEvery = 1, RecordCurrents = false }, rest, cancel);
+            double passiveMs = s.PassiveStepMs;
+            var small = Simulator.Run(cell, Protocols.Step(iSmall, 100, passiveMs), 100 + passiveMs, sim with { RecordEvery = 1, RecordCurrents = false }, rest, cancel);
             int onset = (int)Math.Round(100 / dt);
-            int endIdx = (int)Math.Round(600 / dt);
+            int endIdx = (int)Math.Round((100 + passiveMs) / dt);
             double vEnd = Mean(small.VoltageMv, endIdx - (int)(20 / dt), endIdx);
             double dv = vEnd - rest.VoltageMv;
             double nA = iSmall * area / 100.0 / 1000.0;
@@ -118,18 +121,22 @@ public static class Features
         // Search up to 400 x the slope conductance in mV terms, but never past 200 uA/cm2 (10 nA on 5000 um2),
         // far beyond any physiological rheobase.
         double maxSearch = Math.Min(Math.Max(gSlope * 400, 50), 200);
-        var rheo = firesAtRest ? null : RheobaseSearch.Rheobase(cell, rest, gSlope * 5, maxSearch, s, cancel);
+        var (rheo, knownLatency) = firesAtRest ? (null, null) : RheobaseSearch.Rheobase(cell, rest, gSlope * 5, maxSearch, s, cancel);
         if (!firesAtRest && rheo is null) notes.Add($"No spike for steps up to {maxSearch:G3} uA/cm2.");
         double? rheobase = rheo?.AtOrAboveUaPerCm2;
         SpikeShape? shape = null;
         double? latency = null;
         IReadOnlyList<FiPoint> fi = [];
+        IReadOnlyList<FiPoint> extra = [];
         double? gain = null, onsetCurrent = null, onsetRate = null, adaptStep = null, adaptRatio = null, adaptIndex = null, block = null, blockLimit = null;
         int? cls = null;
         if (rheobase is { } rb)
         {
             // 5. Spike shape and latency at rheobase.
-            var at = Simulator.Run(cell, Protocols.Step(rb, 100, s.StepDurationMs), 100 + s.StepDurationMs, sim with { RecordEvery = 1 }, rest, cancel);
+            // The search saw when the first spike comes; record only up to 150 ms past it (enough for its shape,
+            // after-hyperpolarisation window and a following spike).
+            double recordMs = knownLatency is { } kl ? Math.Min(100 + s.StepDurationMs, 100 + kl + 150) : 100 + s.StepDurationMs;
+            var at = Simulator.Run(cell, Protocols.Step(rb, 100, s.StepDurationMs), recordMs, sim with { RecordEvery = 1 }, rest, cancel);
             var inStep = at.SpikeTimesMs.Where(t => t >= 100).ToArray();
             if (inStep.Length > 0)
             {
@@ -137,7 +144,11 @@ public static class Features
                 shape = SpikeShapes.Measure(at.VoltageMv, dt, 0, inStep[0], inStep.Length > 1 ? inStep[1] : null, s.ThresholdSlopeMvPerMs);
             }
             // 6. f-I curve from 0 to a multiple of rheobase.
-            fi = FiCurve.Measure(cell, 0, s.FiMaxMultiple * rb, s.FiSteps, s.StepDurationMs, rest, sim, cancel);
+            // Extra steps (e.g. the batch's standard absolute steps) ride along in the same sweep.
+            var grid = Protocols.StepFamily(0, s.FiMaxMultiple * rb, s.FiSteps).Select(p => p.AmplitudeUaPerCm2).ToArray();
+            var all = FiCurve.Measure(cell, [.. grid, .. s.ExtraStepsUaPerCm2], s.StepDurationMs, rest, sim, cancel);
+            fi = all.Take(grid.Length).ToArray();
+            extra = all.Skip(grid.Length).ToArray();
             gain = FiCurve.Gain(fi);
             // 7. Excitability class from the onset of sustained firing.
             // When the class step equals the f-I step, the f-I curve already brackets the onset of sustained firing.
@@ -211,6 +222,7 @@ public static class Features
             BlockSearchLimitUaPerCm2 = blockLimit,
             AreaUm2 = area,
             Notes = notes,
+            ExtraSteps = extra,
         };
     }
 

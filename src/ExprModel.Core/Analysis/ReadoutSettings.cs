@@ -10,6 +10,10 @@ public sealed record ReadoutSettings
     public double SettleMs { get; init; } = 1000;
     /// <summary>Step length for rheobase, shape and adaptation (DOMAIN: default 1 s).</summary>
     public double StepDurationMs { get; init; } = 1000;
+    /// <summary>Length of the small hyperpolarising step (ms); input resistance uses its last 20 ms.</summary>
+    public double PassiveStepMs { get; init; } = 500;
+    /// <summary>Further step amplitudes (uA/cm2) measured in the same sweep as the f-I curve (see <see cref="CellReadouts.ExtraSteps"/>).</summary>
+    public IReadOnlyList<double> ExtraStepsUaPerCm2 { get; init; } = [];
     /// <summary>Hyperpolarising deflection aimed at for input resistance and time constant (mV).</summary>
     public double PassiveDeflectionMv { get; init; } = -5;
     /// <summary>Hyperpolarising deflection aimed at for sag (mV).</summary>
@@ -44,7 +48,7 @@ public sealed record ReadoutSettings
     /// </summary>
     public static ReadoutSettings Batch { get; } = new()
     {
-        SettleMs = 300, RheobaseRelativeTolerance = 0.02, RheobaseAbsoluteToleranceUaPerCm2 = 0.005, FiSteps = 8, ClassStepMs = 1000,
+        SettleMs = 300, PassiveStepMs = 300, RheobaseRelativeTolerance = 0.02, RheobaseAbsoluteToleranceUaPerCm2 = 0.005, FiSteps = 8, ClassStepMs = 1000,
         IncludeSag = false, IncludeDepolarisationBlock = false,
     };
 }

@@ -58,12 +58,20 @@ public static class RheobaseSearch
         return new Bracket(lo, hi, Math.Max(absoluteTolerance, relativeTolerance * hi));
     }
 
-    /// <summary>Rheobase: the smallest step of <paramref name="durationMs"/> that evokes at least one spike.</summary>
-    public static Bracket? Rheobase(CompiledCell cell, CellState rest, double startUaPerCm2, double maxUaPerCm2, ReadoutSettings s, CancellationToken cancel = default) =>
-        FindOnset(amps =>
+    /// <summary>
+    /// Rheobase: the smallest step that evokes at least one spike. Also returns the first spike time (ms from step
+    /// onset) at that amplitude, so the spike-shape run can stop soon after it.
+    /// </summary>
+    public static (Bracket? Bracket, double? LatencyMs) Rheobase(CompiledCell cell, CellState rest, double startUaPerCm2, double maxUaPerCm2, ReadoutSettings s, CancellationToken cancel = default)
+    {
+        var latency = new Dictionary<double, double>();
+        var bracket = FindOnset(amps =>
         {
             // Only "any spike in the step" matters here, so each run may end at its first spike.
             var fi = FiCurve.Measure(cell, amps, s.StepDurationMs, rest, s.Simulation with { StopAtFirstSpikeAfterMs = FiCurve.DefaultDelayMs }, cancel);
+            foreach (var p in fi) if (p.FirstSpikeLatencyMs is { } l) latency[p.CurrentUaPerCm2] = l;
             return fi.Select(p => p.SpikeCount > 0).ToArray();
         }, startUaPerCm2, maxUaPerCm2, s.RheobaseAbsoluteToleranceUaPerCm2, s.RheobaseRelativeTolerance, cancel);
+        return (bracket, bracket is not null && latency.TryGetValue(bracket.AtOrAboveUaPerCm2, out var t) ? t : null);
+    }
 }

@@ -30,9 +30,12 @@ public static class BatchReadouts
             {
                 var built = ExpressionModelBuilder.Build(table, report, catalog, rule, t, groups);
                 var cell = new CompiledCell(built.Document.ToCellModel((id, _) => catalog.Entry(id)!));
-                var r = Features.Measure(cell, ReadoutSettings.Batch, cancel);
                 var geo = cell.Model.Geometry;
-                var rates = FiCurve.Measure(cell, StandardStepsPa.Select(geo.PicoampsToDensity).ToArray(), 1000, null, null, cancel);
+                var settings = ReadoutSettings.Batch with { ExtraStepsUaPerCm2 = StandardStepsPa.Select(geo.PicoampsToDensity).ToArray() };
+                var r = Features.Measure(cell, settings, cancel);
+                // Cells that fire at rest or never fire skip the f-I sweep; measure the standard steps on their own then.
+                var rates = r.ExtraSteps.Count == StandardStepsPa.Length ? r.ExtraSteps
+                    : FiCurve.Measure(cell, settings.ExtraStepsUaPerCm2, 1000, null, null, cancel);
                 rows[i - from] = new BatchRow(i, item, cells, r, rates.Select(q => q.WholeStepRateHz).ToArray(), string.Join(" | ", built.Warnings.Concat(r.Notes)));
             }
             catch (Exception e) when (e is ArgumentException or ModelException or SimulationBlowUpException)
