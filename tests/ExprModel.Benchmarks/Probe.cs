@@ -25,7 +25,7 @@ internal static class Probe
             // other work on a shared machine.
             var proc = Process.GetCurrentProcess();
             var c0 = proc.TotalProcessorTime;
-            SweepKernel.Run(cell, table, samples, 44800, SimulationSettings.SpikesOnly, cell.InitialState(), default);
+            SweepKernel.Run(cell, table, stims, 44800, SimulationSettings.SpikesOnly, cell.InitialState(), default);
             proc.Refresh();
             var c1 = proc.TotalProcessorTime;
             Simulator.Run(cell, stims[1], 1120, SimulationSettings.SpikesOnly);
