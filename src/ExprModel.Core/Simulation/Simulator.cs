@@ -13,8 +13,17 @@ public static class Simulator
 {
     private static readonly ConditionalWeakTable<CompiledCell, ConcurrentDictionary<double, RateTable>> Tables = new();
 
-    /// <summary>Lets tests and benchmarks compare the SIMD sweep with the scalar loop.</summary>
-    internal static bool UseSimd { get; set; } = true;
+    private static readonly AsyncLocal<bool> ScalarOnly = new();
+
+    /// <summary>
+    /// Lets tests and benchmarks compare the SIMD sweep with the scalar loop. Per logical call flow (AsyncLocal, which
+    /// Parallel.For carries to its workers), so tests running at the same time do not switch each other.
+    /// </summary>
+    internal static bool UseSimd
+    {
+        get => !ScalarOnly.Value;
+        set => ScalarOnly.Value = !value;
+    }
 
     internal static RateTable TableFor(CompiledCell cell, double dtMs) =>
         Tables.GetOrCreateValue(cell).GetOrAdd(dtMs, dt => new RateTable(cell, dt));
