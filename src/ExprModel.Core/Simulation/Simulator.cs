@@ -121,14 +121,12 @@ public static class Simulator
             var gateStart = cell.GateStart;
             var gateEnd = cell.GateEnd;
             var power = cell.GatePower;
-            var isCa = cell.GateIsCalcium;
             var instant = cell.GateIsInstantaneous;
             var caRates = Enumerable.Range(0, gateCount).Select(cell.GateHasCalciumRates).ToArray();
             var carriesCalcium = cell.Model.Channels.Select(ch => ch.Entry.Ion == Kinetics.Ion.Calcium).ToArray();
             bool anyNernstCalcium = cell.Mode.Any(m => m == DriveMode.NernstCalcium);
             var ghk = new CalciumConstants(Kinetics.Nernst.ThermalVoltageMv(cell.TemperatureC, 2), cell.CalciumOutsideMm);
             double vPrevious = v;
-            bool anyCalciumGate = isCa.Any(b => b);
             bool anySpecial = mode.Any(m => m != DriveMode.Ohmic);
             double cm = cell.CapacitanceUfPerCm2;
             double invRes = 1.0 / RateTable.ResolutionMv;
@@ -258,7 +256,6 @@ public static class Simulator
                     if (currents is not null) RecordCurrents(cell, currents, r, v, x, ca);
                 }
             }
-            _ = anyCalciumGate;
             var dict = new Dictionary<string, double[]>();
             if (currents is not null)
                 for (int c = 0; c < channelCount; c++) dict[UniqueLabel(cell, c, dict)] = currents[c];
