@@ -42,12 +42,19 @@ public static class BatchBenchmark
         };
         var report = ExpressionMapping.Map(table, mapping);
         var targets = ids.Select(ModelTarget.ForCell).ToArray();
+        var proc = Process.GetCurrentProcess();
+        var cpu0 = proc.TotalProcessorTime;
         var sw = Stopwatch.StartNew();
         var rows = BatchReadouts.Run(table, report, mapping, new DensityRule(), targets, null, 0, cells);
         sw.Stop();
+        proc.Refresh();
+        double cpuS = (proc.TotalProcessorTime - cpu0).TotalSeconds;
         int failed = rows.Count(r => r.Readouts is null);
+        foreach (var f in rows.Where(r => r.Readouts is null).Take(3)) Console.WriteLine($"  failed {f.Item}: {f.Warnings}");
         int firing = rows.Count(r => r.Readouts?.RheobasePa is not null);
-        Console.WriteLine($"batch: {cells} cells, {report.Genes.Count} mapped genes, standard read-outs in {sw.Elapsed.TotalSeconds:F1} s " +
+        Console.WriteLine($"batch: {cells} cells, {report.Genes.Count} mapped genes, standard read-outs in {sw.Elapsed.TotalSeconds:F1} s wall " +
             $"({sw.Elapsed.TotalMilliseconds / cells:F1} ms per cell; target 60 s for 1,000); {firing} fire, {failed} failed");
+        Console.WriteLine($"  process CPU {cpuS:F1} s = {cpuS / Environment.ProcessorCount:F1} s on {Environment.ProcessorCount} cores if nothing else ran; " +
+            $"load average now {File.ReadAllText("/proc/loadavg").Split(' ')[0]}");
     }
 }

@@ -21,7 +21,7 @@ public static class Program
             BenchmarkSwitcher.FromAssembly(typeof(Program).Assembly).Run(args.Where(a => a != "--bdn").ToArray());
             return 0;
         }
-        if (args.Contains("probe")) { Probe.Run(); return 0; }
+        if (args.Contains("probe")) { Probe.Run(args.SkipWhile(a => a != "probe").Skip(1).FirstOrDefault(a => !a.StartsWith("--"))); return 0; }
         if (args.Contains("batch"))
         {
             BatchBenchmark.Run(args.Contains("--quick") ? 200 : 1000);

@@ -118,9 +118,9 @@ public static class Features
             sag = peakDefl > 1e-9 ? Math.Max(0, (vSs - vMin) / peakDefl) : 0;
         }
         // 4. Rheobase by k-section bisection.
-        // Search up to 400 x the slope conductance in mV terms, but never past 200 uA/cm2 (10 nA on 5000 um2),
-        // far beyond any physiological rheobase.
-        double maxSearch = Math.Min(Math.Max(gSlope * 400, 50), 200);
+        // Search up to the current that would hold a passive membrane 150 mV above rest (beyond that the model
+        // leaves any physiological range), and never past 200 uA/cm2 (10 nA on 5000 um2).
+        double maxSearch = Math.Min(gSlope * 150, 200);
         var (rheo, knownLatency) = firesAtRest ? (null, null) : RheobaseSearch.Rheobase(cell, rest, gSlope * 5, maxSearch, s, cancel);
         if (!firesAtRest && rheo is null) notes.Add($"No spike for steps up to {maxSearch:G3} uA/cm2.");
         double? rheobase = rheo?.AtOrAboveUaPerCm2;
@@ -162,7 +162,7 @@ public static class Features
             {
                 var pts = FiCurve.Measure(cell, amps, s.ClassStepMs, rest, sim, cancel);
                 return pts.Select(p => p.LateRateHz > 0).ToArray();
-            }, rb, rb * s.BlockSearchMultiple, s.RheobaseAbsoluteToleranceUaPerCm2, s.RheobaseRelativeTolerance, cancel, known);
+            }, rb, rb * s.BlockSearchMultiple, s.RheobaseAbsoluteToleranceUaPerCm2, s.ClassRelativeTolerance, cancel, known);
             if (sustained is not null)
             {
                 onsetCurrent = sustained.AtOrAboveUaPerCm2;
@@ -175,8 +175,12 @@ public static class Features
                 notes.Add($"No sustained firing for steps up to {rb * s.BlockSearchMultiple:G3} uA/cm2; class not defined.");
             }
             // 8. Adaptation on a step well above onset.
-            adaptStep = Math.Max(s.AdaptationStepMultiple * rb, 1.2 * (onsetCurrent ?? rb));
-            var ad = FiCurve.Measure(cell, [adaptStep.Value], s.StepDurationMs, rest, sim, cancel)[0];
+            // The f-I curve already holds steps up to 3 x rheobase: use its first step at or above the target when it
+            // is within 10 % of it, and simulate the target itself otherwise.
+            double target = Math.Max(s.AdaptationStepMultiple * rb, 1.2 * (onsetCurrent ?? rb));
+            var fromCurve = fi.FirstOrDefault(p => p.CurrentUaPerCm2 >= target && p.CurrentUaPerCm2 <= 1.1 * target);
+            var ad = fromCurve ?? FiCurve.Measure(cell, [target], s.StepDurationMs, rest, sim, cancel)[0];
+            adaptStep = ad.CurrentUaPerCm2;
             (adaptRatio, adaptIndex) = Adaptation(ad.SpikeTimesMs);
             if (adaptRatio is null) notes.Add($"Fewer than three spikes at {adaptStep:G3} uA/cm2; adaptation not defined.");
             // 9. Depolarisation block: the smallest step above sustained firing where late firing stops.

@@ -30,6 +30,8 @@ public sealed record ReadoutSettings
     public int FiSteps { get; init; } = 16;
     /// <summary>Step length for the class test: the late window (second half) must hold two spikes to count as sustained.</summary>
     public double ClassStepMs { get; init; } = 2000;
+    /// <summary>Relative tolerance of the search for the onset of sustained firing.</summary>
+    public double ClassRelativeTolerance { get; init; } = 0.005;
     /// <summary>Onset rate below which excitability is class 1 (continuous onset), in Hz. Our setting; see DEVELOPERS.md.</summary>
     public double ClassOneOnsetRateHz { get; init; } = 10;
     /// <summary>Depolarisation block is searched up to this multiple of rheobase.</summary>
@@ -43,12 +45,12 @@ public sealed record ReadoutSettings
     public static ReadoutSettings Default { get; } = new();
 
     /// <summary>
-    /// The batch read-outs: shorter settling, 2 % tolerances, 8 f-I steps, class judged on 1 s steps (bracketed by
-    /// the f-I curve), no sag or block search.
+    /// The batch read-outs: shorter settling, 2 % rheobase tolerance, 8 f-I steps, class judged on 1 s steps (bracketed
+    /// by the f-I curve, 5 % tolerance), no sag or block search.
     /// </summary>
     public static ReadoutSettings Batch { get; } = new()
     {
-        SettleMs = 300, PassiveStepMs = 300, RheobaseRelativeTolerance = 0.02, RheobaseAbsoluteToleranceUaPerCm2 = 0.005, FiSteps = 8, ClassStepMs = 1000,
+        SettleMs = 300, PassiveStepMs = 300, RheobaseRelativeTolerance = 0.02, RheobaseAbsoluteToleranceUaPerCm2 = 0.005, FiSteps = 8, ClassStepMs = 1000, ClassRelativeTolerance = 0.05,
         IncludeSag = false, IncludeDepolarisationBlock = false,
     };
 }

@@ -50,15 +50,6 @@ internal sealed unsafe class RateTable
         return q;
     }
 
-    /// <summary>Address of each gate's pinned table (null pointer for calcium gates).</summary>
-    public unsafe double*[] Pointers()
-    {
-        var p = new double*[Data.Length];
-        for (int g = 0; g < Data.Length; g++)
-            if (Data[g] is { } t) p[g] = (double*)System.Runtime.CompilerServices.Unsafe.AsPointer(ref System.Runtime.InteropServices.MemoryMarshal.GetArrayDataReference(t));
-        return p;
-    }
-
     public RateTable(CompiledCell cell, double dtMs)
     {
         DtMs = dtMs;

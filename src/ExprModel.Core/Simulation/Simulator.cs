@@ -13,8 +13,17 @@ public static class Simulator
 {
     private static readonly ConditionalWeakTable<CompiledCell, ConcurrentDictionary<double, RateTable>> Tables = new();
 
-    /// <summary>Lets tests and benchmarks compare the SIMD sweep with the scalar loop.</summary>
-    internal static bool UseSimd { get; set; } = true;
+    private static readonly AsyncLocal<bool> ScalarOnly = new();
+
+    /// <summary>
+    /// Lets tests and benchmarks compare the SIMD sweep with the scalar loop. Per logical call flow (AsyncLocal, which
+    /// Parallel.For carries to its workers), so tests running at the same time do not switch each other.
+    /// </summary>
+    internal static bool UseSimd
+    {
+        get => !ScalarOnly.Value;
+        set => ScalarOnly.Value = !value;
+    }
 
     internal static RateTable TableFor(CompiledCell cell, double dtMs) =>
         Tables.GetOrCreateValue(cell).GetOrAdd(dtMs, dt => new RateTable(cell, dt));
@@ -26,8 +35,7 @@ public static class Simulator
         settings ??= SimulationSettings.Default;
         Validate(durationMs, settings);
         int steps = (int)Math.Round(durationMs / settings.DtMs);
-        var stim = stimulus.Sample(settings.DtMs, steps);
-        return Lane.Run(cell, TableFor(cell, settings.DtMs), stim, steps, settings, initial ?? cell.InitialState(), cancel);
+        return Lane.Run(cell, TableFor(cell, settings.DtMs), stimulus, steps, settings, initial ?? cell.InitialState(), cancel);
     }
 
     /// <summary>Runs many stimuli on the same cell in parallel, recording only spikes (the f-I path).</summary>
@@ -62,7 +70,7 @@ public static class Simulator
             Parallel.For(0, groups, options, gi =>
             {
                 int first = gi * SweepKernel.Width, count = Math.Min(SweepKernel.Width, stimuli.Count - first);
-                var stims = Enumerable.Range(first, count).Select(i => stimuli[i].Sample(settings.DtMs, steps)).ToArray();
+                var stims = Enumerable.Range(first, count).Select(i => stimuli[i]).ToArray();
                 var spikes = SweepKernel.Run(cell, table, stims, steps, settings, start, cancel);
                 for (int l = 0; l < count; l++) result[first + l] = spikes[l];
             });
@@ -70,8 +78,7 @@ public static class Simulator
         }
         Parallel.For(0, stimuli.Count, options, i =>
         {
-            var stim = stimuli[i].Sample(settings.DtMs, steps);
-            result[i] = Lane.Run(cell, table, stim, steps, settings, start, cancel).SpikeTimesMs;
+            result[i] = Lane.Run(cell, table, stimuli[i], steps, settings, start, cancel).SpikeTimesMs;
         });
         return result;
     }
@@ -87,8 +94,21 @@ public static class Simulator
     private static class Lane
     {
         [MethodImpl(MethodImplOptions.AggressiveOptimization)]
-        public static Trace Run(CompiledCell cell, RateTable table, double[] stim, int steps, SimulationSettings settings, CellState init, CancellationToken cancel)
+        public static Trace Run(CompiledCell cell, RateTable table, Stimulus stimulus, int steps, SimulationSettings settings, CellState init, CancellationToken cancel)
         {
+            // A step (or no current) is computed from its on-range; other stimuli are sampled once per step.
+            double[]? stim = null;
+            int onFirst = 0, onEnd = 0;
+            double onValue = 0, offValue = 0;
+            if (stimulus is StepCurrent sc)
+            {
+                (onFirst, onEnd) = sc.OnRange(settings.DtMs, steps);
+                (onValue, offValue) = (sc.HoldingUaPerCm2 + sc.AmplitudeUaPerCm2, sc.HoldingUaPerCm2);
+            }
+            else if (stimulus is not NoCurrent)
+            {
+                stim = stimulus.Sample(settings.DtMs, steps);
+            }
             int gateCount = cell.GateCount, channelCount = cell.ChannelCount;
             double dt = settings.DtMs;
             var x = (double[])init.Gates.Clone();
@@ -101,14 +121,12 @@ public static class Simulator
             var gateStart = cell.GateStart;
             var gateEnd = cell.GateEnd;
             var power = cell.GatePower;
-            var isCa = cell.GateIsCalcium;
             var instant = cell.GateIsInstantaneous;
             var caRates = Enumerable.Range(0, gateCount).Select(cell.GateHasCalciumRates).ToArray();
             var carriesCalcium = cell.Model.Channels.Select(ch => ch.Entry.Ion == Kinetics.Ion.Calcium).ToArray();
             bool anyNernstCalcium = cell.Mode.Any(m => m == DriveMode.NernstCalcium);
             var ghk = new CalciumConstants(Kinetics.Nernst.ThermalVoltageMv(cell.TemperatureC, 2), cell.CalciumOutsideMm);
             double vPrevious = v;
-            bool anyCalciumGate = isCa.Any(b => b);
             bool anySpecial = mode.Any(m => m != DriveMode.Ohmic);
             double cm = cell.CapacitanceUfPerCm2;
             double invRes = 1.0 / RateTable.ResolutionMv;
@@ -194,7 +212,7 @@ public static class Simulator
                         extra += gc * CalciumDrive(mode[c], v, ca, eCa, ghk);
                     }
                 }
-                double iStim = stim[s];
+                double iStim = stim is not null ? stim[s] : s >= onFirst && s < onEnd ? onValue : offValue;
                 double vOld = v;
                 vPrevious = v;
                 if (gSum > 1e-12)
@@ -238,7 +256,6 @@ public static class Simulator
                     if (currents is not null) RecordCurrents(cell, currents, r, v, x, ca);
                 }
             }
-            _ = anyCalciumGate;
             var dict = new Dictionary<string, double[]>();
             if (currents is not null)
                 for (int c = 0; c < channelCount; c++) dict[UniqueLabel(cell, c, dict)] = currents[c];

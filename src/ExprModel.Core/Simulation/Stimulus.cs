@@ -36,16 +36,22 @@ public sealed record StepCurrent(double DelayMs, double DurationMs, double Ampli
     public override double[] Sample(double dtMs, int steps)
     {
         var s = new double[steps];
+        var (first, end) = OnRange(dtMs, steps);
         if (HoldingUaPerCm2 != 0) Array.Fill(s, HoldingUaPerCm2);
-        // Step i is "on" when DelayMs <= (i + 0.5) dt < DelayMs + DurationMs.
-        int first = Math.Max(0, (int)Math.Ceiling(DelayMs / dtMs - 0.5));
-        int end = Math.Min(steps, (int)Math.Ceiling((DelayMs + DurationMs) / dtMs - 0.5));
+        if (end > first) Array.Fill(s, HoldingUaPerCm2 + AmplitudeUaPerCm2, first, end - first);
+        return s;
+    }
+
+    /// <summary>The integration steps i (first inclusive, end exclusive) where DelayMs &lt;= (i + 0.5) dt &lt; DelayMs + DurationMs.</summary>
+    public (int First, int End) OnRange(double dtMs, int steps)
+    {
+        int first = Math.Clamp((int)Math.Ceiling(DelayMs / dtMs - 0.5), 0, steps);
+        int end = Math.Clamp((int)Math.Ceiling((DelayMs + DurationMs) / dtMs - 0.5), 0, steps);
         while (first > 0 && (first - 1 + 0.5) * dtMs >= DelayMs) first--;
         while (first < steps && (first + 0.5) * dtMs < DelayMs) first++;
         while (end > first && (end - 1 + 0.5) * dtMs >= DelayMs + DurationMs) end--;
         while (end < steps && (end + 0.5) * dtMs < DelayMs + DurationMs) end++;
-        if (end > first) Array.Fill(s, HoldingUaPerCm2 + AmplitudeUaPerCm2, first, end - first);
-        return s;
+        return (first, Math.Max(first, end));
     }
 }
 

@@ -31,15 +31,38 @@ internal static unsafe class SweepKernel
 
     /// <summary>Runs up to four stimuli (each sampled per step) from the same initial state; returns spike times per lane.</summary>
     [MethodImpl(MethodImplOptions.AggressiveOptimization)]
-    public static List<double>[] Run(CompiledCell cell, RateTable table, IReadOnlyList<double[]> stimuli, int steps, SimulationSettings settings, CellState init, CancellationToken cancel)
+    public static List<double>[] Run(CompiledCell cell, RateTable table, IReadOnlyList<Stimulus> stimuli, int steps, SimulationSettings settings, CellState init, CancellationToken cancel)
     {
         int lanes = stimuli.Count;
         if (lanes is < 1 or > Width) throw new ArgumentOutOfRangeException(nameof(stimuli));
         int gates = cell.GateCount, channels = cell.ChannelCount;
         double dt = settings.DtMs;
-        var stim = new double[steps * Width];
-        for (int s = 0; s < steps; s++)
-            for (int l = 0; l < Width; l++) stim[s * Width + l] = l < lanes ? stimuli[l][s] : stimuli[0][s];
+        // Steps (the f-I protocol) are computed inline from their on-range; anything else is sampled per step.
+        bool allSteps = stimuli.All(x => x is StepCurrent or NoCurrent);
+        double[] stim = allSteps ? [] : new double[steps * Width];
+        var onFirst = new double[Width];
+        var onEnd = new double[Width];
+        var onValue = new double[Width];
+        var offValue = new double[Width];
+        for (int l = 0; l < Width; l++)
+        {
+            var st = stimuli[l < lanes ? l : 0];
+            if (allSteps)
+            {
+                if (st is StepCurrent sc)
+                {
+                    var (a, b) = sc.OnRange(dt, steps);
+                    (onFirst[l], onEnd[l], onValue[l], offValue[l]) = (a, b, sc.HoldingUaPerCm2 + sc.AmplitudeUaPerCm2, sc.HoldingUaPerCm2);
+                }
+                continue;
+            }
+            var sampled = st.Sample(dt, steps);
+            for (int s = 0; s < steps; s++) stim[s * Width + l] = sampled[s];
+        }
+        var onFirstV = Vector256.Create(onFirst);
+        var onEndV = Vector256.Create(onEnd);
+        var onValueV = Vector256.Create(onValue);
+        var offValueV = Vector256.Create(offValue);
         var quads = table.QuadPointers();
         var x = new Vector256<double>[gates];
         for (int g = 0; g < gates; g++) x[g] = Vector256.Create(init.Gates[g]);
@@ -189,7 +212,16 @@ internal static unsafe class SweepKernel
                         extra = Fma.MultiplyAdd(gc, Driving(mode[c], v, ca), extra);
                     }
                 }
-                var current = Vector256.Load(S + (long)s * Width);
+                Vector256<double> current;
+                if (allSteps)
+                {
+                    var sv = Vector256.Create((double)s);
+                    current = Vector256.ConditionalSelect(Vector256.GreaterThanOrEqual(sv, onFirstV) & Vector256.LessThan(sv, onEndV), onValueV, offValueV);
+                }
+                else
+                {
+                    current = Vector256.Load(S + (long)s * Width);
+                }
                 vPrev = v;
                 var drive = gE + current - extra;
                 var vInf = drive / Vector256.Max(gSum, tiny);
@@ -211,7 +243,7 @@ internal static unsafe class SweepKernel
                 {
                     for (int l = 0; l < lanes; l++)
                         if (!(Math.Abs(v[l]) < 1000))
-                            throw Simulator.BlowUp(cell, (s + 1) * dt, vPrev[l], x.Select(xx => xx[l]).ToArray(), ca[l], stim[s * Width + l]);
+                            throw Simulator.BlowUp(cell, (s + 1) * dt, vPrev[l], x.Select(xx => xx[l]).ToArray(), ca[l], current[l]);
                 }
 
                 if (anyPending || Vector256.GreaterThanOrEqualAny(v, level) || Vector256.GreaterThanOrEqualAny(vPrev, level))

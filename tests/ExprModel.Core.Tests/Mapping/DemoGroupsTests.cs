@@ -52,24 +52,7 @@ public class DemoGroupsTests
         {
             double top = 3 * (readouts.RheobaseUaPerCm2 ?? 1);
             var amps = Enumerable.Range(0, 4).Select(i => top * i / 3).ToArray();
-            IReadOnlyList<FiPoint> simd, scalar;
-            try
-            {
-                Simulator.UseSimd = true;
-                simd = FiCurve.Measure(cell, amps, 500);
-                Simulator.UseSimd = false;
-                scalar = FiCurve.Measure(cell, amps, 500);
-            }
-            finally
-            {
-                Simulator.UseSimd = true;
-            }
-            for (int i = 0; i < amps.Length; i++)
-            {
-                Assert.True(scalar[i].SpikeCount == simd[i].SpikeCount, $"{group} at {amps[i]:G3}: scalar {scalar[i].SpikeCount}, SIMD {simd[i].SpikeCount}");
-                for (int k = 0; k < scalar[i].SpikeTimesMs.Count; k++)
-                    Assert.Equal(scalar[i].SpikeTimesMs[k], simd[i].SpikeTimesMs[k], 1e-6);
-            }
+            Simulation.SimdAgreement.Check(cell, amps, 500, group);
         }
     }
 }

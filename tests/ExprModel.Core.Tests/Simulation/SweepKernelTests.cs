@@ -6,7 +6,6 @@ using ExprModel.Core.Simulation;
 namespace ExprModel.Core.Tests.Simulation;
 
 /// <summary>The SIMD sweep must give the scalar loop's spikes (same scheme; only rounding may differ).</summary>
-[Collection("simd-switch")]
 public class SweepKernelTests
 {
     [Theory]
@@ -17,25 +16,8 @@ public class SweepKernelTests
     {
         var cell = TestCatalog.Preset(preset);
         var amps = Enumerable.Range(0, 7).Select(i => to * i / 6).ToArray();
-        IReadOnlyList<FiPoint> simd, scalar;
-        try
-        {
-            Simulator.UseSimd = true;
-            simd = FiCurve.Measure(cell, amps, 1000);
-            Simulator.UseSimd = false;
-            scalar = FiCurve.Measure(cell, amps, 1000);
-        }
-        finally
-        {
-            Simulator.UseSimd = true;
-        }
+        var scalar = SimdAgreement.Check(cell, amps, 1000, preset);
         Assert.True(scalar.Sum(p => p.SpikeCount) > 20);
-        for (int i = 0; i < amps.Length; i++)
-        {
-            Assert.Equal(scalar[i].SpikeCount, simd[i].SpikeCount);
-            for (int k = 0; k < scalar[i].SpikeTimesMs.Count; k++)
-                Assert.Equal(scalar[i].SpikeTimesMs[k], simd[i].SpikeTimesMs[k], 1e-6);
-        }
     }
 
     [Theory]
@@ -65,25 +47,8 @@ public class SweepKernelTests
         };
         var cell = new CompiledCell(model);
         var amps = new[] { 0.0, 5, 10, 15, 20, 30 };
-        IReadOnlyList<FiPoint> simd, scalar;
-        try
-        {
-            Simulator.UseSimd = true;
-            simd = FiCurve.Measure(cell, amps, 500);
-            Simulator.UseSimd = false;
-            scalar = FiCurve.Measure(cell, amps, 500);
-        }
-        finally
-        {
-            Simulator.UseSimd = true;
-        }
-        Assert.True(scalar.Sum(p => p.SpikeCount) > 20, string.Join(",", scalar.Select(p => p.SpikeCount)) + " / " + string.Join(",", simd.Select(p => p.SpikeCount)));
-        for (int i = 0; i < amps.Length; i++)
-        {
-            Assert.Equal(scalar[i].SpikeCount, simd[i].SpikeCount);
-            for (int k = 0; k < scalar[i].SpikeTimesMs.Count; k++)
-                Assert.Equal(scalar[i].SpikeTimesMs[k], simd[i].SpikeTimesMs[k], 1e-6);
-        }
+        var scalar = SimdAgreement.Check(cell, amps, 500, rule.ToString());
+        Assert.True(scalar.Sum(p => p.SpikeCount) > 20, string.Join(",", scalar.Select(p => p.SpikeCount)));
         // Calcium-activated potassium current slows firing compared with the cell without it.
         var plain = FiCurve.Measure(new CompiledCell(preset), amps, 500);
         Assert.True(plain[^1].SpikeCount > scalar[^1].SpikeCount, $"with SK {scalar[^1].SpikeCount}, without {plain[^1].SpikeCount}");
