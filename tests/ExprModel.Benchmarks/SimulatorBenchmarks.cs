@@ -26,5 +26,5 @@ public class SimulatorBenchmarks
     public int OneSecond() => Simulator.Run(_cell, Protocols.Step(10, 0, 1000), 1000, SimulationSettings.SpikesOnly).SpikeTimesMs.Count;
 
     [Benchmark]
-    public int FiCurve32() => FiCurve.Measure(_cell, 0, Preset == "hh1952" ? 19.375 : 4.0, 32, 1000).Sum(p => p.SpikeCount);
+    public int FiCurve32() => FiCurve.Measure(_cell, 0, Preset == "hh1952" ? 19.375 : 4.0, 32, 1000).Sum(p => p.SpikesInStep);
 }

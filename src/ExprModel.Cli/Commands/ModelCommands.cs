@@ -170,7 +170,7 @@ public static class ModelCommands
                 var arr = new JsonArray(curve.Select(q => (JsonNode)new JsonObject
                 {
                     [col] = CurrentUnits.FromDensity(q.CurrentUaPerCm2, unit, g),
-                    ["spike_count"] = q.SpikeCount,
+                    ["spike_count"] = q.SpikesInStep,
                     ["whole_step_rate_hz"] = q.WholeStepRateHz,
                     ["first_isi_rate_hz"] = q.FirstIsiRateHz,
                     ["late_rate_hz"] = q.LateRateHz,
@@ -183,7 +183,7 @@ public static class ModelCommands
             if (p.GetValue(format) != "csv") throw new CliException("--format must be csv or json.");
             var csv = new CsvTable(Caution(doc), [col, "spike_count", "whole_step_rate_hz", "first_isi_rate_hz", "late_rate_hz", "first_spike_latency_ms"]);
             foreach (var q in curve)
-                csv.Row(CurrentUnits.FromDensity(q.CurrentUaPerCm2, unit, g), q.SpikeCount, q.WholeStepRateHz, q.FirstIsiRateHz, q.LateRateHz, q.FirstSpikeLatencyMs);
+                csv.Row(CurrentUnits.FromDensity(q.CurrentUaPerCm2, unit, g), q.SpikesInStep, q.WholeStepRateHz, q.FirstIsiRateHz, q.LateRateHz, q.FirstSpikeLatencyMs);
             ctx.Emit(csv.ToString(), p.GetValue(common.Out));
             return 0;
         });

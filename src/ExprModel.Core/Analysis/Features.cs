@@ -130,19 +130,36 @@ public static class Features
         IReadOnlyList<FiPoint> extra = [];
         double? gain = null, onsetCurrent = null, onsetRate = null, adaptStep = null, adaptRatio = null, adaptIndex = null, block = null, blockLimit = null;
         int? cls = null;
-        if (rheobase is { } rb)
         {
-            // 5. Spike shape and latency at rheobase.
-            // The search saw when the first spike comes; record only up to 150 ms past it (enough for its shape,
-            // after-hyperpolarisation window and a following spike).
-            double recordMs = knownLatency is { } kl ? Math.Min(100 + s.StepDurationMs, 100 + kl + 150) : 100 + s.StepDurationMs;
-            var at = Simulator.Run(cell, Protocols.Step(rb, 100, s.StepDurationMs), recordMs, sim with { RecordEvery = 1 }, rest, cancel);
-            var inStep = at.SpikeTimesMs.Where(t => t >= 100).ToArray();
-            if (inStep.Length > 0)
+            if (rheobase is { } rb)
             {
-                latency = inStep[0] - 100;
-                shape = SpikeShapes.Measure(at.VoltageMv, dt, 0, inStep[0], inStep.Length > 1 ? inStep[1] : null, s.ThresholdSlopeMvPerMs);
+                // 5. Spike shape and latency at rheobase.
+                // The search saw when the first spike comes; record only up to 150 ms past it (enough for its shape,
+                // after-hyperpolarisation window and a following spike).
+                double recordMs = knownLatency is { } kl ? Math.Min(100 + s.StepDurationMs, 100 + kl + 150) : 100 + s.StepDurationMs;
+                var at = Simulator.Run(cell, Protocols.Step(rb, 100, s.StepDurationMs), recordMs, sim with { RecordEvery = 1 }, rest, cancel);
+                var inStep = at.SpikeTimesMs.Where(t => t >= 100).ToArray();
+                if (inStep.Length > 0)
+                {
+                    latency = inStep[0] - 100;
+                    shape = SpikeShapes.Measure(at.VoltageMv, dt, 0, inStep[0], inStep.Length > 1 ? inStep[1] : null, s.ThresholdSlopeMvPerMs);
+                }
+                // A spike must be regenerative: its upstroke must outrun the passive charging rate of the step (I/C) by
+                // a wide margin. Without this, a large step that merely pushes V past the detection level (a cell with
+                // its sodium switched off) would be given a rheobase.
+                double chargingRate = rb / cell.Model.Geometry.CapacitanceUfPerCm2;
+                if (shape is null || shape.MaxRiseMvPerMs < Math.Max(s.ThresholdSlopeMvPerMs, 3 * chargingRate))
+                {
+                    notes.Add($"Steps up to {rb:G3} uA/cm2 cross the detection level without a regenerative spike (upstroke no faster than passive charging); no rheobase.");
+                    rheobase = null;
+                    shape = null;
+                    latency = null;
+                }
             }
+        }
+        if (rheobase is { } rb2)
+        {
+            double rb = rb2;
             // 6. f-I curve from 0 to a multiple of rheobase.
             // Extra steps (e.g. the batch's standard absolute steps) ride along in the same sweep.
             var grid = Protocols.StepFamily(0, s.FiMaxMultiple * rb, s.FiSteps).Select(p => p.AmplitudeUaPerCm2).ToArray();

@@ -4,12 +4,12 @@ namespace ExprModel.Core.Analysis;
 
 /// <summary>One point of an f-I curve.</summary>
 /// <param name="CurrentUaPerCm2">Step amplitude (uA/cm2).</param>
-/// <param name="SpikeCount">Spikes during the step.</param>
+/// <param name="SpikesInStep">Spikes during the step.</param>
 /// <param name="WholeStepRateHz">Spike count divided by step duration.</param>
 /// <param name="FirstIsiRateHz">Inverse of the first inter-spike interval (0 with fewer than two spikes).</param>
 /// <param name="LateRateHz">Rate over the second half of the step: (n - 1) / (last - first) of the spikes there, 0 with fewer than two.</param>
 /// <param name="FirstSpikeLatencyMs">Time from step onset to the first spike (null if none).</param>
-public sealed record FiPoint(double CurrentUaPerCm2, int SpikeCount, double WholeStepRateHz, double FirstIsiRateHz, double LateRateHz, double? FirstSpikeLatencyMs)
+public sealed record FiPoint(double CurrentUaPerCm2, int SpikesInStep, double WholeStepRateHz, double FirstIsiRateHz, double LateRateHz, double? FirstSpikeLatencyMs)
 {
     public IReadOnlyList<double> SpikeTimesMs { get; init; } = [];
 }
@@ -53,7 +53,7 @@ public static class FiCurve
     /// </summary>
     public static double? Gain(IReadOnlyList<FiPoint> curve)
     {
-        var firing = curve.Where(p => p.SpikeCount > 0).OrderBy(p => p.CurrentUaPerCm2).ToArray();
+        var firing = curve.Where(p => p.SpikesInStep > 0).OrderBy(p => p.CurrentUaPerCm2).ToArray();
         if (firing.Length < 2) return null;
         double onset = firing[0].CurrentUaPerCm2;
         var used = firing.Where(p => p.CurrentUaPerCm2 <= Math.Max(2 * onset, firing[1].CurrentUaPerCm2)).ToArray();

@@ -53,4 +53,10 @@ public sealed record ReadoutSettings
         SettleMs = 300, PassiveStepMs = 300, RheobaseRelativeTolerance = 0.02, RheobaseAbsoluteToleranceUaPerCm2 = 0.005, FiSteps = 8, ClassStepMs = 1000, ClassRelativeTolerance = 0.05,
         IncludeSag = false, IncludeDepolarisationBlock = false,
     };
+
+    /// <summary>
+    /// Read-outs for live updates while a slider moves: the batch settings plus sag. The depolarisation-block search is
+    /// left out (run the full read-outs for it).
+    /// </summary>
+    public static ReadoutSettings Live { get; } = Batch with { IncludeSag = true };
 }

@@ -70,7 +70,7 @@ public static class RheobaseSearch
             // Only "any spike in the step" matters here, so each run may end at its first spike.
             var fi = FiCurve.Measure(cell, amps, s.StepDurationMs, rest, s.Simulation with { StopAtFirstSpikeAfterMs = FiCurve.DefaultDelayMs }, cancel);
             foreach (var p in fi) if (p.FirstSpikeLatencyMs is { } l) latency[p.CurrentUaPerCm2] = l;
-            return fi.Select(p => p.SpikeCount > 0).ToArray();
+            return fi.Select(p => p.SpikesInStep > 0).ToArray();
         }, startUaPerCm2, maxUaPerCm2, s.RheobaseAbsoluteToleranceUaPerCm2, s.RheobaseRelativeTolerance, cancel);
         return (bracket, bracket is not null && latency.TryGetValue(bracket.AtOrAboveUaPerCm2, out var t) ? t : null);
     }

@@ -18,7 +18,7 @@ public static class ReadoutJson
         var fi = new JsonArray(r.FiCurve.Select(p => (JsonNode)new JsonObject
         {
             ["amplitude"] = CurrentUnits.FromDensity(p.CurrentUaPerCm2, unit, g),
-            ["spike_count"] = p.SpikeCount,
+            ["spike_count"] = p.SpikesInStep,
             ["whole_step_rate_hz"] = p.WholeStepRateHz,
             ["first_isi_rate_hz"] = p.FirstIsiRateHz,
             ["late_rate_hz"] = p.LateRateHz,

@@ -23,7 +23,7 @@ public static class CsvExport
     public static string Fi(string modelName, IReadOnlyList<FiRow> rows)
     {
         var t = new CsvTable(Comments(modelName), ["current_ua_per_cm2", "spike_count", "whole_step_rate_hz", "first_isi_rate_hz", "late_rate_hz"]);
-        foreach (var r in rows) t.Row(r.CurrentUaPerCm2, r.SpikeCount, r.WholeStepRateHz, r.FirstIsiRateHz, r.LateRateHz);
+        foreach (var r in rows) t.Row(r.CurrentUaPerCm2, r.SpikesInStep, r.WholeStepRateHz, r.FirstIsiRateHz, r.LateRateHz);
         return t.ToString();
     }
 

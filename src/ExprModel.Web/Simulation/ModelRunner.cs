@@ -110,17 +110,18 @@ public sealed class ModelRunner(ChannelCatalog catalog, SimulationGate gate)
 
     public static IReadOnlyList<FiRow> Fi(CompiledCell cell, FiProtocol fi, CancellationToken cancel) =>
         FiCurve.Measure(cell, fi.FromUaPerCm2, fi.ToUaPerCm2, fi.Steps, fi.DurationMs, null, null, cancel)
-            .Select(p => new FiRow(p.CurrentUaPerCm2, p.SpikeCount, p.WholeStepRateHz, p.FirstIsiRateHz, p.LateRateHz)).ToArray();
+            .Select(p => new FiRow(p.CurrentUaPerCm2, p.SpikesInStep, p.WholeStepRateHz, p.FirstIsiRateHz, p.LateRateHz)).ToArray();
 
     /// <summary>Every read-out of the library's one feature extractor, as table rows.</summary>
     public static ReadoutSet Readouts(CompiledCell cell, CancellationToken cancel)
     {
         try
         {
-            var r = Features.Measure(cell, null, cancel);
+            // Live settings (2 % tolerances, no block search) keep slider updates quick; `exprmodel features` runs the full set.
+            var r = Features.Measure(cell, ReadoutSettings.Live, cancel);
             return new ReadoutSet(r.Rows().Select(x => new ReadoutRow(x.Name, x.Unit, x.Value)).ToArray(), r.Notes)
             {
-                Fi = r.FiCurve.Select(p => new FiRow(p.CurrentUaPerCm2, p.SpikeCount, p.WholeStepRateHz, p.FirstIsiRateHz, p.LateRateHz)).ToArray(),
+                Fi = r.FiCurve.Select(p => new FiRow(p.CurrentUaPerCm2, p.SpikesInStep, p.WholeStepRateHz, p.FirstIsiRateHz, p.LateRateHz)).ToArray(),
             };
         }
         catch (SimulationBlowUpException e)

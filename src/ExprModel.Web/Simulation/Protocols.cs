@@ -49,4 +49,4 @@ public sealed record ReadoutSet(IReadOnlyList<ReadoutRow> Rows, IReadOnlyList<st
 }
 
 /// <summary>One point of an f-I curve as the plots, CSV and API carry it.</summary>
-public sealed record FiRow(double CurrentUaPerCm2, int SpikeCount, double WholeStepRateHz, double FirstIsiRateHz, double LateRateHz);
+public sealed record FiRow(double CurrentUaPerCm2, int SpikesInStep, double WholeStepRateHz, double FirstIsiRateHz, double LateRateHz);

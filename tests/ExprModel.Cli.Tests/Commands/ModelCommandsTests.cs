@@ -6,7 +6,7 @@ namespace ExprModel.Cli.Tests.Commands;
 public class ModelCommandsTests
 {
     [Fact]
-    public void FiWritesHeaderAmplitudeFirstAndSpikeCount()
+    public void FiWritesHeaderAmplitudeFirstAndSpikesInStep()
     {
         var (exit, stdout, err) = CliRunner.Run("fi", "--preset", "hh1952", "--from", "0", "--to", "19.375", "--steps", "32", "--duration", "1000", "--format", "csv");
         Assert.True(exit == 0, err);

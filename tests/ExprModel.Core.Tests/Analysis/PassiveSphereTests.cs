@@ -39,4 +39,16 @@ public class PassiveSphereTests
         var c = Geometry.FromCapacitance(10); // 10 pF at 1 uF/cm2 = 1000 um2
         Assert.Equal(1000, c.AreaUm2, 9);
     }
+
+    [Fact]
+    public void ACellWithoutSodiumHasNoRheobase()
+    {
+        // Without a regenerative inward current there is no action potential (Hodgkin & Huxley 1952), however far a
+        // large step pushes V past the detection level.
+        var doc = TestCatalog.Catalog.Preset("wb1996").WithRelativeDensities(new Dictionary<string, double> { ["wb-na-1996"] = 0 });
+        var r = Features.Measure(new CompiledCell(TestCatalog.Catalog.BuildCell(doc)), ReadoutSettings.Live);
+        Assert.Null(r.RheobaseUaPerCm2);
+        Assert.Null(r.ThresholdMv);
+        Assert.NotNull(r.InputResistanceMOhm);
+    }
 }

@@ -17,7 +17,7 @@ public class SweepKernelTests
         var cell = TestCatalog.Preset(preset);
         var amps = Enumerable.Range(0, 7).Select(i => to * i / 6).ToArray();
         var scalar = SimdAgreement.Check(cell, amps, 1000, preset);
-        Assert.True(scalar.Sum(p => p.SpikeCount) > 20);
+        Assert.True(scalar.Sum(p => p.SpikesInStep) > 20);
     }
 
     [Theory]
@@ -48,10 +48,10 @@ public class SweepKernelTests
         var cell = new CompiledCell(model);
         var amps = new[] { 0.0, 5, 10, 15, 20, 30 };
         var scalar = SimdAgreement.Check(cell, amps, 500, rule.ToString());
-        Assert.True(scalar.Sum(p => p.SpikeCount) > 20, string.Join(",", scalar.Select(p => p.SpikeCount)));
+        Assert.True(scalar.Sum(p => p.SpikesInStep) > 20, string.Join(",", scalar.Select(p => p.SpikesInStep)));
         // Calcium-activated potassium current slows firing compared with the cell without it.
         var plain = FiCurve.Measure(new CompiledCell(preset), amps, 500);
-        Assert.True(plain[^1].SpikeCount > scalar[^1].SpikeCount, $"with SK {scalar[^1].SpikeCount}, without {plain[^1].SpikeCount}");
+        Assert.True(plain[^1].SpikesInStep > scalar[^1].SpikesInStep, $"with SK {scalar[^1].SpikesInStep}, without {plain[^1].SpikesInStep}");
     }
 }
 

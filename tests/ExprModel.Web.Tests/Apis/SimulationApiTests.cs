@@ -24,7 +24,7 @@ public sealed class SimulationApiTests(AppFactory factory) : ApiTestBase(factory
         var body = await Json(await Client.PostAsJsonAsync("/api/fi", new { model = Preset("wb1996"), fi = new { fromUaPerCm2 = 0, toUaPerCm2 = 4, steps = 5, durationMs = 500 } }));
         var pts = body.GetProperty("points").EnumerateArray().ToList();
         Assert.Equal(5, pts.Count);
-        Assert.Equal(0, pts[0].GetProperty("spikeCount").GetInt32());
+        Assert.Equal(0, pts[0].GetProperty("spikesInStep").GetInt32());
         Assert.True(pts[4].GetProperty("wholeStepRateHz").GetDouble() > pts[1].GetProperty("wholeStepRateHz").GetDouble());
     }
 
