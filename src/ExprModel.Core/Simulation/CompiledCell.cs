@@ -149,13 +149,17 @@ public sealed class CompiledCell
     internal double ChannelCurrent(int c, double vMv, ReadOnlySpan<double> gates, double calciumMm)
     {
         double g = Conductance(c, gates);
-        return Mode[c] switch
-        {
-            DriveMode.Ohmic => g * (vMv - Erev[c]),
-            DriveMode.NernstCalcium => g * (vMv - Nernst.PotentialMv(CalciumOutsideMm, Math.Max(calciumMm, 1e-9), 2, TemperatureC)),
-            _ => g * Nernst.GhkDrivingMv(vMv, Math.Max(calciumMm, 1e-9), CalciumOutsideMm, 2, TemperatureC),
-        };
+        if (Mode[c] == DriveMode.Ohmic) return g * (vMv - Erev[c]);
+        double eCa = Mode[c] == DriveMode.NernstCalcium ? Nernst.PotentialMv(CalciumOutsideMm, Math.Max(calciumMm, 1e-9), 2, TemperatureC) : 0;
+        return g * CalciumDrivingMv(Mode[c], vMv, calciumMm, eCa);
     }
+
+    /// <summary>
+    /// Driving term (mV) of a calcium channel: V - E_Ca (Nernst of shell calcium, passed in so a loop can compute it
+    /// once per step) or the scaled GHK term. The one scalar definition, used here and by the scalar hot loop.
+    /// </summary>
+    internal double CalciumDrivingMv(DriveMode mode, double vMv, double calciumMm, double eCaMv) =>
+        mode == DriveMode.NernstCalcium ? vMv - eCaMv : Nernst.GhkDrivingMv(vMv, Math.Max(calciumMm, 1e-9), CalciumOutsideMm, 2, TemperatureC);
 
     /// <summary>Total calcium current (uA/cm2) for the shell.</summary>
     internal double CalciumCurrent(double vMv, ReadOnlySpan<double> gates, double calciumMm)

@@ -125,7 +125,7 @@ public static class Simulator
             var caRates = Enumerable.Range(0, gateCount).Select(cell.GateHasCalciumRates).ToArray();
             var carriesCalcium = cell.Model.Channels.Select(ch => ch.Entry.Ion == Kinetics.Ion.Calcium).ToArray();
             bool anyNernstCalcium = cell.Mode.Any(m => m == DriveMode.NernstCalcium);
-            var ghk = new CalciumConstants(Kinetics.Nernst.ThermalVoltageMv(cell.TemperatureC, 2), cell.CalciumOutsideMm);
+            double caThermalMv = Kinetics.Nernst.ThermalVoltageMv(cell.TemperatureC, 2), caOutsideMm = cell.CalciumOutsideMm;
             double vPrevious = v;
             bool anySpecial = mode.Any(m => m != DriveMode.Ohmic);
             double cm = cell.CapacitanceUfPerCm2;
@@ -191,7 +191,7 @@ public static class Simulator
 
                 double gSum = 0, gE = 0, extra = 0;
                 // One Nernst potential of shell calcium per step, shared by every calcium channel and the shell update.
-                double eCa = anyNernstCalcium ? ghk.ThermalMv * Math.Log(ghk.OutsideMm / Math.Max(ca, 1e-9)) : 0;
+                double eCa = anyNernstCalcium ? caThermalMv * Math.Log(caOutsideMm / Math.Max(ca, 1e-9)) : 0;
                 for (int c = 0; c < channelCount; c++)
                 {
                     double gc = gbar[c];
@@ -209,7 +209,7 @@ public static class Simulator
                     }
                     else
                     {
-                        extra += gc * CalciumDrive(mode[c], v, ca, eCa, ghk);
+                        extra += gc * cell.CalciumDrivingMv(mode[c], v, ca, eCa);
                     }
                 }
                 double iStim = stim is not null ? stim[s] : s >= onFirst && s < onEnd ? onValue : offValue;
@@ -229,7 +229,7 @@ public static class Simulator
                 {
                     double vMid = 0.5 * (v + vOld), ica = 0;
                     for (int c = 0; c < channelCount; c++)
-                        if (carriesCalcium[c]) ica += g[c] * (mode[c] == DriveMode.Ohmic ? vMid - erev[c] : CalciumDrive(mode[c], vMid, ca, eCa, ghk));
+                        if (carriesCalcium[c]) ica += g[c] * (mode[c] == DriveMode.Ohmic ? vMid - erev[c] : cell.CalciumDrivingMv(mode[c], vMid, ca, eCa));
                     double caInf = shellRest - shellGain * ica;
                     ca = caInf + (ca - caInf) * shellDecay;
                     if (ca < 0) ca = 0;
@@ -271,17 +271,6 @@ public static class Simulator
                 FinalState = new CellState(v, x, ca),
                 DurationMs = steps * dt,
             };
-        }
-
-        private readonly record struct CalciumConstants(double ThermalMv, double OutsideMm);
-
-        /// <summary>Driving term (mV) of a calcium channel, as <see cref="CompiledCell.ChannelCurrent"/> computes it.</summary>
-        private static double CalciumDrive(DriveMode m, double v, double ca, double eCa, CalciumConstants k)
-        {
-            if (m == DriveMode.NernstCalcium) return v - eCa;
-            double ci = Math.Max(ca, 1e-9), u = v / k.ThermalMv, e = Math.Exp(-u);
-            double linear = Math.Abs(u) < 1e-6 ? k.ThermalMv * (1 + u / 2) : v / (1 - e);
-            return linear * (ci / k.OutsideMm - e);
         }
 
         private static void RecordCurrents(CompiledCell cell, double[][] currents, int r, double v, double[] x, double ca)
