@@ -6,11 +6,12 @@ namespace ExprModel.EndToEnd.Tests;
 [Collection("app")]
 public sealed class WorkbenchTests(AppFixture app)
 {
+    /// <summary>How many times every read-out has been measured (first-stage updates, shown while the f-I curve runs, do not count).</summary>
     internal static async Task<int> UpdateCount(IPage page) =>
-        int.Parse(await page.Locator("[data-testid=readouts]").GetAttributeAsync("data-update") ?? "0");
+        int.Parse(await page.Locator("[data-testid=readouts]").GetAttributeAsync("data-complete-update") ?? "0");
 
     internal static async Task WaitForUpdateAfter(IPage page, int before) =>
-        await page.WaitForFunctionAsync($"() => Number(document.querySelector('[data-testid=readouts]')?.dataset.update ?? 0) > {before}");
+        await page.WaitForFunctionAsync($"() => Number(document.querySelector('[data-testid=readouts]')?.dataset.completeUpdate ?? 0) > {before}");
 
     internal static async Task<Dictionary<string, string>> ReadoutValues(IPage page, string column = "now")
     {

@@ -35,6 +35,18 @@ public sealed record CellReadouts
     public double? BlockSearchLimitUaPerCm2 { get; init; }
     public double AreaUm2 { get; init; }
     public IReadOnlyList<string> Notes { get; init; } = [];
+    /// <summary>False for a first stage (<see cref="Features.MeasureFirst"/>): the f-I curve and what depends on it are still to come.</summary>
+    public bool IsComplete { get; init; } = true;
+    /// <summary>The settled state at zero current that every protocol starts from (kept for the second stage).</summary>
+    [System.Text.Json.Serialization.JsonIgnore]
+    public CellState? RestState { get; init; }
+
+    /// <summary>Names (as in <see cref="Rows"/>) of the read-outs that only the second stage (<see cref="Features.Complete"/>) measures.</summary>
+    public static IReadOnlySet<string> SecondStageNames { get; } = new HashSet<string>(StringComparer.Ordinal)
+    {
+        "fi_gain", "fi_gain_absolute", "sustained_firing_onset", "onset_rate", "excitability_class", "adaptation_step", "adaptation_ratio",
+        "adaptation_index", "depolarisation_block_onset",
+    };
 
     /// <summary>Every scalar read-out as (name, unit, value) rows, in a fixed order, for tables and CSV.</summary>
     public IEnumerable<(string Name, string Unit, double? Value)> Rows()
@@ -68,7 +80,16 @@ public sealed record CellReadouts
 /// <summary>The one feature extractor, used by the CLI, the web app and the tests alike.</summary>
 public static class Features
 {
-    public static CellReadouts Measure(CompiledCell cell, ReadoutSettings? settings = null, CancellationToken cancel = default)
+    public static CellReadouts Measure(CompiledCell cell, ReadoutSettings? settings = null, CancellationToken cancel = default) =>
+        Complete(cell, MeasureFirst(cell, settings, cancel), settings, cancel);
+
+    /// <summary>
+    /// The first stage of the read-outs: rest, passive properties, sag, rheobase and the spike at rheobase. Its result
+    /// has <see cref="CellReadouts.IsComplete"/> false; <see cref="Complete"/> adds the f-I curve and what depends on it.
+    /// The Workbench shows this stage as soon as it is done.
+    /// </summary>
+    /// <param name="rheobaseHint">An earlier rheobase of a similar cell: the search starts there (same answer, fewer rounds).</param>
+    public static CellReadouts MeasureFirst(CompiledCell cell, ReadoutSettings? settings = null, CancellationToken cancel = default, double? rheobaseHint = null)
     {
         var s = settings ?? ReadoutSettings.Default;
         var sim = s.Simulation;
@@ -121,15 +142,11 @@ public static class Features
         // Search up to the current that would hold a passive membrane 150 mV above rest (beyond that the model
         // leaves any physiological range), and never past 200 uA/cm2 (10 nA on 5000 um2).
         double maxSearch = Math.Min(gSlope * 150, 200);
-        var (rheo, knownLatency) = firesAtRest ? (null, null) : RheobaseSearch.Rheobase(cell, rest, gSlope * 5, maxSearch, s, cancel);
+        var (rheo, knownLatency) = firesAtRest ? (null, null) : RheobaseSearch.Rheobase(cell, rest, gSlope * 5, maxSearch, s, cancel, rheobaseHint);
         if (!firesAtRest && rheo is null) notes.Add($"No spike for steps up to {maxSearch:G3} uA/cm2.");
         double? rheobase = rheo?.AtOrAboveUaPerCm2;
         SpikeShape? shape = null;
         double? latency = null;
-        IReadOnlyList<FiPoint> fi = [];
-        IReadOnlyList<FiPoint> extra = [];
-        double? gain = null, onsetCurrent = null, onsetRate = null, adaptStep = null, adaptRatio = null, adaptIndex = null, block = null, blockLimit = null;
-        int? cls = null;
         {
             if (rheobase is { } rb)
             {
@@ -157,7 +174,47 @@ public static class Features
                 }
             }
         }
-        if (rheobase is { } rb2)
+        return new CellReadouts
+        {
+            RestingPotentialMv = restMv,
+            FiresAtRest = firesAtRest,
+            InputResistanceMOhm = rin,
+            MembraneTimeConstantMs = tau,
+            SagRatio = sag,
+            RheobaseUaPerCm2 = rheobase,
+            RheobasePa = rheobase is { } r ? cell.Model.Geometry.DensityToPicoamps(r) : null,
+            RheobaseToleranceUaPerCm2 = rheobase is null ? null : rheo?.ToleranceUaPerCm2,
+            ThresholdMv = shape?.ThresholdMv,
+            PeakMv = shape?.PeakMv,
+            AmplitudeMv = shape?.AmplitudeMv,
+            HalfWidthMs = shape is { } sh && !double.IsNaN(sh.HalfWidthMs) ? sh.HalfWidthMs : null,
+            AfterHyperpolarisationMv = shape?.AfterHyperpolarisationMv,
+            MaxRiseMvPerMs = shape?.MaxRiseMvPerMs,
+            FirstSpikeLatencyMs = latency,
+            AreaUm2 = area,
+            Notes = notes,
+            RestState = rest,
+            IsComplete = false,
+        };
+    }
+
+    /// <summary>
+    /// The second stage: the f-I curve from 0 to a multiple of rheobase, its gain, the excitability class, adaptation
+    /// and (when the settings ask) the depolarisation-block search, added to a first stage's result.
+    /// </summary>
+    public static CellReadouts Complete(CompiledCell cell, CellReadouts first, ReadoutSettings? settings = null, CancellationToken cancel = default)
+    {
+        if (first.IsComplete) return first;
+        var s = settings ?? ReadoutSettings.Default;
+        var sim = s.Simulation;
+        var rest = first.RestState ?? throw new ArgumentException("the first stage's result carries no rest state", nameof(first));
+        double area = first.AreaUm2;
+        var notes = first.Notes.ToList();
+        IReadOnlyList<FiPoint> fi = [];
+        IReadOnlyList<FiPoint> extra = [];
+        double? gain = null, onsetCurrent = null, onsetRate = null, adaptStep = null, adaptRatio = null, adaptIndex = null, block = null, blockLimit = null;
+        int? cls = null;
+        if (first.RheobaseUaPerCm2 is { } rb2)
         {
             double rb = rb2;
             // 6. f-I curve from 0 to a multiple of rheobase.
@@ -172,8 +229,8 @@ public static class Features
             (double, double)? known = null;
             if (s.ClassStepMs == s.StepDurationMs)
             {
-                int first = fi.ToList().FindIndex(p => p.LateRateHz > 0);
-                if (first > 0 && fi.Skip(first).All(p => p.LateRateHz > 0)) known = (fi[first - 1].CurrentUaPerCm2, fi[first].CurrentUaPerCm2);
+                int firstLate = fi.ToList().FindIndex(p => p.LateRateHz > 0);
+                if (firstLate > 0 && fi.Skip(firstLate).All(p => p.LateRateHz > 0)) known = (fi[firstLate - 1].CurrentUaPerCm2, fi[firstLate].CurrentUaPerCm2);
             }
             var sustained = RheobaseSearch.FindOnset(amps =>
             {
@@ -213,23 +270,8 @@ public static class Features
             }
         }
 
-        return new CellReadouts
+        return first with
         {
-            RestingPotentialMv = restMv,
-            FiresAtRest = firesAtRest,
-            InputResistanceMOhm = rin,
-            MembraneTimeConstantMs = tau,
-            SagRatio = sag,
-            RheobaseUaPerCm2 = rheobase,
-            RheobasePa = rheobase is { } r ? cell.Model.Geometry.DensityToPicoamps(r) : null,
-            RheobaseToleranceUaPerCm2 = rheo?.ToleranceUaPerCm2,
-            ThresholdMv = shape?.ThresholdMv,
-            PeakMv = shape?.PeakMv,
-            AmplitudeMv = shape?.AmplitudeMv,
-            HalfWidthMs = shape is { } sh && !double.IsNaN(sh.HalfWidthMs) ? sh.HalfWidthMs : null,
-            AfterHyperpolarisationMv = shape?.AfterHyperpolarisationMv,
-            MaxRiseMvPerMs = shape?.MaxRiseMvPerMs,
-            FirstSpikeLatencyMs = latency,
             FiCurve = fi,
             FiGainHzPerUaPerCm2 = gain,
             FiGainHzPerNa = gain is { } g ? g / (area * 1e-5) : null,
@@ -241,9 +283,9 @@ public static class Features
             AdaptationIndex = adaptIndex,
             DepolarisationBlockUaPerCm2 = block,
             BlockSearchLimitUaPerCm2 = blockLimit,
-            AreaUm2 = area,
             Notes = notes,
             ExtraSteps = extra,
+            IsComplete = true,
         };
     }
 

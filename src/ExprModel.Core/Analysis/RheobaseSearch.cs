@@ -7,62 +7,173 @@ namespace ExprModel.Core.Analysis;
 /// for every larger amplitude in the bracket. Each round tests several amplitudes in parallel (one lane per core)
 /// and keeps the sub-interval that contains the onset: bisection generalised to k sections.
 /// </summary>
+/// <remarks>
+/// Amplitudes are taken from a fixed grid (<see cref="OnsetGrid"/>) whose spacing is the stated tolerance, and the
+/// answer is the first grid point at which the property holds. So the answer does not depend on where the search
+/// starts: a search seeded with a nearby earlier answer (the Workbench's live read-outs) returns what a cold
+/// search returns, in fewer rounds, whenever the property is monotone in the amplitude.
+/// </remarks>
 public static class RheobaseSearch
 {
     /// <summary>Result of an onset search: the largest amplitude without and the smallest with the property.</summary>
     public sealed record Bracket(double BelowUaPerCm2, double AtOrAboveUaPerCm2, double ToleranceUaPerCm2);
 
     /// <summary>Amplitudes tested per round: two SIMD groups of four per core keeps every core busy.</summary>
-    private static int ProbesPerRound => Math.Max(4, 4 * Environment.ProcessorCount) - 1 + 1;
+    private static int ProbesPerRound => Math.Max(4, 4 * Environment.ProcessorCount);
 
-    public static Bracket? FindOnset(Func<IReadOnlyList<double>, bool[]> holds, double startUaPerCm2, double maxUaPerCm2,
-        double absoluteTolerance, double relativeTolerance, CancellationToken cancel = default, (double Below, double Above)? known = null)
+    /// <summary>
+    /// The amplitude grid: evenly spaced by the absolute tolerance up to n0 = ceil(1/relative) points, then
+    /// geometric with ratio (1 + relative); neighbours are never further apart than max(absolute, relative x).
+    /// </summary>
+    public sealed class OnsetGrid
     {
-        // Grow geometrically until the property holds (unless a bracket is already known).
-        double lo = 0, hi = Math.Max(startUaPerCm2, 1e-4);
+        private readonly double _step, _relative, _corner, _logRatio;
+        private readonly long _cornerIndex;
+
+        public OnsetGrid(double absoluteTolerance, double relativeTolerance)
+        {
+            if (!(absoluteTolerance > 0) || !(relativeTolerance > 0)) throw new ArgumentOutOfRangeException(nameof(absoluteTolerance), "onset search tolerances must be positive");
+            _step = absoluteTolerance;
+            _relative = relativeTolerance;
+            _cornerIndex = (long)Math.Ceiling(1 / relativeTolerance);
+            _corner = _cornerIndex * absoluteTolerance;
+            _logRatio = Math.Log(1 + relativeTolerance);
+        }
+
+        public double At(long n) => n <= _cornerIndex ? n * _step : _corner * Math.Exp((n - _cornerIndex) * _logRatio);
+
+        /// <summary>The first grid index whose amplitude is at or above <paramref name="x"/>.</summary>
+        public long Ceiling(double x)
+        {
+            if (x <= 0) return 0;
+            long n = x <= _corner ? (long)Math.Ceiling(x / _step) : _cornerIndex + (long)Math.Ceiling(Math.Log(x / _corner) / _logRatio);
+            // Guard the rounding of the logarithm: step to the exact first point at or above x.
+            while (n > 0 && At(n - 1) >= x) n--;
+            while (At(n) < x) n++;
+            return n;
+        }
+
+        /// <summary>The last grid index whose amplitude is at or below <paramref name="x"/>.</summary>
+        public long Floor(double x)
+        {
+            long n = Ceiling(x);
+            return At(n) > x ? n - 1 : n;
+        }
+    }
+
+    /// <param name="known">A bracket already established (property fails at Below, holds at Above).</param>
+    /// <param name="hint">An amplitude near the expected onset (for example the answer for a slightly different cell):
+    /// the first round probes the grid points around it. It changes the work done, not the answer.</param>
+    public static Bracket? FindOnset(Func<IReadOnlyList<double>, bool[]> holds, double startUaPerCm2, double maxUaPerCm2,
+        double absoluteTolerance, double relativeTolerance, CancellationToken cancel = default, (double Below, double Above)? known = null,
+        double? hint = null)
+    {
+        var grid = new OnsetGrid(absoluteTolerance, relativeTolerance);
+        long max = grid.Floor(maxUaPerCm2 * 1.000001);
+        int lanes = ProbesPerRound;
+        // Invariant once bracketed: the property fails at lo (index 0 is zero current, assumed to fail) and holds at hi.
+        long lo = 0, hi;
+        bool[] Test(long[] idx)
+        {
+            cancel.ThrowIfCancellationRequested();
+            return holds(idx.Select(grid.At).ToArray());
+        }
+
         if (known is { } k)
         {
-            lo = k.Below;
-            hi = k.Above;
+            lo = Math.Max(0, grid.Floor(k.Below));
+            hi = grid.Ceiling(k.Above);
         }
-        while (known is null)
+        else if (hint is { } h && h > 0 && grid.Ceiling(h) <= max)
         {
-            cancel.ThrowIfCancellationRequested();
-            var probes = Enumerable.Range(0, ProbesPerRound).Select(k => hi * Math.Pow(1.3, k)).Where(x => x <= maxUaPerCm2 * 1.000001).ToArray();
-            if (probes.Length == 0) return null;
-            var ok = holds(probes);
-            int first = Array.IndexOf(ok, true);
-            if (first >= 0)
+            // Seeded: consecutive grid points around the hint; a neighbouring pair settles the answer in one round.
+            long centre = grid.Ceiling(h);
+            long first = Math.Max(1, centre - lanes / 2);
+            var idx = Enumerable.Range(0, lanes).Select(i => first + i).Where(n => n <= max).ToArray();
+            var ok = Test(idx);
+            int at = Array.IndexOf(ok, true);
+            if (at > 0) return Result(grid, idx[at - 1], idx[at]);
+            if (at == 0)
             {
-                hi = probes[first];
-                lo = first == 0 ? lo : probes[first - 1];
-                break;
+                // Holds everywhere in the window: widen downwards by doubling distances until it fails.
+                hi = idx[0];
+                var down = Enumerable.Range(0, lanes).Select(i => hi - (2L << i)).Where(n => n > 0).ToArray();
+                if (down.Length > 0)
+                {
+                    var okDown = Test(down);
+                    int fail = Array.IndexOf(okDown, false);
+                    if (fail >= 0) { lo = down[fail]; hi = fail == 0 ? hi : down[fail - 1]; }
+                    else hi = down[^1];
+                }
             }
-            lo = probes[^1];
-            hi = probes[^1] * 1.3;
-            if (lo >= maxUaPerCm2) return null;
-            hi = Math.Min(hi, maxUaPerCm2);
+            else
+            {
+                lo = idx[^1];
+                if (lo >= max) return null;
+                // Fails everywhere in the window: widen upwards by doubling distances until it holds.
+                var up = Enumerable.Range(0, lanes).Select(i => lo + (2L << i)).Select(n => Math.Min(n, max)).Distinct().ToArray();
+                var okUp = Test(up);
+                int hold = Array.IndexOf(okUp, true);
+                if (hold < 0) return up[^1] >= max ? null : Grow(grid.At(up[^1]) * 1.3, up[^1]);
+                hi = up[hold];
+                lo = hold == 0 ? lo : up[hold - 1];
+            }
         }
-        int lanes = ProbesPerRound;
-        while (hi - lo > Math.Max(absoluteTolerance, relativeTolerance * hi))
+        else
         {
-            cancel.ThrowIfCancellationRequested();
-            var probes = Enumerable.Range(1, lanes).Select(i => lo + (hi - lo) * i / (lanes + 1)).ToArray();
-            var ok = holds(probes);
-            int first = Array.IndexOf(ok, true);
-            double newLo = first < 0 ? probes[^1] : first == 0 ? lo : probes[first - 1];
-            double newHi = first < 0 ? hi : probes[first];
-            lo = newLo;
-            hi = newHi;
+            return Grow(Math.Max(startUaPerCm2, grid.At(1)), 0);
         }
-        return new Bracket(lo, hi, Math.Max(absoluteTolerance, relativeTolerance * hi));
+        return Narrow(lo, hi);
+
+        // Grow geometrically (x 1.3 per probe) from an amplitude until the property holds, then narrow; the property
+        // is known to fail at grid index 'low'.
+        Bracket? Grow(double from, long low)
+        {
+            double next = from;
+            while (true)
+            {
+                var idx = Enumerable.Range(0, lanes).Select(i => grid.Ceiling(next * Math.Pow(1.3, i))).Where(n => n <= max).Distinct().ToArray();
+                if (idx.Length == 0) return null;
+                var ok = Test(idx);
+                int first = Array.IndexOf(ok, true);
+                if (first >= 0) return Narrow(first == 0 ? low : idx[first - 1], idx[first]);
+                low = idx[^1];
+                if (low >= max) return null;
+                next = grid.At(low) * 1.3;
+            }
+        }
+
+        // k-section on grid indices until the bracket is one grid step wide.
+        Bracket Narrow(long below, long above)
+        {
+            while (above - below > 1)
+            {
+                long gap = above - below;
+                var idx = gap - 1 <= lanes
+                    ? Enumerable.Range(1, (int)(gap - 1)).Select(i => below + i).ToArray()
+                    : Enumerable.Range(1, lanes).Select(i => below + (long)Math.Round((double)gap * i / (lanes + 1))).Distinct().ToArray();
+                var ok = Test(idx);
+                int first = Array.IndexOf(ok, true);
+                if (first < 0) below = idx[^1];
+                else
+                {
+                    above = idx[first];
+                    if (first > 0) below = idx[first - 1];
+                }
+            }
+            return Result(grid, below, above);
+        }
     }
+
+    private static Bracket Result(OnsetGrid grid, long below, long above) =>
+        new(grid.At(below), grid.At(above), grid.At(above) - grid.At(below));
 
     /// <summary>
     /// Rheobase: the smallest step that evokes at least one spike. Also returns the first spike time (ms from step
     /// onset) at that amplitude, so the spike-shape run can stop soon after it.
     /// </summary>
-    public static (Bracket? Bracket, double? LatencyMs) Rheobase(CompiledCell cell, CellState rest, double startUaPerCm2, double maxUaPerCm2, ReadoutSettings s, CancellationToken cancel = default)
+    public static (Bracket? Bracket, double? LatencyMs) Rheobase(CompiledCell cell, CellState rest, double startUaPerCm2, double maxUaPerCm2, ReadoutSettings s,
+        CancellationToken cancel = default, double? hint = null)
     {
         var latency = new Dictionary<double, double>();
         var bracket = FindOnset(amps =>
@@ -71,7 +182,7 @@ public static class RheobaseSearch
             var fi = FiCurve.Measure(cell, amps, s.StepDurationMs, rest, s.Simulation with { StopAtFirstSpikeAfterMs = FiCurve.DefaultDelayMs }, cancel);
             foreach (var p in fi) if (p.FirstSpikeLatencyMs is { } l) latency[p.CurrentUaPerCm2] = l;
             return fi.Select(p => p.SpikesInStep > 0).ToArray();
-        }, startUaPerCm2, maxUaPerCm2, s.RheobaseAbsoluteToleranceUaPerCm2, s.RheobaseRelativeTolerance, cancel);
+        }, startUaPerCm2, maxUaPerCm2, s.RheobaseAbsoluteToleranceUaPerCm2, s.RheobaseRelativeTolerance, cancel, hint: hint);
         return (bracket, bracket is not null && latency.TryGetValue(bracket.AtOrAboveUaPerCm2, out var t) ? t : null);
     }
 }

@@ -14,8 +14,9 @@ public sealed class UserInputException(string message) : Exception(message);
 /// </summary>
 public sealed class ModelRunner(ChannelCatalog catalog, SimulationGate gate)
 {
-    /// <summary>Samples kept per plotted voltage trace (min/max per bucket, so spike peaks survive).</summary>
-    public const int PlotBuckets = 1500;
+    /// <summary>Buckets per plotted voltage trace (each keeps its min and max, so spike peaks survive): about two per pixel of
+    /// the Workbench plot and of its PNG export. The CSV export has every sample.</summary>
+    public const int PlotBuckets = 700;
 
     public ChannelCatalog Catalog => catalog;
 
@@ -83,9 +84,39 @@ public sealed class ModelRunner(ChannelCatalog catalog, SimulationGate gate)
         var key = doc.ToJson();
         if (useCache && _cache.TryGetValue(key, out var hit)) return hit;
         var set = await gate.RunAsync(token => Readouts(cell, token), cancel);
+        Remember(key, set);
+        return set;
+    }
+
+    /// <summary>
+    /// The Workbench's live read-outs, first stage: rest, passive properties, sag, rheobase and the spike at rheobase
+    /// (the rest are marked pending). <paramref name="rheobaseHint"/> (the previous model's rheobase) seeds the search; the
+    /// answer is the same grid point a cold search finds. A model already measured in full comes back complete.
+    /// </summary>
+    public async Task<ReadoutSet> FirstReadoutsAsync(ModelDocument doc, double? rheobaseHint, CancellationToken cancel)
+    {
+        var cell = Compile(doc);
+        if (_cache.TryGetValue(doc.ToJson(), out var hit)) return hit;
+        return await gate.RunAsync(token =>
+        {
+            var first = Guard(() => Features.MeasureFirst(cell, ReadoutSettings.Live, token, rheobaseHint));
+            return ToSet(first) with { Continuation = (cell, first) };
+        }, cancel);
+    }
+
+    /// <summary>The second stage of <see cref="FirstReadoutsAsync"/>: the f-I curve, class, adaptation; the result is cached.</summary>
+    public async Task<ReadoutSet> CompleteReadoutsAsync(ModelDocument doc, ReadoutSet first, CancellationToken cancel)
+    {
+        if (first.IsComplete || first.Continuation is not { } c) return first;
+        var set = await gate.RunAsync(token => ToSet(Guard(() => Features.Complete(c.Cell, c.Stage, ReadoutSettings.Live, token))), cancel);
+        Remember(doc.ToJson(), set);
+        return set;
+    }
+
+    private void Remember(string key, ReadoutSet set)
+    {
         if (_cache.Count >= CacheSize) _cache.Clear();
         _cache[key] = set;
-        return set;
     }
 
     public const int CacheSize = 512;
@@ -113,20 +144,25 @@ public sealed class ModelRunner(ChannelCatalog catalog, SimulationGate gate)
             .Select(p => new FiRow(p.CurrentUaPerCm2, p.SpikesInStep, p.WholeStepRateHz, p.FirstIsiRateHz, p.LateRateHz)).ToArray();
 
     /// <summary>Every read-out of the library's one feature extractor, as table rows.</summary>
-    public static ReadoutSet Readouts(CompiledCell cell, CancellationToken cancel)
+    // Live settings (2 % tolerances, no block search) keep slider updates quick; `exprmodel features` runs the full set.
+    public static ReadoutSet Readouts(CompiledCell cell, CancellationToken cancel) => ToSet(Guard(() => Features.Measure(cell, ReadoutSettings.Live, cancel)));
+
+    private static CellReadouts Guard(Func<CellReadouts> measure)
     {
         try
         {
-            // Live settings (2 % tolerances, no block search) keep slider updates quick; `exprmodel features` runs the full set.
-            var r = Features.Measure(cell, ReadoutSettings.Live, cancel);
-            return new ReadoutSet(r.Rows().Select(x => new ReadoutRow(x.Name, x.Unit, x.Value)).ToArray(), r.Notes)
-            {
-                Fi = r.FiCurve.Select(p => new FiRow(p.CurrentUaPerCm2, p.SpikesInStep, p.WholeStepRateHz, p.FirstIsiRateHz, p.LateRateHz)).ToArray(),
-            };
+            return measure();
         }
         catch (SimulationBlowUpException e)
         {
             throw new UserInputException(e.Message);
         }
     }
+
+    private static ReadoutSet ToSet(CellReadouts r) =>
+        new(r.Rows().Select(x => new ReadoutRow(x.Name, x.Unit, x.Value)).ToArray(), r.Notes)
+        {
+            Fi = r.FiCurve.Select(p => new FiRow(p.CurrentUaPerCm2, p.SpikesInStep, p.WholeStepRateHz, p.FirstIsiRateHz, p.LateRateHz)).ToArray(),
+            Pending = r.IsComplete ? new HashSet<string>() : CellReadouts.SecondStageNames,
+        };
 }

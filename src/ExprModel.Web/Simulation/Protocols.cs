@@ -45,6 +45,15 @@ public sealed record ReadoutSet(IReadOnlyList<ReadoutRow> Rows, IReadOnlyList<st
     /// <summary>The f-I curve the read-outs were measured on (the library's standard sweep, 0 to 3x rheobase).</summary>
     public IReadOnlyList<FiRow> Fi { get; init; } = [];
 
+    /// <summary>Names of read-outs still being measured (a first stage shown early); empty when the set is complete.</summary>
+    public IReadOnlySet<string> Pending { get; init; } = EmptyNames;
+    public bool IsComplete => Pending.Count == 0;
+
+    /// <summary>The library's first-stage result and compiled cell, kept so the second stage can continue from it.</summary>
+    internal (ExprModel.Core.Simulation.CompiledCell Cell, ExprModel.Core.Analysis.CellReadouts Stage)? Continuation { get; init; }
+
+    private static readonly IReadOnlySet<string> EmptyNames = new HashSet<string>();
+
     public double? Value(string name) => Rows.FirstOrDefault(r => r.Name == name)?.Value;
 }
 

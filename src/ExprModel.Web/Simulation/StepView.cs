@@ -91,17 +91,53 @@ public sealed record StepView
         return (tl.ToArray(), vl.ToArray());
     }
 
-    /// <summary>dV/dt against V; quiet stretches (|dV/dt| under 1 mV/ms) keep one sample in 20, the rest one in 2.</summary>
+    /// <summary>Side of the cells (as a fraction of each axis' range) that thin the phase plane; 1/300 is below a pixel on screen.</summary>
+    internal const double PhaseCell = 1.0 / 300;
+
+    /// <summary>
+    /// dV/dt against V (central differences), thinned for the plot: a point is kept only when it enters a cell of a
+    /// 300 x 300 grid over the plot's range that the curve has not visited yet. Repeated spikes retrace the same loop,
+    /// so they add points only where they differ; where points are dropped the line is broken (NaN) so no false
+    /// segment joins the pieces.
+    /// </summary>
     internal static (double[] V, double[] Slope) Phase(double[] t, double[] v)
     {
-        var pv = new List<double>();
-        var ps = new List<double>();
+        int n = v.Length - 2;
+        if (n <= 0) return ([], []);
+        var slope = new double[n];
+        double vMin = double.PositiveInfinity, vMax = double.NegativeInfinity, sMin = double.PositiveInfinity, sMax = double.NegativeInfinity;
         for (int i = 1; i < v.Length - 1; i++)
         {
-            double slope = (v[i + 1] - v[i - 1]) / (t[i + 1] - t[i - 1]);
-            if (Math.Abs(slope) < 1 ? i % 20 != 0 : i % 2 != 0) continue;
-            pv.Add(v[i]);
-            ps.Add(slope);
+            double sl = (v[i + 1] - v[i - 1]) / (t[i + 1] - t[i - 1]);
+            slope[i - 1] = sl;
+            vMin = Math.Min(vMin, v[i]); vMax = Math.Max(vMax, v[i]);
+            sMin = Math.Min(sMin, sl); sMax = Math.Max(sMax, sl);
+        }
+        double vScale = 1 / (Math.Max(vMax - vMin, 1e-9) * PhaseCell), sScale = 1 / (Math.Max(sMax - sMin, 1e-9) * PhaseCell);
+        var seen = new HashSet<long>();
+        var pv = new List<double>();
+        var ps = new List<double>();
+        bool broken = false;
+        long lastCell = long.MinValue;
+        for (int k = 0; k < n; k++)
+        {
+            double vk = v[k + 1], sk = slope[k];
+            long cell = (long)((vk - vMin) * vScale) * 1_000_003L + (long)((sk - sMin) * sScale);
+            if (cell == lastCell) continue;
+            lastCell = cell;
+            if (!seen.Add(cell))
+            {
+                broken = true;
+                continue;
+            }
+            if (broken && pv.Count > 0)
+            {
+                pv.Add(double.NaN);
+                ps.Add(double.NaN);
+            }
+            broken = false;
+            pv.Add(vk);
+            ps.Add(sk);
         }
         return (pv.ToArray(), ps.ToArray());
     }
