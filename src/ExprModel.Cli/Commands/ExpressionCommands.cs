@@ -41,14 +41,13 @@ public static class ExpressionCommands
                 c.Options.Add(o);
         }
 
-        public (ExpressionTable Table, CellGroups? Groups, MappingReport Report, MappingCatalog Catalog, DensityRule Rule) Load(ParseResult p, CliContext ctx)
+        /// <summary>Reads, groups and maps the inputs with the library's <see cref="ExpressionDataset"/>; notes go to standard error.</summary>
+        public (ExpressionDataset Data, MappingReport Report, DensityRule Rule) Load(ParseResult p, CliContext ctx)
         {
             ctx.DatabasePath = p.GetValue(Db);
             var catalog = ctx.Catalog.ForMapping();
-            var resolver = new GeneResolver(catalog.Links, catalog.Statuses, catalog.Identifiers);
             var options = new ExpressionReadOptions
             {
-                KeepGene = resolver.Knows,
                 Unit = p.GetValue(Unit) is { } u ? ParseUnit(u) : null,
                 LogTransform = p.GetValue(Log) is { } l ? ParseLog(l) : LogTransform.None,
                 Orientation = p.GetValue(Orientation) switch
@@ -59,32 +58,20 @@ public static class ExpressionCommands
                     var o => throw new CliException($"--orientation: '{o}' is not genes-as-rows or cells-as-rows."),
                 },
             };
-            var table = ExpressionReader.Read(p.GetValue(Expression)!, options);
-            CellGroups? groups = null;
-            if (p.GetValue(Metadata) is { } metaPath)
+            string? metadata = p.GetValue(Metadata), column = p.GetValue(GroupBy);
+            if (metadata is not null && column is null) throw new CliException("--metadata needs --group-by COLUMN.");
+            if (metadata is null && column is not null) throw new CliException("--group-by needs --metadata FILE.");
+            var data = ExpressionDataset.Read(catalog, p.GetValue(Expression)!, options, metadata, column);
+            foreach (var n in data.Notes) ctx.Error.WriteLine($"note: {n}");
+            var report = data.Map(Overrides(p));
+            var rule = DensityRule.RelativeTo(p.GetValue(ReferenceGroup)) with
             {
-                var column = p.GetValue(GroupBy) ?? throw new CliException("--metadata needs --group-by COLUMN.");
-                var meta = CellMetadataReader.Read(metaPath, new CellMetadataOptions { GroupColumns = [column] });
-                if (!meta.Labels.ContainsKey(column)) throw new CliException($"{Path.GetFileName(metaPath)}: no column '{column}' (columns: {string.Join(", ", meta.Labels.Keys)}).");
-                var labels = new Dictionary<string, string>(StringComparer.Ordinal);
-                foreach (var id in table.CellIds)
-                    if (meta.Label(column, id) is { } g) labels[id] = g;
-                groups = new CellGroups(table.CellIds, labels, column);
-                int missing = table.CellIds.Count - labels.Count;
-                if (missing > 0) ctx.Error.WriteLine($"note: {missing} cell(s) of the table have no '{column}' label in {Path.GetFileName(metaPath)}.");
-            }
-            else if (p.GetValue(GroupBy) is not null) throw new CliException("--group-by needs --metadata FILE.");
-            var report = ExpressionMapping.Map(table, catalog, Overrides(p));
-            var rule = new DensityRule
-            {
-                Reference = p.GetValue(ReferenceGroup) is null ? DensityReference.DatasetMedian : DensityReference.ReferenceGroup,
-                ReferenceGroup = p.GetValue(ReferenceGroup),
                 Exponent = p.GetValue(Exponent),
                 ClampToPlausibleRange = !p.GetValue(NoClamp),
                 CapacitancePf = p.GetValue(CapacitancePf),
                 TemperatureC = p.GetValue(Temperature),
             };
-            return (table, groups, report, catalog, rule);
+            return (data, report, rule);
         }
 
         private List<GeneOverride> Overrides(ParseResult p)
@@ -136,9 +123,9 @@ public static class ExpressionCommands
         yield return Merge(ctx);
     }
 
-    private static void PrintReport(CliContext ctx, ExpressionTable table, MappingReport report, CellGroups? groups)
+    private static void PrintReport(CliContext ctx, ExpressionDataset data, MappingReport report)
     {
-        var w = ctx.Error;
+        var (w, table, groups) = (ctx.Error, data.Table, data.Groups);
         w.WriteLine($"table: {table.Source}: {table.CellIds.Count} cells, {table.TotalGeneCount} genes; {table.OrientationNote}; unit: {table.Unit} ({table.UnitNote})");
         foreach (var n in table.Notes) w.WriteLine($"note: {n}");
         if (groups is not null) w.WriteLine($"groups ({groups.Column}): {string.Join(", ", groups.Members.Select(g => $"{g.Key} ({g.Value.Length})"))}");
@@ -171,10 +158,10 @@ public static class ExpressionCommands
         c.SetAction(p =>
         {
             if ((p.GetValue(group) is null) == (p.GetValue(cell) is null)) throw new CliException("Give exactly one of --group NAME or --cell ID.");
-            var (table, groups, report, catalog, rule) = inputs.Load(p, ctx);
-            PrintReport(ctx, table, report, groups);
+            var (data, report, rule) = inputs.Load(p, ctx);
+            PrintReport(ctx, data, report);
             var target = p.GetValue(group) is { } g ? ModelTarget.ForGroup(g) : ModelTarget.ForCell(p.GetValue(cell)!);
-            var built = ExpressionModelBuilder.Build(table, report, catalog, rule, target, groups);
+            var built = data.Build(report, rule, target);
             foreach (var d in built.Densities)
                 ctx.Error.WriteLine($"density {d.EntryId,-20} {d.DensityMsPerCm2,10:G4} mS/cm2 = {d.TypicalMsPerCm2:G4} x ({d.Expression:G4} / {d.Reference:G4})^{rule.Exponent:G3}{(d.Clamped ? " [clamped]" : "")}");
             foreach (var wn in built.Warnings) ctx.Error.WriteLine($"warning: {wn}");
@@ -198,24 +185,25 @@ public static class ExpressionCommands
         c.Options.Add(output);
         c.SetAction(p =>
         {
-            var (table, groups, report, catalog, rule) = inputs.Load(p, ctx);
-            PrintReport(ctx, table, report, groups);
+            var (data, report, rule) = inputs.Load(p, ctx);
+            PrintReport(ctx, data, report);
+            var (table, groups) = (data.Table, data.Groups);
             var items = p.GetValue(per) switch
             {
-                "group" => (groups ?? throw new CliException("--per group needs --metadata and --group-by.")).Members.Keys.Select(ModelTarget.ForGroup).ToArray(),
-                "cell" => table.CellIds.Select(ModelTarget.ForCell).ToArray(),
+                "group" => groups is null ? throw new CliException("--per group needs --metadata and --group-by.") : data.Targets,
+                "cell" => data.CellTargets,
                 var o => throw new CliException($"--per: '{o}' is not group or cell."),
             };
             var (index, count) = ParseShard(p.GetValue(shard));
-            int from = (int)((long)items.Length * (index - 1) / count), to = (int)((long)items.Length * index / count);
+            int from = (int)((long)items.Count * (index - 1) / count), to = (int)((long)items.Count * index / count);
             var header = new List<string> { "item_index", "item", "cells", "resting_potential_mv", "input_resistance_mohm", "membrane_time_constant_ms", "rheobase_pa",
                 "spike_threshold_mv", "spike_half_width_ms" };
             header.AddRange(StandardStepsPa.Select(s => $"rate_at_{s:F0}pa_hz"));
             header.AddRange(["excitability_class", "adaptation_ratio", "adaptation_index", "warnings"]);
             var progress = new Progress(ctx.Error, to - from);
-            var results = BatchReadouts.Run(table, report, catalog, rule, items, groups, from, to, progress.Report);
+            var results = BatchReadouts.Run(table, report, data.Catalog, rule, items, groups, from, to, progress.Report);
             progress.Finish();
-            var csv = new CsvTable([ResearchCaution.Text, $"source: {table.Source}; shard {index}/{count} of {items.Length} items"], header);
+            var csv = new CsvTable([ResearchCaution.Text, $"source: {table.Source}; shard {index}/{count} of {items.Count} items"], header);
             foreach (var b in results)
             {
                 var r = b.Readouts;

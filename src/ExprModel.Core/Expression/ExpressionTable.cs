@@ -44,6 +44,25 @@ public sealed class ExpressionTable
     public IReadOnlyList<string> Notes { get; init; } = [];
 
     /// <summary>
+    /// The same table under another name, for a file read from a temporary copy (an upload): the name is what the
+    /// built models' derivation and later messages show, so it should be the one the user knows, not a server path.
+    /// </summary>
+    public ExpressionTable WithSource(string source) => new()
+    {
+        Source = source,
+        CellIds = CellIds,
+        Genes = Genes,
+        LibrarySizes = LibrarySizes,
+        TotalGeneCount = TotalGeneCount,
+        Unit = Unit,
+        UnitNote = UnitNote,
+        Orientation = Orientation,
+        OrientationNote = OrientationNote,
+        FormatNote = FormatNote,
+        Notes = Notes,
+    };
+
+    /// <summary>
     /// Values on a common linear scale: CPM for counts (value / library size * 1e6), TPM/FPKM/CPM as given.
     /// Log-transformed tables must be converted by the reader before this is called.
     /// </summary>

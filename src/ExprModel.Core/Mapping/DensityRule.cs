@@ -28,6 +28,11 @@ public sealed record DensityRule
     public double LeakMsPerCm2 { get; init; } = 0.05;
     public double LeakReversalMv { get; init; } = -70;
 
+    /// <summary>The rule relative to the dataset median (null), or to the mean of the named reference group.</summary>
+    public static DensityRule RelativeTo(string? referenceGroup) => referenceGroup is null
+        ? new DensityRule()
+        : new DensityRule { Reference = DensityReference.ReferenceGroup, ReferenceGroup = referenceGroup };
+
     public string? Problem()
     {
         if (!(Exponent > 0) || Exponent > 4) return "exponent must lie in (0, 4]";

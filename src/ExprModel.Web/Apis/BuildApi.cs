@@ -1,3 +1,4 @@
+using System.Globalization;
 using System.Text;
 using System.Text.Json;
 using ExprModel.Core.Mapping;
@@ -37,48 +38,155 @@ public sealed record BuildRequest
 public sealed record BuildResponse(JsonElement Model, IReadOnlyList<DensityDerivation> Densities, IReadOnlyList<string> Warnings,
     IReadOnlyList<UnmappedChannelGene> Unmapped, IReadOnlyList<string> Problems, string Caution);
 
-/// <summary>Expression table to model: the library's readers, mapping and density rule, as the command line's build command uses them.</summary>
+/// <summary>
+/// Expression table to model: the library's readers, mapping and density rule (through <see cref="ExpressionSession"/>),
+/// as the command line's build command uses them. The table comes as text in a JSON body or as a file part of a
+/// multipart form (any format the library reads: CSV or TSV, gzip or not, or AnnData .h5ad).
+/// </summary>
 public static class BuildApi
 {
+    /// <summary>The form fields of a multipart build request besides the file parts; the same options as the JSON body.</summary>
+    private static readonly string[] FormFields =
+        ["expression", "metadata", "groupBy", "group", "cell", "orientation", "unit", "referenceGroup", "exponent", "clamp", "capacitancePf", "temperatureC", "overrides"];
+
+    /// <summary>What a build needs, however it arrived: the options, the table's bytes and name, the metadata's.</summary>
+    private sealed record BuildUpload(BuildRequest Options, byte[] Expression, string ExpressionName, byte[]? Metadata, string MetadataName);
+
     public static IEndpointRouteBuilder MapBuildApi(this IEndpointRouteBuilder app)
     {
         var api = app.MapGroup("/api").WithTags("Build");
 
         api.MapPost("/build", async Task<Ok<BuildResponse>> (HttpRequest request, IOptions<WebOptions> options, ChannelCatalog catalog, CancellationToken cancel) =>
             {
-                // Read the body ourselves, so an oversized upload stops at the limit with a clear message.
-                var bytes = await BoundedUpload.ReadAsync(request.Body, request.ContentLength, options.Value.MaxUploadBytes, "The request (expression table)", cancel);
-                BuildRequest? body;
-                try { body = JsonSerializer.Deserialize<BuildRequest>(bytes, SnapshotService.Json); }
-                catch (JsonException e)
-                {
-                    throw new UserInputException($"request body: line {(e.LineNumber ?? 0) + 1}, position {(e.BytePositionInLine ?? 0) + 1}: not valid JSON for a build request.");
-                }
-                if (body?.Expression is not { Length: > 0 } table) throw new UserInputException("expression: required (the table as CSV or TSV text).");
-                if ((body.Group is null) == (body.Cell is null)) throw new UserInputException("give exactly one of group (with metadata and groupBy) or cell.");
-                if (body.Group is not null && (body.Metadata is null || body.GroupBy is null)) throw new UserInputException("group: needs metadata (text) and groupBy (its column).");
-                var session = await Task.Run(() => ExpressionSession.Read(catalog, Encoding.UTF8.GetBytes(table), body.ExpressionName,
-                    body.Metadata is null ? null : Encoding.UTF8.GetBytes(body.Metadata), body.MetadataName,
-                    new ReadChoices(body.Orientation, body.Unit, body.GroupBy)), cancel);
-                var report = session.Map(body.Overrides ?? []);
-                var rule = new DensityRule
-                {
-                    Reference = body.ReferenceGroup is null ? DensityReference.DatasetMedian : DensityReference.ReferenceGroup,
-                    ReferenceGroup = body.ReferenceGroup,
-                    Exponent = body.Exponent,
-                    ClampToPlausibleRange = body.Clamp,
-                    CapacitancePf = body.CapacitancePf,
-                    TemperatureC = body.TemperatureC,
-                };
-                var built = session.Build(report, rule, body.Group is not null ? ModelTarget.ForGroup(body.Group) : ModelTarget.ForCell(body.Cell!));
-                var doc = built.Document with { Caution = ResearchCaution.Text };
-                return TypedResults.Ok(new BuildResponse(ModelRequest.ToElement(doc), built.Densities, built.Warnings, report.Unmapped, report.Problems, ResearchCaution.Text));
+                // Read the body ourselves, so an oversized upload stops at the limit with a clear message (one limit for both forms).
+                long limit = options.Value.MaxUploadBytes;
+                var upload = MultipartForm.IsMultipart(request)
+                    ? FromForm(await MultipartForm.ReadAsync(request, limit, "The upload (expression and metadata files)", cancel))
+                    : FromJson(await BoundedUpload.ReadAsync(request.Body, request.ContentLength, limit, "The request (expression table)", cancel));
+                return TypedResults.Ok(await Task.Run(() => Build(catalog, upload), cancel));
             })
             .WithName("BuildModel")
-            .WithSummary("Builds a model from an expression table (JSON body: expression text, optional metadata and groupBy, group or cell, overrides, density rule).")
-            .Accepts<BuildRequest>("application/json")
+            .WithSummary("Builds a model from an expression table: a JSON body (expression as text) or a multipart form (expression and optional metadata as file "
+                + "parts; groupBy, group or cell, orientation, unit, referenceGroup, exponent, clamp, capacitancePf, temperatureC and overrides (a JSON array) as fields).")
+            // One Accepts call with both types: routing and the OpenAPI generator read only the last Accepts metadata, so a
+            // second call would turn JSON requests away (415). The form's own schema replaces the JSON one for multipart.
+            .Accepts<BuildRequest>("application/json", "multipart/form-data")
+            .AddOpenApiOperationTransformer(async (operation, context, cancel) =>
+            {
+                if (operation.RequestBody?.Content?.TryGetValue("multipart/form-data", out var form) == true)
+                    form.Schema = await context.GetOrCreateSchemaAsync(typeof(BuildForm), null, cancel);
+            })
             .ProducesProblem(400).ProducesProblem(413)
+            // Scripts call this API with no cookie: the app has no sign-in and no cookie authentication, so a forged
+            // cross-site request carries no credentials and gains nothing the caller could not do directly. The other
+            // API routes take JSON and need no token either; the form here is read by hand, not by form binding.
             .DisableAntiforgery();
         return app;
     }
+
+    private static BuildResponse Build(ChannelCatalog catalog, BuildUpload upload)
+    {
+        var body = upload.Options;
+        if ((body.Group is null) == (body.Cell is null)) throw new UserInputException("give exactly one of group (with metadata and groupBy) or cell.");
+        if (body.Group is not null && (upload.Metadata is null || body.GroupBy is null)) throw new UserInputException("group: needs metadata and groupBy (its column).");
+        var session = ExpressionSession.Read(catalog, upload.Expression, upload.ExpressionName, upload.Metadata, upload.MetadataName,
+            new ReadChoices(body.Orientation, body.Unit, body.GroupBy));
+        var report = session.Map(body.Overrides ?? []);
+        var rule = DensityRule.RelativeTo(body.ReferenceGroup) with
+        {
+            Exponent = body.Exponent,
+            ClampToPlausibleRange = body.Clamp,
+            CapacitancePf = body.CapacitancePf,
+            TemperatureC = body.TemperatureC,
+        };
+        var built = session.Build(report, rule, body.Group is not null ? ModelTarget.ForGroup(body.Group) : ModelTarget.ForCell(body.Cell!));
+        var doc = built.Document with { Caution = ResearchCaution.Text };
+        return new BuildResponse(ModelRequest.ToElement(doc), built.Densities, built.Warnings, report.Unmapped, report.Problems, ResearchCaution.Text);
+    }
+
+    private static BuildUpload FromJson(byte[] bytes)
+    {
+        BuildRequest? body;
+        try { body = JsonSerializer.Deserialize<BuildRequest>(bytes, SnapshotService.Json); }
+        catch (JsonException e)
+        {
+            throw new UserInputException($"request body: line {(e.LineNumber ?? 0) + 1}, position {(e.BytePositionInLine ?? 0) + 1}: not valid JSON for a build request.");
+        }
+        if (body?.Expression is not { Length: > 0 } table) throw new UserInputException("expression: required (the table as CSV or TSV text).");
+        return new BuildUpload(body, Encoding.UTF8.GetBytes(table), body.ExpressionName, body.Metadata is null ? null : Encoding.UTF8.GetBytes(body.Metadata), body.MetadataName);
+    }
+
+    /// <summary>Reads the form's fields into the same request as the JSON body; a bad field is a problem naming it.</summary>
+    private static BuildUpload FromForm(MultipartForm form)
+    {
+        foreach (var name in form.Names)
+            if (!FormFields.Contains(name, StringComparer.OrdinalIgnoreCase))
+                throw new UserInputException($"{name}: not a field of this endpoint (fields: {string.Join(", ", FormFields)}).");
+        if (form.Part("expression") is not { Bytes.Length: > 0 } expression)
+            throw new UserInputException("expression: required, as a file part (CSV or TSV, optionally gzip, or AnnData .h5ad).");
+        var metadata = form.Part("metadata");
+        var defaults = new BuildRequest();
+        var options = new BuildRequest
+        {
+            GroupBy = Text(form, "groupBy"),
+            Group = Text(form, "group"),
+            Cell = Text(form, "cell"),
+            Orientation = Text(form, "orientation"),
+            Unit = Text(form, "unit"),
+            ReferenceGroup = Text(form, "referenceGroup"),
+            Exponent = Number(form, "exponent") ?? defaults.Exponent,
+            Clamp = Flag(form, "clamp") ?? defaults.Clamp,
+            CapacitancePf = Number(form, "capacitancePf") ?? defaults.CapacitancePf,
+            TemperatureC = Number(form, "temperatureC") ?? defaults.TemperatureC,
+            Overrides = Overrides(form),
+        };
+        return new BuildUpload(options, expression.Bytes, expression.FileName ?? defaults.ExpressionName, metadata?.Bytes, metadata?.FileName ?? defaults.MetadataName);
+    }
+
+    /// <summary>A text field; an empty field counts as absent, as a browser form sends it.</summary>
+    private static string? Text(MultipartForm form, string field) => form.Part(field)?.Text.Trim() is { Length: > 0 } t ? t : null;
+
+    private static double? Number(MultipartForm form, string field) => Text(form, field) is not { } t ? null
+        : double.TryParse(t, NumberStyles.Float, CultureInfo.InvariantCulture, out var v) && double.IsFinite(v) ? v
+        : throw new UserInputException($"{field}: '{t}' is not a number (use a decimal point, e.g. 1.5).");
+
+    private static bool? Flag(MultipartForm form, string field) => Text(form, field)?.ToLowerInvariant() switch
+    {
+        null => null,
+        "true" or "on" or "1" => true,
+        "false" or "off" or "0" => false,
+        var t => throw new UserInputException($"{field}: '{t}' is not true or false."),
+    };
+
+    private static List<GeneOverride>? Overrides(MultipartForm form)
+    {
+        if (Text(form, "overrides") is not { } json) return null;
+        try { return JsonSerializer.Deserialize<List<GeneOverride>>(json, SnapshotService.Json); }
+        catch (JsonException e)
+        {
+            throw new UserInputException($"overrides: line {(e.LineNumber ?? 0) + 1}, position {(e.BytePositionInLine ?? 0) + 1}: not a JSON array of "
+                + "{\"gene\": ..., \"exclude\": true} / {\"gene\": ..., \"entryId\": ..., \"weight\": ...} objects.");
+        }
+    }
+}
+
+/// <summary>The multipart form of a build request, as the OpenAPI document describes it (the endpoint reads the parts itself).</summary>
+public sealed record BuildForm
+{
+    /// <summary>The expression table file: CSV or TSV (optionally gzip) or AnnData .h5ad.</summary>
+    public required IFormFile Expression { get; init; }
+    /// <summary>Cell metadata file (cell id column plus label columns), needed with group.</summary>
+    public IFormFile? Metadata { get; init; }
+    public string? GroupBy { get; init; }
+    public string? Group { get; init; }
+    public string? Cell { get; init; }
+    public string? Orientation { get; init; }
+    public string? Unit { get; init; }
+    public string? ReferenceGroup { get; init; }
+    public double? Exponent { get; init; }
+    public bool? Clamp { get; init; }
+    public double? CapacitancePf { get; init; }
+    public double? TemperatureC { get; init; }
+    /// <summary>A JSON array of overrides, as in the JSON body.</summary>
+    public string? Overrides { get; init; }
 }

@@ -1,5 +1,4 @@
 using ExprModel.Core.Expression;
-using ExprModel.Core.Expression.Metadata;
 using ExprModel.Core.Mapping;
 using ExprModel.Data.Catalog;
 using ExprModel.Web.Simulation;
@@ -9,9 +8,8 @@ namespace ExprModel.Web.Workspace;
 /// <summary>What the user chose on the Load page; null or empty means "detect".</summary>
 public sealed record ReadChoices(string? Orientation, string? Unit, string? GroupColumn)
 {
-    public ExpressionReadOptions ToOptions(Func<string, bool> keepGene) => new()
+    public ExpressionReadOptions ToOptions() => new()
     {
-        KeepGene = keepGene,
         Orientation = Orientation switch
         {
             null or "" => null,
@@ -33,54 +31,32 @@ public sealed record ReadChoices(string? Orientation, string? Unit, string? Grou
 }
 
 /// <summary>
-/// An expression table read by the library's readers, grouped by a metadata column and mapped onto the catalog. The web
-/// app only orchestrates (uploaded bytes go to a private temporary file because the readers work on files); reading,
-/// identifier resolution, mapping and the density rule are all the library's, as in the command line's build command.
+/// The web's hold on an <see cref="ExpressionDataset"/> (the library's read / group / map / build orchestration, shared
+/// with the command line): what it adds is web-only. Uploaded bytes go to a private temporary folder because the
+/// readers work on files (Matrix Market and AnnData need seeking), library errors become <see cref="UserInputException"/>
+/// for a page or a ProblemDetails response, the read choices are kept so the Load page can skip an unchanged re-read,
+/// and a metadata table that labels none of the table's cells is refused here rather than on the Map page.
 /// </summary>
 public sealed class ExpressionSession
 {
-    public required ExpressionTable Table { get; init; }
-    public CellMetadata? Metadata { get; init; }
-    public CellGroups? Groups { get; init; }
-    public required MappingCatalog Catalog { get; init; }
-    public IReadOnlyList<string> Notes { get; init; } = [];
+    public required ExpressionDataset Dataset { get; init; }
     public required ReadChoices Choices { get; init; }
 
     public static ExpressionSession Read(ChannelCatalog catalog, byte[] table, string tableName, byte[]? metadata, string? metadataName, ReadChoices choices)
     {
-        var mapping = catalog.ForMapping();
-        var resolver = new GeneResolver(mapping.Links, mapping.Statuses, mapping.Identifiers);
-        var options = choices.ToOptions(resolver.Knows);
-        var notes = new List<string>();
+        var options = choices.ToOptions();
         var dir = Path.Combine(Path.GetTempPath(), "exprmodel-upload-" + Guid.NewGuid().ToString("N"));
-        Directory.CreateDirectory(dir);
         try
         {
-            var tablePath = Path.Combine(dir, SafeName(tableName));
-            File.WriteAllBytes(tablePath, table);
-            ExpressionTable read;
-            try { read = ExpressionReader.Read(tablePath, options); }
+            var tablePath = Save(dir, "table", tableName, "table.csv", table);
+            var metadataPath = metadata is not null && !string.IsNullOrEmpty(choices.GroupColumn) ? Save(dir, "metadata", metadataName, "metadata.csv", metadata) : null;
+            ExpressionDataset dataset;
+            try { dataset = ExpressionDataset.Read(catalog.ForMapping(), tablePath, options, metadataPath, metadataPath is null ? null : choices.GroupColumn, Path.GetFileName(tablePath)); }
             catch (ExpressionFormatException e) { throw new UserInputException(e.Message); }
             catch (ArgumentException e) { throw new UserInputException($"{tableName}: {e.Message}"); }
-            CellMetadata? meta = null;
-            CellGroups? groups = null;
-            if (metadata is not null && !string.IsNullOrEmpty(choices.GroupColumn))
-            {
-                var metaPath = Path.Combine(dir, "meta-" + SafeName(metadataName ?? "metadata.csv"));
-                File.WriteAllBytes(metaPath, metadata);
-                try { meta = CellMetadataReader.Read(metaPath, new CellMetadataOptions { GroupColumns = [choices.GroupColumn] }); }
-                catch (ExpressionFormatException e) { throw new UserInputException(e.Message); }
-                if (!meta.Labels.ContainsKey(choices.GroupColumn))
-                    throw new UserInputException($"{metadataName}: no column '{choices.GroupColumn}' (columns: {string.Join(", ", meta.Labels.Keys)}).");
-                var labels = new Dictionary<string, string>(StringComparer.Ordinal);
-                foreach (var id in read.CellIds)
-                    if (meta.Label(choices.GroupColumn, id) is { } g) labels[id] = g;
-                groups = new CellGroups(read.CellIds, labels, choices.GroupColumn);
-                int missing = read.CellIds.Count - labels.Count;
-                if (missing > 0) notes.Add($"{missing} cell(s) of the table have no '{choices.GroupColumn}' label in {metadataName}.");
-                if (groups.Members.Count == 0) throw new UserInputException($"{metadataName}: no cell id of the table has a '{choices.GroupColumn}' label; check that the first column holds the table's cell ids.");
-            }
-            return new ExpressionSession { Table = read, Metadata = meta, Groups = groups, Catalog = mapping, Notes = notes, Choices = choices };
+            if (dataset.Groups is { Members.Count: 0 } && metadataPath is not null)
+                throw new UserInputException($"{Path.GetFileName(metadataPath)}: no cell id of the table has a '{choices.GroupColumn}' label; check that the first column holds the table's cell ids.");
+            return new ExpressionSession { Dataset = dataset, Choices = choices };
         }
         finally
         {
@@ -88,25 +64,31 @@ public sealed class ExpressionSession
         }
     }
 
-    public MappingReport Map(IReadOnlyList<GeneOverride> overrides) => ExpressionMapping.Map(Table, Catalog, overrides);
+    public MappingReport Map(IReadOnlyList<GeneOverride> overrides) => Dataset.Map(overrides);
 
-    /// <summary>Builds the model of one group (or, without groups, one cell).</summary>
+    /// <summary>Builds the model of one group (or, without groups, one cell); a bad rule or target is the user's to fix.</summary>
     public BuiltModel Build(MappingReport report, DensityRule rule, ModelTarget target)
     {
-        if (rule.Problem() is { } p) throw new UserInputException("density rule: " + p);
-        try { return ExpressionModelBuilder.Build(Table, report, Catalog, rule, target, Groups); }
+        try { return Dataset.Build(report, rule, target); }
         catch (ArgumentException e) { throw new UserInputException(e.Message); }
     }
 
-    /// <summary>The targets a user can build: every group, or every cell when there is no grouping.</summary>
-    public IReadOnlyList<ModelTarget> Targets => Groups is not null
-        ? Groups.Members.Keys.Select(ModelTarget.ForGroup).ToArray()
-        : Table.CellIds.Select(ModelTarget.ForCell).ToArray();
-
-    private static string SafeName(string name)
+    /// <summary>
+    /// Writes an upload to its own sub-folder under its own (sanitised) name, so the readers' messages name the file the
+    /// user sent and the table and metadata never collide.
+    /// </summary>
+    private static string Save(string dir, string role, string? name, string fallback, byte[] bytes)
     {
-        var file = Path.GetFileName(name);
+        var folder = Directory.CreateDirectory(Path.Combine(dir, role)).FullName;
+        var path = Path.Combine(folder, SafeName(name, fallback));
+        File.WriteAllBytes(path, bytes);
+        return path;
+    }
+
+    private static string SafeName(string? name, string fallback)
+    {
+        var file = Path.GetFileName(name ?? "");
         var clean = new string(file.Select(c => char.IsLetterOrDigit(c) || c is '.' or '-' or '_' ? c : '_').ToArray());
-        return clean.Length == 0 ? "table.csv" : clean;
+        return clean.Trim('.').Length == 0 ? fallback : clean;
     }
 }

@@ -1,6 +1,5 @@
 using ExprModel.Core.Analysis;
 using ExprModel.Core.Expression;
-using ExprModel.Core.Expression.Metadata;
 using ExprModel.Core.Mapping;
 using ExprModel.Core.Simulation;
 using ExprModel.Data.Catalog;
@@ -16,16 +15,12 @@ public class DemoGroupsTests
     private static readonly Lazy<IReadOnlyDictionary<string, (CompiledCell Cell, CellReadouts Readouts)>> Groups = new(() =>
     {
         var dir = CatalogLocator.FindSourceDirectory()!;
-        var catalog = TestCatalog.Catalog.ForMapping();
-        var resolver = new GeneResolver(catalog.Links, catalog.Statuses, catalog.Identifiers);
-        var table = ExpressionReader.Read(Path.Combine(dir, "demo", "counts.csv"), new ExpressionReadOptions { KeepGene = resolver.Knows });
-        var meta = CellMetadataReader.Read(Path.Combine(dir, "demo", "metadata.csv"), new CellMetadataOptions { GroupColumns = ["group"] });
-        var labels = table.CellIds.Where(id => meta.Label("group", id) is not null).ToDictionary(id => id, id => meta.Label("group", id)!);
-        var groups = new CellGroups(table.CellIds, labels, "group");
-        var report = ExpressionMapping.Map(table, catalog);
-        return groups.Members.Keys.ToDictionary(g => g, g =>
+        var data = ExpressionDataset.Read(TestCatalog.Catalog.ForMapping(), Path.Combine(dir, "demo", "counts.csv"), new ExpressionReadOptions(),
+            Path.Combine(dir, "demo", "metadata.csv"), "group");
+        var report = data.Map();
+        return data.Groups!.Members.Keys.ToDictionary(g => g, g =>
         {
-            var built = ExpressionModelBuilder.Build(table, report, catalog, new DensityRule(), ModelTarget.ForGroup(g), groups);
+            var built = data.Build(report, new DensityRule(), ModelTarget.ForGroup(g));
             var cell = new CompiledCell(TestCatalog.Catalog.BuildCell(built.Document));
             return (cell, Features.Measure(cell, ReadoutSettings.Batch));
         });
