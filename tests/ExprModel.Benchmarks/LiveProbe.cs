@@ -29,7 +29,48 @@ internal static class LiveProbe
             double warm = Median(() => Features.MeasureFirst(cell, ReadoutSettings.Live, default, hint));
             double second = Median(() => Features.Complete(cell, first, ReadoutSettings.Live));
             double trace = Median(() => Simulator.Run(cell, step, 700, settings));
-            Console.WriteLine($"{name,-24} {cell.GateCount,3} gates  all {read,7:F1} | first cold {cold,6:F1} | first seeded {warm,6:F1} | second {second,6:F1} | step {trace,6:F1}");
+            double bare = Median(() => Simulator.Run(cell, step, 700, settings with { RecordCurrents = false }));
+            Console.WriteLine($"{name,-24} {cell.GateCount,3} gates  all {read,7:F1} | first cold {cold,6:F1} | first seeded {warm,6:F1} | second {second,6:F1} | step {trace,6:F1} (without currents {bare,5:F1})");
+        }
+    }
+
+    /// <summary>
+    /// Rounds of the rheobase search over a browser-benchmark-like walk (25 moves: a random channel to 49-219 %),
+    /// seeded with the previous rheobase versus cold. Counts, not times: independent of machine load.
+    /// </summary>
+    public static void Rounds(IReadOnlyList<string> modelPaths)
+    {
+        var catalog = CatalogLocator.Ensure();
+        var docs = modelPaths.Count == 0
+            ? new[] { "wb1996", "cortex-rs2008" }.Select(p => (p, catalog.Preset(p))).ToList()
+            : modelPaths.Select(p => (Path.GetFileName(p), ModelDocument.Parse(File.ReadAllText(p), p))).ToList();
+        var s = ReadoutSettings.Live;
+        foreach (var (name, doc) in docs)
+        {
+            var rng = new Random(7);
+            var rel = doc.Channels.Select(c => c.RelativeDensity).ToArray();
+            double? previous = null;
+            int seeded = 0, cold = 0, moves = 0, sameAnswer = 0;
+            for (int m = 0; m < 25; m++)
+            {
+                int ch = rng.Next(rel.Length);
+                int pos = rng.Next(650, 900);
+                rel[ch] = 0.01 * Math.Pow(400, (pos - 1) / 999.0);
+                var moved = doc with { Channels = doc.Channels.Select((c, i) => c with { RelativeDensity = rel[i] }).ToArray() };
+                var cell = new CompiledCell(catalog.BuildCell(moved));
+                var first = Features.MeasureFirst(cell, s);
+                if (first.RestState is not { } rest || first.SlopeConductanceMsPerCm2 is not { } g) continue;
+                double max = Math.Min(g * 150, 200);
+                var c = RheobaseSearch.Rheobase(cell, rest, g * 5, max, s).Bracket;
+                var w = RheobaseSearch.Rheobase(cell, rest, g * 5, max, s, default, previous).Bracket;
+                if (c is null || w is null) continue;
+                moves++;
+                cold += c.Rounds;
+                seeded += w.Rounds;
+                if (c.AtOrAboveUaPerCm2 == w.AtOrAboveUaPerCm2) sameAnswer++;
+                previous = c.AtOrAboveUaPerCm2;
+            }
+            Console.WriteLine($"{name,-24} {moves} moves: rheobase rounds seeded {seeded / (double)moves:F2}, cold {cold / (double)moves:F2}; same answer {sameAnswer}/{moves}");
         }
     }
 

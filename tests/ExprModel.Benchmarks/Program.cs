@@ -21,6 +21,7 @@ public static class Program
             BenchmarkSwitcher.FromAssembly(typeof(Program).Assembly).Run(args.Where(a => a != "--bdn").ToArray());
             return 0;
         }
+        if (args.Contains("rounds")) { LiveProbe.Rounds(args.SkipWhile(a => a != "rounds").Skip(1).Where(a => !a.StartsWith("--")).ToList()); return 0; }
         if (args.Contains("live")) { LiveProbe.Run(args.SkipWhile(a => a != "live").Skip(1).Where(a => !a.StartsWith("--")).ToList()); return 0; }
         if (args.Contains("probe")) { Probe.Run(args.SkipWhile(a => a != "probe").Skip(1).FirstOrDefault(a => !a.StartsWith("--"))); return 0; }
         if (args.Contains("batch"))

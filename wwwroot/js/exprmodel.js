@@ -48,6 +48,9 @@ window.exprModel.downloadFigure = function (id, format, fileName, height) {
         line: { color: t.color, width: 1.6, dash: t.dashed ? 'dash' : 'solid' }
       };
     });
+    // A legend for one line says nothing and costs a redraw: shown only when lines are compared.
+    el.layout.showlegend = data.length > 1;
+    if (typeof entry.title === 'string') el.layout.title = Object.assign({}, el.layout.title, { text: entry.title });
     Promise.resolve(window.Plotly.react(el, data, el.layout, config))
       .catch(function () { })
       .then(function () {
@@ -57,8 +60,8 @@ window.exprModel.downloadFigure = function (id, format, fileName, height) {
       });
   }
 
-  window.exprModel.plotData = function (id, revision, priority, traces) {
-    pending.set(id, { revision: revision, priority: priority, traces: traces });
+  window.exprModel.plotData = function (id, revision, priority, title, traces) {
+    pending.set(id, { revision: revision, priority: priority, title: title, traces: traces });
     if (!draining) { draining = true; setTimeout(next, 0); }
   };
 })();

@@ -40,11 +40,14 @@ public sealed record CellReadouts
     /// <summary>The settled state at zero current that every protocol starts from (kept for the second stage).</summary>
     [System.Text.Json.Serialization.JsonIgnore]
     public CellState? RestState { get; init; }
+    /// <summary>Steady-state slope conductance at rest (mS/cm2) that sized the passive steps (kept for the second stage).</summary>
+    [System.Text.Json.Serialization.JsonIgnore]
+    public double? SlopeConductanceMsPerCm2 { get; init; }
 
     /// <summary>Names (as in <see cref="Rows"/>) of the read-outs that only the second stage (<see cref="Features.Complete"/>) measures.</summary>
     public static IReadOnlySet<string> SecondStageNames { get; } = new HashSet<string>(StringComparer.Ordinal)
     {
-        "fi_gain", "fi_gain_absolute", "sustained_firing_onset", "onset_rate", "excitability_class", "adaptation_step", "adaptation_ratio",
+        "sag_ratio", "fi_gain", "fi_gain_absolute", "sustained_firing_onset", "onset_rate", "excitability_class", "adaptation_step", "adaptation_ratio",
         "adaptation_index", "depolarisation_block_onset",
     };
 
@@ -110,34 +113,10 @@ public static class Features
             gSlope = Math.Max(1e-3, cell.Model.Channels.Where(c => c.Entry.Gates.Count == 0).Sum(c => c.EffectiveDensityMsPerCm2));
         }
 
-        double? rin = null, tau = null, sag = null;
-        if (!firesAtRest)
-        {
-            // 2. Input resistance and time constant from a small hyperpolarising step.
-            double iSmall = s.PassiveDeflectionMv * gSlope;
-            double passiveMs = s.PassiveStepMs;
-            var small = Simulator.Run(cell, Protocols.Step(iSmall, 100, passiveMs), 100 + passiveMs, sim with { RecordEvery = 1, RecordCurrents = false }, rest, cancel);
-            int onset = (int)Math.Round(100 / dt);
-            int endIdx = (int)Math.Round((100 + passiveMs) / dt);
-            double vEnd = Mean(small.VoltageMv, endIdx - (int)(20 / dt), endIdx);
-            double dv = vEnd - rest.VoltageMv;
-            double nA = iSmall * area / 100.0 / 1000.0;
-            if (Math.Abs(nA) > 0) rin = dv / nA;
-            tau = Passive.TimeConstantMs(small.VoltageMv, dt, onset, rest.VoltageMv, dv);
-
-            // 3. Sag from a larger hyperpolarising step.
-        }
-        if (!firesAtRest && s.IncludeSag)
-        {
-            double iSag = s.SagDeflectionMv * gSlope;
-            var big = Simulator.Run(cell, Protocols.Step(iSag, 100, 1000), 1100, sim with { RecordEvery = 1 }, rest, cancel);
-            int bOn = (int)Math.Round(100 / dt), bEnd = (int)Math.Round(1100 / dt);
-            double vMin = double.PositiveInfinity;
-            for (int i = bOn; i < bEnd; i++) vMin = Math.Min(vMin, big.VoltageMv[i]);
-            double vSs = Mean(big.VoltageMv, bEnd - (int)(50 / dt), bEnd);
-            double peakDefl = rest.VoltageMv - vMin;
-            sag = peakDefl > 1e-9 ? Math.Max(0, (vSs - vMin) / peakDefl) : 0;
-        }
+        // 2. The small passive step (input resistance, time constant) starts from rest like the rheobase search and
+        // does not depend on it: it runs on its own thread while the search runs (same results, less waiting).
+        // Sag (3.) is measured in the second stage.
+        var passiveTask = firesAtRest ? null : Task.Run(() => PassiveStep(cell, s, rest, gSlope, cancel), cancel);
         // 4. Rheobase by k-section bisection.
         // Search up to the current that would hold a passive membrane 150 mV above rest (beyond that the model
         // leaves any physiological range), and never past 200 uA/cm2 (10 nA on 5000 um2).
@@ -145,6 +124,7 @@ public static class Features
         var (rheo, knownLatency) = firesAtRest ? (null, null) : RheobaseSearch.Rheobase(cell, rest, gSlope * 5, maxSearch, s, cancel, rheobaseHint);
         if (!firesAtRest && rheo is null) notes.Add($"No spike for steps up to {maxSearch:G3} uA/cm2.");
         double? rheobase = rheo?.AtOrAboveUaPerCm2;
+        var (rin, tau) = passiveTask is null ? (null, null) : passiveTask.GetAwaiter().GetResult();
         SpikeShape? shape = null;
         double? latency = null;
         {
@@ -180,7 +160,6 @@ public static class Features
             FiresAtRest = firesAtRest,
             InputResistanceMOhm = rin,
             MembraneTimeConstantMs = tau,
-            SagRatio = sag,
             RheobaseUaPerCm2 = rheobase,
             RheobasePa = rheobase is { } r ? cell.Model.Geometry.DensityToPicoamps(r) : null,
             RheobaseToleranceUaPerCm2 = rheobase is null ? null : rheo?.ToleranceUaPerCm2,
@@ -194,8 +173,42 @@ public static class Features
             AreaUm2 = area,
             Notes = notes,
             RestState = rest,
+            SlopeConductanceMsPerCm2 = gSlope,
             IsComplete = false,
         };
+    }
+
+    /// <summary>Input resistance and time constant from a small hyperpolarising step.</summary>
+    private static (double? Rin, double? Tau) PassiveStep(CompiledCell cell, ReadoutSettings s, CellState rest, double gSlope, CancellationToken cancel)
+    {
+        var sim = s.Simulation;
+        double dt = sim.DtMs;
+        double area = cell.Model.Geometry.AreaUm2;
+        double iSmall = s.PassiveDeflectionMv * gSlope;
+        double passiveMs = s.PassiveStepMs;
+        var small = Simulator.Run(cell, Protocols.Step(iSmall, 100, passiveMs), 100 + passiveMs, sim with { RecordEvery = 1, RecordCurrents = false }, rest, cancel);
+        int onset = (int)Math.Round(100 / dt);
+        int endIdx = (int)Math.Round((100 + passiveMs) / dt);
+        double vEnd = Mean(small.VoltageMv, endIdx - (int)(20 / dt), endIdx);
+        double dv = vEnd - rest.VoltageMv;
+        double nA = iSmall * area / 100.0 / 1000.0;
+        double? rin = Math.Abs(nA) > 0 ? dv / nA : null;
+        return (rin, Passive.TimeConstantMs(small.VoltageMv, dt, onset, rest.VoltageMv, dv));
+    }
+
+    /// <summary>Sag ratio from a larger hyperpolarising step: (steady V - lowest V) / (rest - lowest V).</summary>
+    private static double Sag(CompiledCell cell, ReadoutSettings s, CellState rest, double gSlope, CancellationToken cancel)
+    {
+        var sim = s.Simulation;
+        double dt = sim.DtMs;
+        double iSag = s.SagDeflectionMv * gSlope;
+        var big = Simulator.Run(cell, Protocols.Step(iSag, 100, 1000), 1100, sim with { RecordEvery = 1 }, rest, cancel);
+        int bOn = (int)Math.Round(100 / dt), bEnd = (int)Math.Round(1100 / dt);
+        double vMin = double.PositiveInfinity;
+        for (int i = bOn; i < bEnd; i++) vMin = Math.Min(vMin, big.VoltageMv[i]);
+        double vSs = Mean(big.VoltageMv, bEnd - (int)(50 / dt), bEnd);
+        double peakDefl = rest.VoltageMv - vMin;
+        return peakDefl > 1e-9 ? Math.Max(0, (vSs - vMin) / peakDefl) : 0;
     }
 
     /// <summary>
@@ -214,6 +227,8 @@ public static class Features
         IReadOnlyList<FiPoint> extra = [];
         double? gain = null, onsetCurrent = null, onsetRate = null, adaptStep = null, adaptRatio = null, adaptIndex = null, block = null, blockLimit = null;
         int? cls = null;
+        // 3. Sag from a larger hyperpolarising step, on its own thread beside the f-I sweep (it starts from rest too).
+        var sagTask = !first.FiresAtRest && s.IncludeSag && first.SlopeConductanceMsPerCm2 is { } gSlope ? Task.Run(() => Sag(cell, s, rest, gSlope, cancel), cancel) : null;
         if (first.RheobaseUaPerCm2 is { } rb2)
         {
             double rb = rb2;
@@ -270,8 +285,10 @@ public static class Features
             }
         }
 
+        double? sag = sagTask is null ? null : sagTask.GetAwaiter().GetResult();
         return first with
         {
+            SagRatio = sag,
             FiCurve = fi,
             FiGainHzPerUaPerCm2 = gain,
             FiGainHzPerNa = gain is { } g ? g / (area * 1e-5) : null,

@@ -16,7 +16,11 @@ namespace ExprModel.Core.Analysis;
 public static class RheobaseSearch
 {
     /// <summary>Result of an onset search: the largest amplitude without and the smallest with the property.</summary>
-    public sealed record Bracket(double BelowUaPerCm2, double AtOrAboveUaPerCm2, double ToleranceUaPerCm2);
+    public sealed record Bracket(double BelowUaPerCm2, double AtOrAboveUaPerCm2, double ToleranceUaPerCm2)
+    {
+        /// <summary>Rounds of parallel probes the search took (for cost reports; not part of the answer).</summary>
+        public int Rounds { get; init; }
+    }
 
     /// <summary>Amplitudes tested per round: two SIMD groups of four per core keeps every core busy.</summary>
     private static int ProbesPerRound => Math.Max(4, 4 * Environment.ProcessorCount);
@@ -73,9 +77,11 @@ public static class RheobaseSearch
         int lanes = ProbesPerRound;
         // Invariant once bracketed: the property fails at lo (index 0 is zero current, assumed to fail) and holds at hi.
         long lo = 0, hi;
+        int rounds = 0;
         bool[] Test(long[] idx)
         {
             cancel.ThrowIfCancellationRequested();
+            rounds++;
             return holds(idx.Select(grid.At).ToArray());
         }
 
@@ -86,13 +92,15 @@ public static class RheobaseSearch
         }
         else if (hint is { } h && h > 0 && grid.Ceiling(h) <= max)
         {
-            // Seeded: consecutive grid points around the hint; a neighbouring pair settles the answer in one round.
+            // Seeded: grid points around the hint, dense next to it and sparser further out. An onset within about two
+            // grid steps of the hint is settled in this round, one within about eight in the next (whose few probes
+            // are then all the points left in the bracket).
             long centre = grid.Ceiling(h);
-            long first = Math.Max(1, centre - lanes / 2);
-            var idx = Enumerable.Range(0, lanes).Select(i => first + i).Where(n => n <= max).ToArray();
+            long[] offsets = lanes >= 8 ? [-8, -4, -2, -1, 0, 1, 3, 7] : Enumerable.Range(-lanes / 2, lanes).Select(i => (long)i).ToArray();
+            var idx = offsets.Select(o => centre + o).Where(n => n >= 1 && n <= max).Distinct().ToArray();
             var ok = Test(idx);
             int at = Array.IndexOf(ok, true);
-            if (at > 0) return Result(grid, idx[at - 1], idx[at]);
+            if (at > 0) return Narrow(idx[at - 1], idx[at]);
             if (at == 0)
             {
                 // Holds everywhere in the window: widen downwards by doubling distances until it fails.
@@ -161,12 +169,9 @@ public static class RheobaseSearch
                     if (first > 0) below = idx[first - 1];
                 }
             }
-            return Result(grid, below, above);
+            return new Bracket(grid.At(below), grid.At(above), grid.At(above) - grid.At(below)) { Rounds = rounds };
         }
     }
-
-    private static Bracket Result(OnsetGrid grid, long below, long above) =>
-        new(grid.At(below), grid.At(above), grid.At(above) - grid.At(below));
 
     /// <summary>
     /// Rheobase: the smallest step that evokes at least one spike. Also returns the first spike time (ms from step

@@ -143,6 +143,7 @@ public static class Simulator
             var iRec = new double[samples];
             double[][]? currents = every > 0 && settings.RecordCurrents ? Enumerable.Range(0, channelCount).Select(_ => new double[samples]).ToArray() : null;
             double[]? caRec = every > 0 && hasShell ? new double[samples] : null;
+            double[]? gatesRec = every > 0 && settings.RecordGateStates ? new double[samples * gateCount] : null;
             var spikes = new List<double>();
             var detector = new SpikeDetector(settings.Spikes);
             detector.Feed(0, v, dt);
@@ -152,6 +153,7 @@ public static class Simulator
                 vRec[0] = v;
                 if (caRec is not null) caRec[0] = ca;
                 if (currents is not null) RecordCurrents(cell, currents, 0, v, x, ca);
+                if (gatesRec is not null) Array.Copy(x, 0, gatesRec, 0, gateCount);
             }
 
             for (int s = 0; s < steps; s++)
@@ -254,6 +256,7 @@ public static class Simulator
                     iRec[r] = iStim;
                     if (caRec is not null) caRec[r] = ca;
                     if (currents is not null) RecordCurrents(cell, currents, r, v, x, ca);
+                    if (gatesRec is not null) Array.Copy(x, 0, gatesRec, r * gateCount, gateCount);
                 }
             }
             var dict = new Dictionary<string, double[]>();
@@ -267,6 +270,7 @@ public static class Simulator
                 StimulusUaPerCm2 = iRec,
                 ChannelCurrentsUaPerCm2 = dict,
                 CalciumMm = caRec,
+                GateStates = gatesRec,
                 SpikeTimesMs = spikes,
                 FinalState = new CellState(v, x, ca),
                 DurationMs = steps * dt,
@@ -277,6 +281,36 @@ public static class Simulator
         {
             for (int c = 0; c < cell.ChannelCount; c++) currents[c][r] = cell.ChannelCurrent(c, v, x, ca);
         }
+    }
+
+    /// <summary>
+    /// Each channel's current density (uA/cm2, outward positive) at one recorded sample of a run made with
+    /// <see cref="SimulationSettings.RecordGateStates"/>, in the cell's channel order (labels: <see cref="ChannelLabels"/>).
+    /// </summary>
+    public static double[] ChannelCurrentsAt(CompiledCell cell, Trace trace, int sample)
+    {
+        var states = trace.GateStates ?? throw new ArgumentException("the run did not record gate states (SimulationSettings.RecordGateStates)", nameof(trace));
+        var x = new double[cell.GateCount];
+        Array.Copy(states, sample * cell.GateCount, x, 0, cell.GateCount);
+        double v = trace.VoltageMv[sample];
+        double ca = trace.CalciumMm?[sample] ?? trace.FinalState.CalciumMm;
+        var i = new double[cell.ChannelCount];
+        for (int c = 0; c < cell.ChannelCount; c++) i[c] = cell.ChannelCurrent(c, v, x, ca);
+        return i;
+    }
+
+    /// <summary>One label per channel, in the cell's order: the entry id, with "#2", "#3" for repeats (as the recorded currents use).</summary>
+    public static IReadOnlyList<string> ChannelLabels(CompiledCell cell)
+    {
+        var taken = new Dictionary<string, double[]>();
+        var labels = new List<string>();
+        for (int c = 0; c < cell.ChannelCount; c++)
+        {
+            var label = UniqueLabel(cell, c, taken);
+            taken[label] = [];
+            labels.Add(label);
+        }
+        return labels;
     }
 
     internal static string UniqueLabel(CompiledCell cell, int c, IReadOnlyDictionary<string, double[]> taken)

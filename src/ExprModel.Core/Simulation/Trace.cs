@@ -8,6 +8,12 @@ public sealed record SimulationSettings
     /// <summary>Keep every Nth sample in the recorded trace (0 = record nothing but spikes).</summary>
     public int RecordEvery { get; init; } = 1;
     public bool RecordCurrents { get; init; }
+    /// <summary>
+    /// Keep every recorded sample's gate states (<see cref="Trace.GateStates"/>), so channel currents can be computed
+    /// afterwards for just the samples wanted (<see cref="Simulator.ChannelCurrentsAt"/>); far cheaper than
+    /// <see cref="RecordCurrents"/> when only a window is shown.
+    /// </summary>
+    public bool RecordGateStates { get; init; }
     public SpikeDetection Spikes { get; init; } = SpikeDetection.Default;
     /// <summary>Spike-only runs end as soon as a spike after this time (ms) is confirmed (in a SIMD group: once every lane has one). Null runs to the end.</summary>
     public double? StopAtFirstSpikeAfterMs { get; init; }
@@ -26,6 +32,8 @@ public sealed class Trace
     /// <summary>Per channel id, membrane current density (uA/cm2, outward positive), when recorded.</summary>
     public IReadOnlyDictionary<string, double[]> ChannelCurrentsUaPerCm2 { get; init; } = new Dictionary<string, double[]>();
     public double[]? CalciumMm { get; init; }
+    /// <summary>Gate states per recorded sample, sample-major (sample r, gate k at r * gate count + k), when recorded.</summary>
+    public double[]? GateStates { get; init; }
     public required IReadOnlyList<double> SpikeTimesMs { get; init; }
     public required CellState FinalState { get; init; }
     public required double DurationMs { get; init; }

@@ -126,7 +126,8 @@ public sealed class ModelRunner(ChannelCatalog catalog, SimulationGate gate)
     public static StepView Step(CompiledCell cell, StepProtocol step, CancellationToken cancel)
     {
         var stimulus = new StepCurrent(step.DelayMs, step.StepMs, step.AmplitudeUaPerCm2);
-        var settings = SimulationSettings.Default with { RecordEvery = 1, RecordCurrents = true };
+        // Gate states rather than currents: the currents are only shown around the first spike, so they are computed there.
+        var settings = SimulationSettings.Default with { RecordEvery = 1, RecordGateStates = true };
         Trace trace;
         try
         {
@@ -136,7 +137,7 @@ public sealed class ModelRunner(ChannelCatalog catalog, SimulationGate gate)
         {
             throw new UserInputException(e.Message);
         }
-        return StepView.From(trace, step);
+        return StepView.From(cell, trace, step);
     }
 
     public static IReadOnlyList<FiRow> Fi(CompiledCell cell, FiProtocol fi, CancellationToken cancel) =>

@@ -27,7 +27,8 @@ public sealed record StepView
 
     public const double WindowBeforeMs = 3, WindowAfterMs = 8;
 
-    public static StepView From(Trace trace, StepProtocol step)
+    /// <param name="cell">The cell that ran; its channel currents are computed for the spike window from the recorded gate states.</param>
+    public static StepView From(CompiledCell cell, Trace trace, StepProtocol step)
     {
         var t = trace.TimeMs;
         var v = trace.VoltageMv;
@@ -42,7 +43,9 @@ public sealed record StepView
             // Every second sample (50 us) is plenty for the plot and halves what goes to the browser.
             var idx = Enumerable.Range(from, to - from + 1).Where(k => (k - from) % 2 == 0).ToArray();
             window = idx.Select(k => t[k] - s).ToArray();
-            foreach (var (name, i) in trace.ChannelCurrentsUaPerCm2) currents[name] = idx.Select(k => i[k]).ToArray();
+            var labels = Simulator.ChannelLabels(cell);
+            var rows = idx.Select(k => Simulator.ChannelCurrentsAt(cell, trace, k)).ToArray();
+            for (int c = 0; c < labels.Count; c++) currents[labels[c]] = rows.Select(r => r[c]).ToArray();
         }
         return new StepView
         {

@@ -35,6 +35,36 @@ public class EntrySimulationTests
     }
 }
 
+/// <summary>Channel currents computed afterwards from recorded gate states equal the currents recorded during the run.</summary>
+public class GateStateCurrentsTests
+{
+    private static ChannelEntry E(string id) => CatalogFiles.Content.Entries.Single(e => e.Id == id);
+
+    [Fact]
+    public void Currents_from_gate_states_match_recorded_currents_in_a_calcium_cell()
+    {
+        // Calcium through GHK and Nernst entries, calcium-gated SK and BK: every kind of driving term and gate.
+        var ids = new[] { "traub-na", "traub-kdr", "leak", "cav-hva-reuveni1993", "cav3-t-destexhe1996", "cav1-l-jaffe1994", "sk2-kohler1996", "bk-moczydlowski1983", "hcn-vcn-rothman2003" };
+        var cell = new CompiledCell(new CellModel
+        {
+            Geometry = Geometry.FromDiameter(30), TemperatureC = 36, InitialVoltageMv = -70, CalciumShell = new CalciumShell(),
+            Channels = ids.Select(id => new ChannelInstance { Entry = E(id), DensityMsPerCm2 = id switch { "traub-na" => 50, "traub-kdr" => 5, "leak" => 0.05, _ => E(id).TypicalDensityMsPerCm2 } }).ToList(),
+        });
+        var stim = new StepCurrent(20, 150, 4);
+        var recorded = Simulator.Run(cell, stim, 200, SimulationSettings.Default with { RecordCurrents = true });
+        var states = Simulator.Run(cell, stim, 200, SimulationSettings.Default with { RecordGateStates = true });
+        Assert.NotEmpty(recorded.SpikeTimesMs);
+        Assert.Equal(recorded.VoltageMv, states.VoltageMv);
+        var labels = Simulator.ChannelLabels(cell);
+        Assert.Equal(recorded.ChannelCurrentsUaPerCm2.Keys.Order(), labels.Order());
+        for (int k = 0; k < states.VoltageMv.Length; k += 7)
+        {
+            var i = Simulator.ChannelCurrentsAt(cell, states, k);
+            for (int c = 0; c < labels.Count; c++) Assert.Equal(recorded.ChannelCurrentsUaPerCm2[labels[c]][k], i[c]);
+        }
+    }
+}
+
 /// <summary>The parallel f-I sweep path and the single-trace path give the same spike counts for every entry.</summary>
 public class EntrySweepConsistencyTests
 {

@@ -1,0 +1,103 @@
+using ExprModel.Core.Analysis;
+
+namespace ExprModel.Core.Tests.Analysis;
+
+/// <summary>
+/// The onset search returns the first point of a fixed amplitude grid at which the property holds, whatever the
+/// starting point or hint: a seeded search (the Workbench's live read-outs) and a cold one agree exactly.
+/// </summary>
+public sealed class OnsetSearchTests
+{
+    [Theory]
+    [InlineData(0.001, 0.005)]
+    [InlineData(0.005, 0.02)]
+    [InlineData(0.05, 0.05)]
+    public void Grid_spacing_never_exceeds_the_tolerance_and_indices_invert(double abs, double rel)
+    {
+        var grid = new RheobaseSearch.OnsetGrid(abs, rel);
+        for (long n = 1; n < 3000; n++)
+        {
+            double a = grid.At(n - 1), b = grid.At(n);
+            Assert.True(b > a);
+            Assert.True(b - a <= Math.Max(abs, rel * b) * (1 + 1e-12), $"gap {b - a} at {b}");
+            Assert.Equal(n, grid.Ceiling(b));
+            Assert.Equal(n, grid.Ceiling(0.5 * (a + b)));
+            Assert.Equal(n - 1, grid.Floor(0.5 * (a + b)));
+        }
+    }
+
+    [Fact]
+    public void Seeded_and_cold_searches_find_the_same_grid_point_for_a_step_property()
+    {
+        var rng = new Random(3);
+        for (int trial = 0; trial < 300; trial++)
+        {
+            double threshold = Math.Exp(rng.NextDouble() * 9 - 5); // 0.007 to 55
+            bool[] Holds(IReadOnlyList<double> amps) => amps.Select(a => a >= threshold).ToArray();
+            var grid = new RheobaseSearch.OnsetGrid(0.005, 0.02);
+            double expected = grid.At(grid.Ceiling(threshold));
+            var cold = RheobaseSearch.FindOnset(Holds, 0.1, 200, 0.005, 0.02);
+            Assert.NotNull(cold);
+            Assert.Equal(expected, cold!.AtOrAboveUaPerCm2);
+            Assert.True(cold.BelowUaPerCm2 < threshold);
+            foreach (double factor in new[] { 0.2, 0.8, 0.97, 1.0, 1.02, 1.3, 4.0 })
+            {
+                var seeded = RheobaseSearch.FindOnset(Holds, 0.1, 200, 0.005, 0.02, hint: threshold * factor);
+                Assert.Equal((cold.BelowUaPerCm2, cold.AtOrAboveUaPerCm2, cold.ToleranceUaPerCm2), (seeded!.BelowUaPerCm2, seeded.AtOrAboveUaPerCm2, seeded.ToleranceUaPerCm2));
+            }
+        }
+    }
+
+    [Fact]
+    public void A_property_that_never_holds_gives_no_onset_seeded_or_not()
+    {
+        bool[] Never(IReadOnlyList<double> amps) => amps.Select(_ => false).ToArray();
+        Assert.Null(RheobaseSearch.FindOnset(Never, 0.1, 50, 0.005, 0.02));
+        Assert.Null(RheobaseSearch.FindOnset(Never, 0.1, 50, 0.005, 0.02, hint: 10));
+        Assert.Null(RheobaseSearch.FindOnset(Never, 0.1, 50, 0.005, 0.02, hint: 49.9));
+    }
+
+    [Fact]
+    public void A_near_hint_settles_in_one_round_and_a_fair_one_in_two()
+    {
+        int rounds = 0;
+        bool[] Holds(IReadOnlyList<double> amps) { rounds++; return amps.Select(a => a >= 3.3).ToArray(); }
+        RheobaseSearch.FindOnset(Holds, 0.1, 200, 0.005, 0.02, hint: 3.35);
+        int near = rounds;
+        rounds = 0;
+        RheobaseSearch.FindOnset(Holds, 0.1, 200, 0.005, 0.02, hint: 3.3 * 1.1);
+        int fair = rounds;
+        rounds = 0;
+        RheobaseSearch.FindOnset(Holds, 0.1, 200, 0.005, 0.02);
+        int cold = rounds;
+        if (Environment.ProcessorCount >= 2)
+        {
+            Assert.Equal(1, near);
+            Assert.Equal(2, fair);
+        }
+        Assert.True(fair < cold, $"seeded 10 % off: {fair} rounds; cold: {cold}");
+    }
+
+    [Theory]
+    [InlineData("wb1996")]
+    [InlineData("cortex-rs2008")]
+    public void Rheobase_of_a_published_model_does_not_depend_on_the_hint(string preset)
+    {
+        var cell = TestCatalog.Preset(preset);
+        var cold = Features.MeasureFirst(cell, ReadoutSettings.Live);
+        Assert.NotNull(cold.RheobaseUaPerCm2);
+        foreach (double factor in new[] { 0.6, 0.98, 1.05, 1.7 })
+        {
+            var seeded = Features.MeasureFirst(cell, ReadoutSettings.Live, default, cold.RheobaseUaPerCm2 * factor);
+            Assert.Equal(cold.RheobaseUaPerCm2, seeded.RheobaseUaPerCm2);
+            Assert.Equal(cold.ThresholdMv, seeded.ThresholdMv);
+            Assert.Equal(cold.InputResistanceMOhm, seeded.InputResistanceMOhm);
+        }
+        // The two stages together are the one-call read-outs.
+        var all = Features.Measure(cell, ReadoutSettings.Live);
+        var staged = Features.Complete(cell, cold, ReadoutSettings.Live);
+        Assert.Equal(all.Rows(), staged.Rows());
+        Assert.False(cold.IsComplete);
+        Assert.True(staged.IsComplete);
+    }
+}
