@@ -125,6 +125,7 @@ public static class Simulator
             var caRates = Enumerable.Range(0, gateCount).Select(cell.GateHasCalciumRates).ToArray();
             var carriesCalcium = cell.Model.Channels.Select(ch => ch.Entry.Ion == Kinetics.Ion.Calcium).ToArray();
             bool anyNernstCalcium = cell.Mode.Any(m => m == DriveMode.NernstCalcium);
+            bool anyGhkCalcium = cell.Mode.Any(m => m == DriveMode.GhkCalcium);
             double caThermalMv = Kinetics.Nernst.ThermalVoltageMv(cell.TemperatureC, 2), caOutsideMm = cell.CalciumOutsideMm;
             double vPrevious = v;
             bool anySpecial = mode.Any(m => m != DriveMode.Ohmic);
@@ -194,6 +195,8 @@ public static class Simulator
                 double gSum = 0, gE = 0, extra = 0;
                 // One Nernst potential of shell calcium per step, shared by every calcium channel and the shell update.
                 double eCa = anyNernstCalcium ? caThermalMv * Math.Log(caOutsideMm / Math.Max(ca, 1e-9)) : 0;
+                // Likewise one GHK term per step: it depends on V and shell calcium only, not on the channel.
+                double ghk = anyGhkCalcium ? cell.CalciumDrivingMv(DriveMode.GhkCalcium, v, ca, eCa) : 0;
                 for (int c = 0; c < channelCount; c++)
                 {
                     double gc = gbar[c];
@@ -211,7 +214,7 @@ public static class Simulator
                     }
                     else
                     {
-                        extra += gc * cell.CalciumDrivingMv(mode[c], v, ca, eCa);
+                        extra += gc * (mode[c] == DriveMode.GhkCalcium ? ghk : cell.CalciumDrivingMv(mode[c], v, ca, eCa));
                     }
                 }
                 double iStim = stim is not null ? stim[s] : s >= onFirst && s < onEnd ? onValue : offValue;
@@ -230,8 +233,10 @@ public static class Simulator
                 if (hasShell)
                 {
                     double vMid = 0.5 * (v + vOld), ica = 0;
+                    double ghkMid = anyGhkCalcium ? cell.CalciumDrivingMv(DriveMode.GhkCalcium, vMid, ca, eCa) : 0;
                     for (int c = 0; c < channelCount; c++)
-                        if (carriesCalcium[c]) ica += g[c] * (mode[c] == DriveMode.Ohmic ? vMid - erev[c] : cell.CalciumDrivingMv(mode[c], vMid, ca, eCa));
+                        if (carriesCalcium[c])
+                            ica += g[c] * mode[c] switch { DriveMode.Ohmic => vMid - erev[c], DriveMode.GhkCalcium => ghkMid, _ => cell.CalciumDrivingMv(mode[c], vMid, ca, eCa) };
                     double caInf = shellRest - shellGain * ica;
                     ca = caInf + (ca - caInf) * shellDecay;
                     if (ca < 0) ca = 0;

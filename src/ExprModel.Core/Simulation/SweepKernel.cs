@@ -83,6 +83,7 @@ internal static unsafe class SweepKernel
         var caDecay = table.CalciumDecay.Select(Vector256.Create).ToArray();
         var mode = cell.Mode;
         bool anySpecial = mode.Any(m => m != DriveMode.Ohmic);
+        bool anyNernst = mode.Any(m => m == DriveMode.NernstCalcium), anyGhk = mode.Any(m => m == DriveMode.GhkCalcium);
         var carriesCalcium = cell.Model.Channels.Select(ch => ch.Entry.Ion == Kinetics.Ion.Calcium).ToArray();
         bool hasShell = cell.HasShell;
         var caOut = Vector256.Create(cell.CalciumOutsideMm);
@@ -191,6 +192,9 @@ internal static unsafe class SweepKernel
                 var gSum = zero;
                 var gE = zero;
                 var extra = zero;
+                // The driving term of a calcium channel depends only on its mode, V and shell calcium, so each mode's
+                // term (one logarithm or one exponential) is computed once per step for every channel that uses it.
+                var (drivingNernst, drivingGhk) = anySpecial ? Drivings(v, ca) : (zero, zero);
                 for (int c = 0; c < channels; c++)
                 {
                     var gc = gbar[c];
@@ -209,7 +213,7 @@ internal static unsafe class SweepKernel
                     }
                     else
                     {
-                        extra = Fma.MultiplyAdd(gc, Driving(mode[c], v, ca), extra);
+                        extra = Fma.MultiplyAdd(gc, mode[c] == DriveMode.NernstCalcium ? drivingNernst : drivingGhk, extra);
                     }
                 }
                 Vector256<double> current;
@@ -233,8 +237,9 @@ internal static unsafe class SweepKernel
                 {
                     var vMid = (v + vPrev) * half;
                     var ica = zero;
+                    var (nernstMid, ghkMid) = anySpecial ? Drivings(vMid, ca) : (zero, zero);
                     for (int c = 0; c < channels; c++)
-                        if (carriesCalcium[c]) ica = Fma.MultiplyAdd(gcs[c], mode[c] == DriveMode.Ohmic ? vMid - erev[c] : Driving(mode[c], vMid, ca), ica);
+                        if (carriesCalcium[c]) ica = Fma.MultiplyAdd(gcs[c], mode[c] switch { DriveMode.Ohmic => vMid - erev[c], DriveMode.NernstCalcium => nernstMid, _ => ghkMid }, ica);
                     var caInf = shellRest - shellGain * ica;
                     ca = Vector256.Max(Fma.MultiplyAdd(ca - caInf, shellDecay, caInf), zero);
                 }
@@ -278,15 +283,17 @@ internal static unsafe class SweepKernel
         }
         return spikes;
 
-        // Driving term (mV) of a calcium channel: V - E_Ca(Nernst, shell calcium) or the scaled GHK term.
-        Vector256<double> Driving(DriveMode m, Vector256<double> vm, Vector256<double> caIn)
+        // Driving terms (mV) of calcium channels: V - E_Ca (Nernst of shell calcium) and the scaled GHK term; each is
+        // computed only when some channel uses that mode.
+        (Vector256<double> Nernst, Vector256<double> Ghk) Drivings(Vector256<double> vm, Vector256<double> caIn)
         {
             var ci = Vector256.Max(caIn, caFloor);
-            if (m == DriveMode.NernstCalcium) return vm - vt2v * Vector256.Log(caOut / ci);
+            var nernst = anyNernst ? vm - vt2v * Vector256.Log(caOut / ci) : zero;
+            if (!anyGhk) return (nernst, zero);
             var u = vm * invVt2;
             var e = Vector256.Exp(zero - u);
             var linear = Vector256.ConditionalSelect(Vector256.LessThan(Vector256.Abs(u), smallU), vt2v * Fma.MultiplyAdd(u, half, one), vm / (one - e));
-            return linear * (ci / caOut - e);
+            return (nernst, linear * (ci / caOut - e));
         }
     }
 }

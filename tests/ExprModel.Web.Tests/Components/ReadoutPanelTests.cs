@@ -25,6 +25,20 @@ public sealed class ReadoutPanelTests : BunitContext
     }
 
     [Fact]
+    public void Readouts_still_being_measured_show_an_ellipsis_not_a_value()
+    {
+        ReadoutRow[] first = [new("rheobase", "uA/cm2", 0.16), new("excitability_class", "1 or 2", null)];
+        var pending = new HashSet<string> { "excitability_class" };
+        var cut = Render<ReadoutPanel>(p => p.Add(x => x.Columns, [new ReadoutPanel.Column("now", "#1d2a36", first, pending)]).Add(x => x.UpdateCount, 2).Add(x => x.CompleteCount, 1));
+        var cls = cut.Find("tr[data-readout=excitability_class]").QuerySelectorAll("td");
+        Assert.Equal("…", cls[1].TextContent);
+        Assert.Contains("pending", cls[1].ClassName);
+        Assert.Equal("0.16", cut.Find("tr[data-readout=rheobase]").QuerySelectorAll("td")[1].TextContent);
+        Assert.Equal("2", cut.Find("section").GetAttribute("data-update"));
+        Assert.Equal("1", cut.Find("section").GetAttribute("data-complete-update"));
+    }
+
+    [Fact]
     public void Nothing_to_show_says_so()
     {
         var cut = Render<ReadoutPanel>();

@@ -66,6 +66,45 @@ public sealed class WorkbenchPageTests : BunitContext
     }
 
     [Fact]
+    public void Live_readouts_after_a_slider_move_equal_a_cold_measurement_of_the_same_model()
+    {
+        // The live loop shows a first stage early and seeds the rheobase search with the previous value; once every
+        // read-out is in, the table must hold exactly what a fresh, unseeded measurement of that model gives.
+        var cut = Open("cortex-rs2008");
+        cut.WaitForAssertion(() => Assert.True(int.Parse(cut.Find("[data-testid=readouts]").GetAttribute("data-complete-update")!) > 0), TimeSpan.FromSeconds(60));
+        int before = int.Parse(cut.Find("[data-testid=readouts]").GetAttribute("data-complete-update")!);
+        cut.Find("[data-testid=slider-kv7-m-yamada] input").Input("820");
+        cut.WaitForAssertion(() => Assert.True(int.Parse(cut.Find("[data-testid=readouts]").GetAttribute("data-complete-update")!) > before), TimeSpan.FromSeconds(60));
+        Assert.Empty(cut.FindAll("[data-testid=readouts] td.pending"));
+
+        var catalog = Services.GetRequiredService<ChannelCatalog>();
+        var preset = catalog.Preset("cortex-rs2008");
+        var moved = preset with
+        {
+            Channels = preset.Channels.Select(c => c.Entry == "kv7-m-yamada" ? c with { RelativeDensity = ExprModel.Web.Components.Panels.DensityScale.RelativeAt(820) } : c).ToArray(),
+        };
+        var runner = Services.GetRequiredService<ModelRunner>();
+        var cold = ModelRunner.Readouts(runner.Compile(moved), CancellationToken.None);
+        foreach (var row in cold.Rows)
+            Assert.Equal(ExprModel.Web.Components.Panels.ReadoutPanel.Format(row.Value), Value(cut, row.Name));
+    }
+
+    [Fact]
+    public void Comparing_groups_can_be_cancelled_and_keeps_what_is_done()
+    {
+        var catalog = Services.GetRequiredService<ChannelCatalog>();
+        var workspace = Services.GetRequiredService<WorkspaceState>();
+        foreach (var id in new[] { "hh1952", "wb1996", "cortex-rs2008", "cortex-fs2008" }) workspace.GroupModels[id] = catalog.Preset(id);
+        var cut = Open("hh1952");
+        cut.Find("[data-testid=compare-groups]").Click();
+        cut.WaitForAssertion(() => Assert.NotNull(cut.Find("[data-testid=compare-cancel]")), TimeSpan.FromSeconds(30));
+        cut.Find("[data-testid=compare-cancel]").Click();
+        cut.WaitForAssertion(() => Assert.NotNull(cut.Find("[data-testid=compare-groups]")), TimeSpan.FromSeconds(30));
+        Assert.Empty(cut.FindAll("[data-testid=compare-progress]"));
+        Assert.True(cut.FindAll(".variants li").Count < 4, "cancelled before all four groups were pinned");
+    }
+
+    [Fact]
     public void An_impossible_temperature_is_refused_with_a_message()
     {
         var cut = Open("hh1952");
