@@ -15,8 +15,25 @@ public enum GateKind
     Calcium,
 }
 
-/// <summary>Calcium dependence of a calcium-gated subunit (Hill form).</summary>
-public sealed record CalciumSensitivity(double HalfActivationMm, double HillCoefficient, double TimeConstantMs);
+/// <summary>
+/// Calcium dependence of a calcium-gated subunit (Hill form): x_inf = ca^n / (ca^n + K^n). A negative Hill
+/// coefficient writes calcium-dependent inactivation, x_inf = K^m / (K^m + ca^m) with m = -n (for m = 1 the factor
+/// K / (K + ca) of the CA1 calcium-channel models). A time constant of zero, with the gate marked instantaneous,
+/// makes the gate follow calcium at once.
+/// </summary>
+public sealed record CalciumSensitivity(double HalfActivationMm, double HillCoefficient, double TimeConstantMs)
+{
+    /// <summary>True when the gate opens as calcium rises (positive Hill coefficient), false for calcium-dependent inactivation.</summary>
+    public bool RisesWithCalcium => HillCoefficient > 0;
+
+    /// <summary>The steady state at intracellular calcium <paramref name="calciumMm"/> (mM).</summary>
+    public double SteadyStateAt(double calciumMm)
+    {
+        double m = Math.Abs(HillCoefficient);
+        double cm = Math.Pow(Math.Max(calciumMm, 0), m), km = Math.Pow(HalfActivationMm, m);
+        return RisesWithCalcium ? cm / (cm + km) : km / (km + cm);
+    }
+}
 
 /// <summary>
 /// One gating variable raised to <see cref="Power"/>. Alpha/beta gates convert to steady state and time
@@ -59,9 +76,7 @@ public sealed record GateSpec
                 }
             case GateKind.Calcium:
                 {
-                    var c = Calcium!;
-                    double cn = Math.Pow(Math.Max(calciumMm, 0), c.HillCoefficient);
-                    return cn / (cn + Math.Pow(c.HalfActivationMm, c.HillCoefficient));
+                    return Calcium!.SteadyStateAt(calciumMm);
                 }
             default:
                 throw new InvalidOperationException($"Unknown gate kind {Kind}.");
@@ -122,8 +137,11 @@ public sealed record GateSpec
                 return Alpha.Problem() is { } ca ? $"gate {Name} alpha: {ca}" : Beta.Problem() is { } cb ? $"gate {Name} beta: {cb}" : null;
             case GateKind.Calcium:
                 if (Calcium is null) return $"gate {Name}: calcium sensitivity is required";
-                if (!(Calcium.HalfActivationMm > 0) || !(Calcium.HillCoefficient > 0) || !(Calcium.TimeConstantMs > 0))
-                    return $"gate {Name}: calcium halfActivationMm, hill and tauMs must be positive";
+                if (!(Calcium.HalfActivationMm > 0) || double.IsInfinity(Calcium.HalfActivationMm)) return $"gate {Name}: calcium halfActivationMm must be positive";
+                if (!double.IsFinite(Calcium.HillCoefficient) || Calcium.HillCoefficient == 0 || Math.Abs(Calcium.HillCoefficient) > 8)
+                    return $"gate {Name}: calcium hill must be a non-zero number between -8 and 8 (negative: calcium-dependent inactivation)";
+                if (Instantaneous ? Calcium.TimeConstantMs != 0 : !(Calcium.TimeConstantMs > 0) || double.IsInfinity(Calcium.TimeConstantMs))
+                    return $"gate {Name}: calcium tauMs must be positive (or 0 with instantaneous: true)";
                 return null;
         }
         return null;

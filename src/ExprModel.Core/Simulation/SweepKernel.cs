@@ -78,8 +78,10 @@ internal static unsafe class SweepKernel
         var shiftV = cell.GateShiftMv.Select(Vector256.Create).ToArray();
         // exp(-dt * (alpha + beta) * rateFactor * temperature factor): the same tau the scalar loop takes.
         var rateMult = Enumerable.Range(0, gates).Select(g => Vector256.Create(-dt * cell.Gates[g].RateFactor * cell.GateTemperatureFactor[g])).ToArray();
-        var hill = cell.Gates.Select(gs => gs.Calcium?.HillCoefficient ?? 1).ToArray();
-        var kdPow = cell.Gates.Select(gs => gs.Calcium is { } ca ? Vector256.Create(Math.Pow(ca.HalfActivationMm, ca.HillCoefficient)) : default).ToArray();
+        // Hill exponent magnitude and K^|n|; a negative coefficient (calcium-dependent inactivation) takes K^m / (K^m + ca^m).
+        var hill = cell.Gates.Select(gs => Math.Abs(gs.Calcium?.HillCoefficient ?? 1)).ToArray();
+        var rises = cell.Gates.Select(gs => gs.Calcium?.RisesWithCalcium ?? true).ToArray();
+        var kdPow = cell.Gates.Select(gs => gs.Calcium is { } ca ? Vector256.Create(Math.Pow(ca.HalfActivationMm, Math.Abs(ca.HillCoefficient))) : default).ToArray();
         var caDecay = table.CalciumDecay.Select(Vector256.Create).ToArray();
         var mode = cell.Mode;
         bool anySpecial = mode.Any(m => m != DriveMode.Ohmic);
@@ -159,9 +161,9 @@ internal static unsafe class SweepKernel
                     }
                     if (isCaGate[g])
                     {
-                        // Hill steady state of a calcium-gated subunit; constant time constant.
+                        // Hill steady state of a calcium-gated subunit (rising, or falling for calcium-dependent inactivation); constant time constant.
                         var cn = hill[g] == 1 ? Vector256.Max(ca, zero) : Vector256.Exp(Vector256.Create(hill[g]) * Vector256.Log(Vector256.Max(ca, Vector256.Create(1e-300))));
-                        var inf = cn / (cn + kdPow[g]);
+                        var inf = (rises[g] ? cn : kdPow[g]) / (cn + kdPow[g]);
                         x[g] = Fma.MultiplyAdd(x[g] - inf, caDecay[g], inf);
                         continue;
                     }

@@ -56,4 +56,30 @@ public class CalciumGateTests
         Assert.Equal(g.TimeConstantAt(-20), g.TimeConstantAt(-20, 1e-2));
         Assert.False(g.DependsOnCalcium);
     }
+
+    [Fact]
+    public void A_negative_hill_coefficient_writes_calcium_dependent_inactivation()
+    {
+        // K/(K + ca) (common practice: one-site calcium inhibition): 1 at no calcium, 1/2 at K, 1/(1 + 10) at 10 K.
+        var f = new GateSpec { Name = "f", Kind = GateKind.Calcium, Instantaneous = true, Calcium = new CalciumSensitivity(0.001, -1, 0) };
+        Assert.Null(f.Problem());
+        Assert.Equal(1, f.SteadyStateAt(0, 0), 15);
+        Assert.Equal(0.5, f.SteadyStateAt(0, 0.001), 15);
+        Assert.Equal(1 / 11.0, f.SteadyStateAt(30, 0.01), 15);
+        // A rising gate of the same K and |n| is its complement.
+        var q = new GateSpec { Name = "q", Kind = GateKind.Calcium, Calcium = new CalciumSensitivity(0.001, 1, 5) };
+        foreach (var ca in new[] { 1e-5, 3e-4, 2e-3 }) Assert.Equal(1, f.SteadyStateAt(0, ca) + q.SteadyStateAt(0, ca), 14);
+    }
+
+    [Theory]
+    [InlineData(0.001, 0.0, 5.0, false, "hill")]
+    [InlineData(0.001, 9.0, 5.0, false, "hill")]
+    [InlineData(0.0, 1.0, 5.0, false, "halfActivationMm")]
+    [InlineData(0.001, 1.0, 0.0, false, "tauMs")]
+    [InlineData(0.001, -1.0, 5.0, true, "tauMs")]
+    public void Calcium_gate_parameters_out_of_range_are_named(double half, double hill, double tau, bool instantaneous, string named)
+    {
+        var g = new GateSpec { Name = "x", Kind = GateKind.Calcium, Instantaneous = instantaneous, Calcium = new CalciumSensitivity(half, hill, tau) };
+        Assert.Contains(named, g.Problem());
+    }
 }

@@ -17,7 +17,7 @@ public class CalciumSubtypeEntriesTests
     private const string LType = "cav1-l-jaffe1994";
     private const string NType = "cav22-n-ca1-1994";
 
-    private static ChannelEntry Entry(string id) => CatalogFiles.Content.Entries.Single(e => e.Id == id);
+    private static ChannelEntry Entry(string id) => CatalogFiles.Content.Entries.Where(e => e.Id == id).MaxBy(e => e.Version)!; // the latest version
 
     // Recalled equations (V in mV, rates per ms), as the curator notes give them.
     private static double LTypeAlphaM(double v) => 15.69 * (81.5 - v) / (Math.Exp((81.5 - v) / 10) - 1);
@@ -99,18 +99,35 @@ public class CalciumSubtypeEntriesTests
         Assert.InRange(h.TimeConstantAt(hHalf), 1300, 1400);
     }
 
-    [Fact]
-    public void The_calcium_dependent_inactivation_factor_is_left_out_and_the_note_says_so()
+    [Theory]
+    [InlineData(0.0, 1.0)]
+    [InlineData(0.001, 0.5)]      // at Ki the factor is one half
+    [InlineData(0.003, 0.25)]
+    [InlineData(0.0001, 1 / 1.1)]
+    public void Version_2_carries_the_calcium_dependent_inactivation_factor(double calciumMm, double expected)
     {
-        // Ki/(Ki + [Ca]i) falls with calcium and acts instantly; the format's calcium gate rises with calcium (positive Hill
-        // coefficient) and relaxes with a time constant, so the entries leave the factor out rather than approximate it.
+        // Ki/(Ki + [Ca]i) with Ki = 0.001 mM (recalled), written as an instantaneous calcium gate with Hill coefficient -1.
         foreach (var entry in new[] { Entry(LType), Entry(NType) })
         {
-            Assert.DoesNotContain(entry.Gates, g => g.DependsOnCalcium);
-            Assert.Contains("NOT REPRESENTED: the calcium-dependent inactivation factor Ki/(Ki + [Ca]i)", entry.CuratorNote, StringComparison.Ordinal);
+            Assert.Equal(2, entry.Version);
+            var f = entry.Gates.Single(g => g.DependsOnCalcium);
+            Assert.True(f.Instantaneous);
+            Assert.Equal(expected, f.SteadyStateAt(0, calciumMm), 12);
+            Assert.Equal(expected, f.SteadyStateAt(-60, calciumMm), 12); // voltage-independent
             Assert.Equal(ReversalRule.GoldmanHodgkinKatz, entry.Reversal);
             Assert.Equal(Verification.Recalled, entry.Source.Verification);
             Assert.Equal("", entry.Source.Doi);
+        }
+    }
+
+    [Fact]
+    public void Version_1_stays_as_it_was_without_the_factor()
+    {
+        foreach (var id in new[] { LType, NType })
+        {
+            var v1 = CatalogFiles.Content.Entries.Single(e => e.Id == id && e.Version == 1);
+            Assert.DoesNotContain(v1.Gates, g => g.DependsOnCalcium);
+            Assert.Contains("NOT REPRESENTED: the calcium-dependent inactivation factor Ki/(Ki + [Ca]i)", v1.CuratorNote, StringComparison.Ordinal);
         }
     }
 

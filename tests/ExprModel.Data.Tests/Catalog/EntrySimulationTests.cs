@@ -7,7 +7,7 @@ namespace ExprModel.Data.Tests.Catalog;
 /// <summary>Every entry, at its typical density, can be simulated in a spiking cell without leaving the physical range.</summary>
 public class EntrySimulationTests
 {
-    private static ChannelEntry E(string id) => CatalogFiles.Content.Entries.Single(e => e.Id == id);
+    private static ChannelEntry E(string id) => CatalogFiles.Content.Entries.Where(e => e.Id == id).MaxBy(e => e.Version)!; // the latest version
 
     [Theory]
     [MemberData(nameof(CatalogFiles.EntryKeys), MemberType = typeof(CatalogFiles))]
@@ -38,7 +38,7 @@ public class EntrySimulationTests
 /// <summary>Channel currents computed afterwards from recorded gate states equal the currents recorded during the run.</summary>
 public class GateStateCurrentsTests
 {
-    private static ChannelEntry E(string id) => CatalogFiles.Content.Entries.Single(e => e.Id == id);
+    private static ChannelEntry E(string id) => CatalogFiles.Content.Entries.Where(e => e.Id == id).MaxBy(e => e.Version)!; // the latest version
 
     [Fact]
     public void Currents_from_gate_states_match_recorded_currents_in_a_calcium_cell()
@@ -68,7 +68,7 @@ public class GateStateCurrentsTests
 /// <summary>The parallel f-I sweep path and the single-trace path give the same spike counts for every entry.</summary>
 public class EntrySweepConsistencyTests
 {
-    private static ChannelEntry E(string id) => CatalogFiles.Content.Entries.Single(e => e.Id == id);
+    private static ChannelEntry E(string id) => CatalogFiles.Content.Entries.Where(e => e.Id == id).MaxBy(e => e.Version)!; // the latest version
 
     private static (int[] Sweep, int[] Single) Counts(ChannelEntry entry)
     {
