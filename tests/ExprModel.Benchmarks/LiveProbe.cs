@@ -60,9 +60,9 @@ internal static class LiveProbe
                 var cell = new CompiledCell(catalog.BuildCell(moved));
                 var first = Features.MeasureFirst(cell, s);
                 if (first.RestState is not { } rest || first.SlopeConductanceMsPerCm2 is not { } g) continue;
-                double max = Math.Min(g * 150, 200);
-                var c = RheobaseSearch.Rheobase(cell, rest, g * 5, max, s).Bracket;
-                var w = RheobaseSearch.Rheobase(cell, rest, g * 5, max, s, default, previous).Bracket;
+                var (start, max) = Features.RheobaseSearchRange(g);
+                var c = RheobaseSearch.Rheobase(cell, rest, start, max, s).Bracket;
+                var w = RheobaseSearch.Rheobase(cell, rest, start, max, s, default, previous).Bracket;
                 if (c is null || w is null) continue;
                 moves++;
                 cold += c.Rounds;

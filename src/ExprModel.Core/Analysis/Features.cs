@@ -87,8 +87,9 @@ public static class Features
         Complete(cell, MeasureFirst(cell, settings, cancel), settings, cancel);
 
     /// <summary>
-    /// The first stage of the read-outs: rest, passive properties, sag, rheobase and the spike at rheobase. Its result
-    /// has <see cref="CellReadouts.IsComplete"/> false; <see cref="Complete"/> adds the f-I curve and what depends on it.
+    /// The first stage of the read-outs: rest, input resistance, time constant, rheobase and the spike at rheobase. Its
+    /// result has <see cref="CellReadouts.IsComplete"/> false; <see cref="Complete"/> adds sag, the f-I curve and what
+    /// depends on it.
     /// The Workbench shows this stage as soon as it is done.
     /// </summary>
     /// <param name="rheobaseHint">An earlier rheobase of a similar cell: the search starts there (same answer, fewer rounds).</param>
@@ -120,8 +121,8 @@ public static class Features
         // 4. Rheobase by k-section bisection.
         // Search up to the current that would hold a passive membrane 150 mV above rest (beyond that the model
         // leaves any physiological range), and never past 200 uA/cm2 (10 nA on 5000 um2).
-        double maxSearch = Math.Min(gSlope * 150, 200);
-        var (rheo, knownLatency) = firesAtRest ? (null, null) : RheobaseSearch.Rheobase(cell, rest, gSlope * 5, maxSearch, s, cancel, rheobaseHint);
+        var (startSearch, maxSearch) = RheobaseSearchRange(gSlope);
+        var (rheo, knownLatency) = firesAtRest ? (null, null) : RheobaseSearch.Rheobase(cell, rest, startSearch, maxSearch, s, cancel, rheobaseHint);
         if (!firesAtRest && rheo is null) notes.Add($"No spike for steps up to {maxSearch:G3} uA/cm2.");
         double? rheobase = rheo?.AtOrAboveUaPerCm2;
         var (rin, tau) = passiveTask is null ? (null, null) : passiveTask.GetAwaiter().GetResult();
@@ -177,6 +178,13 @@ public static class Features
             IsComplete = false,
         };
     }
+
+    /// <summary>
+    /// Where the rheobase search starts (a step holding a passive membrane 5 mV above rest) and how far it goes (150 mV
+    /// above rest, at most 200 uA/cm2), from the steady-state slope conductance at rest (mS/cm2).
+    /// </summary>
+    public static (double StartUaPerCm2, double MaxUaPerCm2) RheobaseSearchRange(double slopeConductanceMsPerCm2) =>
+        (slopeConductanceMsPerCm2 * 5, Math.Min(slopeConductanceMsPerCm2 * 150, 200));
 
     /// <summary>Input resistance and time constant from a small hyperpolarising step.</summary>
     private static (double? Rin, double? Tau) PassiveStep(CompiledCell cell, ReadoutSettings s, CellState rest, double gSlope, CancellationToken cancel)
