@@ -69,6 +69,34 @@ public sealed class ExpressionFlowTests(AppFixture app)
     }
 
     [Fact]
+    public async Task Read_outs_for_every_cell_are_summarised_by_group_and_exported_per_cell()
+    {
+        var (context, page, errors) = await app.NewPageAsync();
+        page.SetDefaultTimeout(180_000);
+        await app.GotoAsync(page, "/load");
+        await page.Locator("[data-testid=use-demo]").ClickAsync();
+        await page.Locator("[data-testid=to-map]").ClickAsync();
+        await page.Locator("[data-testid=build]").ClickAsync();
+        await page.Locator("[data-testid=cell-batch]").ClickAsync();
+        await page.WaitForSelectorAsync("[data-testid=cell-batch-progress]");
+        await page.WaitForSelectorAsync("[data-testid=cell-batch-csv]");
+        Assert.Equal(5, await page.Locator("[data-testid=cell-batch-summary] tbody tr").CountAsync());
+        Assert.Contains("Research use only", await page.Locator("[data-testid=cell-batch-card]").InnerTextAsync());
+        await app.ScreenshotAsync(page, "map-every-cell");
+
+        var download = await page.RunAndWaitForDownloadAsync(() => page.Locator("[data-testid=cell-batch-csv]").ClickAsync());
+        var lines = (await File.ReadAllTextAsync((await download.PathAsync())!)).Split('\n', StringSplitOptions.RemoveEmptyEntries);
+        Assert.StartsWith("# Research tool.", lines[0]);
+        var header = lines.First(l => !l.StartsWith('#'));
+        Assert.StartsWith("item_index,item,group,cells,resting_potential_mv,", header);
+        var rows = lines.SkipWhile(l => l != header).Skip(1).ToArray();
+        Assert.Equal(240, rows.Length); // the demo survey's cells (catalog/demo/metadata.csv)
+        Assert.Contains(rows, r => r.Split(',')[2] == "T3-bursting");
+        Assert.Empty(errors);
+        await context.CloseAsync();
+    }
+
+    [Fact]
     public async Task A_bad_file_shows_where_it_is_wrong()
     {
         var (context, page, errors) = await app.NewPageAsync();

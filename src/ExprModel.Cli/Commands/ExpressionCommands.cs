@@ -14,9 +14,6 @@ namespace ExprModel.Cli.Commands;
 /// <summary>exprmodel build | batch | merge: from an expression table to models and read-outs.</summary>
 public static class ExpressionCommands
 {
-    /// <summary>Standard absolute steps (pA) at which batch reports firing rates.</summary>
-    public static IReadOnlyList<double> StandardStepsPa => BatchReadouts.StandardStepsPa;
-
     private sealed class Inputs
     {
         public readonly Option<string> Expression = new("--expression") { Description = "Expression table: CSV/TSV (optionally .gz), Matrix Market directory or .mtx, or .h5ad.", Required = true };
@@ -196,22 +193,10 @@ public static class ExpressionCommands
             };
             var (index, count) = ParseShard(p.GetValue(shard));
             int from = (int)((long)items.Count * (index - 1) / count), to = (int)((long)items.Count * index / count);
-            var header = new List<string> { "item_index", "item", "cells", "resting_potential_mv", "input_resistance_mohm", "membrane_time_constant_ms", "rheobase_pa",
-                "spike_threshold_mv", "spike_half_width_ms" };
-            header.AddRange(StandardStepsPa.Select(s => $"rate_at_{s:F0}pa_hz"));
-            header.AddRange(["excitability_class", "adaptation_ratio", "adaptation_index", "warnings"]);
             var progress = new Progress(ctx.Error, to - from);
             var results = BatchReadouts.Run(table, report, data.Catalog, rule, items, groups, from, to, progress.Report);
             progress.Finish();
-            var csv = new CsvTable([ResearchCaution.Text, $"source: {table.Source}; shard {index}/{count} of {items.Count} items"], header);
-            foreach (var b in results)
-            {
-                var r = b.Readouts;
-                var row = new List<object?> { b.Index, b.Item, b.Cells, r?.RestingPotentialMv, r?.InputResistanceMOhm, r?.MembraneTimeConstantMs, r?.RheobasePa, r?.ThresholdMv, r?.HalfWidthMs };
-                row.AddRange(StandardStepsPa.Select((_, k) => (object?)(k < b.RatesAtStandardStepsHz.Count ? b.RatesAtStandardStepsHz[k] : null)));
-                row.AddRange([r?.ExcitabilityClass, r?.AdaptationRatio, r?.AdaptationIndex, b.Warnings]);
-                csv.Row([.. row]);
-            }
+            var csv = BatchTable.Create(results, [ResearchCaution.Text, $"source: {table.Source}; shard {index}/{count} of {items.Count} items"]);
             ctx.Emit(csv.ToString(), p.GetValue(output));
             return 0;
         });

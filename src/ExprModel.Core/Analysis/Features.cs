@@ -125,7 +125,8 @@ public static class Features
         var (rheo, knownLatency) = firesAtRest ? (null, null) : RheobaseSearch.Rheobase(cell, rest, startSearch, maxSearch, s, cancel, rheobaseHint);
         if (!firesAtRest && rheo is null) notes.Add($"No spike for steps up to {maxSearch:G3} uA/cm2.");
         double? rheobase = rheo?.AtOrAboveUaPerCm2;
-        var (rin, tau) = passiveTask is null ? (null, null) : passiveTask.GetAwaiter().GetResult();
+        var (rin, tau, passiveNote) = passiveTask is null ? (null, null, null) : passiveTask.GetAwaiter().GetResult();
+        if (passiveNote is not null) notes.Add(passiveNote);
         SpikeShape? shape = null;
         double? latency = null;
         {
@@ -186,8 +187,12 @@ public static class Features
     public static (double StartUaPerCm2, double MaxUaPerCm2) RheobaseSearchRange(double slopeConductanceMsPerCm2) =>
         (slopeConductanceMsPerCm2 * 5, Math.Min(slopeConductanceMsPerCm2 * 150, 200));
 
-    /// <summary>Input resistance and time constant from a small hyperpolarising step.</summary>
-    private static (double? Rin, double? Tau) PassiveStep(CompiledCell cell, ReadoutSettings s, CellState rest, double gSlope, CancellationToken cancel)
+    /// <summary>
+    /// Input resistance and time constant from a small hyperpolarising step. Both need a passive response: when the step
+    /// evokes a spike or the membrane ends up moving against the current (a rest that is not stable), they are left
+    /// undefined and the note says why.
+    /// </summary>
+    private static (double? Rin, double? Tau, string? Note) PassiveStep(CompiledCell cell, ReadoutSettings s, CellState rest, double gSlope, CancellationToken cancel)
     {
         var sim = s.Simulation;
         double dt = sim.DtMs;
@@ -200,8 +205,11 @@ public static class Features
         double vEnd = Mean(small.VoltageMv, endIdx - (int)(20 / dt), endIdx);
         double dv = vEnd - rest.VoltageMv;
         double nA = iSmall * area / 100.0 / 1000.0;
+        if (small.SpikeTimesMs.Count > 0 || !(dv * iSmall > 0))
+            return (null, null, $"The small hyperpolarising step ({iSmall:G3} uA/cm2) did not give a passive response " +
+                (small.SpikeTimesMs.Count > 0 ? "(it evoked a spike)" : $"(V moved {dv:+0.###;-0.###} mV, against the current)") + "; input resistance and time constant are not defined.");
         double? rin = Math.Abs(nA) > 0 ? dv / nA : null;
-        return (rin, Passive.TimeConstantMs(small.VoltageMv, dt, onset, rest.VoltageMv, dv));
+        return (rin, Passive.TimeConstantMs(small.VoltageMv, dt, onset, rest.VoltageMv, dv), null);
     }
 
     /// <summary>Sag ratio from a larger hyperpolarising step: (steady V - lowest V) / (rest - lowest V).</summary>

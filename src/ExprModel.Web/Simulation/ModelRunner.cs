@@ -1,4 +1,5 @@
 using ExprModel.Core.Analysis;
+using ExprModel.Core.Mapping;
 using ExprModel.Core.Models;
 using ExprModel.Core.Simulation;
 using ExprModel.Data.Catalog;
@@ -111,6 +112,31 @@ public sealed class ModelRunner(ChannelCatalog catalog, SimulationGate gate)
         var set = await gate.RunAsync(token => ToSet(Guard(() => Features.Complete(c.Cell, c.Stage, ReadoutSettings.Live, token))), cancel);
         Remember(doc.ToJson(), set);
         return set;
+    }
+
+    /// <summary>Cells per request of a per-cell batch: each chunk is one bounded request (time cap, a gate slot).</summary>
+    public const int CellBatchChunk = 8;
+
+    /// <summary>
+    /// The batch read-outs (the library's <see cref="BatchReadouts"/>, as `exprmodel batch --per cell`) for every cell of
+    /// a dataset, in chunks of <see cref="CellBatchChunk"/> cells so each chunk stays under the per-request time cap and
+    /// the job can be cancelled between and within chunks. <paramref name="progress"/> gets the number of cells done.
+    /// </summary>
+    /// <param name="chunkDone">Gets each chunk's rows as soon as they are measured, so a cancelled job keeps what it has.</param>
+    public async Task<int> CellBatchAsync(ExpressionDataset data, MappingReport report, DensityRule rule, Action<int> progress, CancellationToken cancel,
+        Action<IReadOnlyList<BatchRow>> chunkDone)
+    {
+        var targets = data.CellTargets;
+        int done = 0;
+        for (int from = 0; from < targets.Count; from += CellBatchChunk)
+        {
+            int start = from, to = Math.Min(targets.Count, from + CellBatchChunk);
+            var rows = await gate.RunAsync(token => BatchReadouts.Run(data.Table, report, data.Catalog, rule, targets, data.Groups, start, to, null, token), cancel);
+            chunkDone(rows);
+            done += rows.Count;
+            progress(done);
+        }
+        return done;
     }
 
     private void Remember(string key, ReadoutSet set)

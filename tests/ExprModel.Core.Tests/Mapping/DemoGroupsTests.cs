@@ -50,4 +50,24 @@ public class DemoGroupsTests
             Simulation.SimdAgreement.Check(cell, amps, 500, group);
         }
     }
+
+    [Fact]
+    public void Every_cells_input_resistance_is_positive_or_undefined_with_a_reason()
+    {
+        // A passive response moves V with the current, so an input resistance is positive by definition (common
+        // practice); where a cell's small step does not give one, the read-out must be missing and say why.
+        var dir = CatalogLocator.FindSourceDirectory()!;
+        var data = ExpressionDataset.Read(TestCatalog.Catalog.ForMapping(), Path.Combine(dir, "demo", "counts.csv"), new ExpressionReadOptions(),
+            Path.Combine(dir, "demo", "metadata.csv"), "group");
+        var report = data.Map();
+        var rows = BatchReadouts.Run(data.Table, report, data.Catalog, new DensityRule(), data.CellTargets, data.Groups, 0, data.CellTargets.Count);
+        Assert.Equal(240, rows.Count);
+        foreach (var row in rows.Where(r => r.Readouts is { FiresAtRest: false }))
+        {
+            var r = row.Readouts!;
+            if (r.InputResistanceMOhm is { } rin) Assert.True(rin > 0, $"{row.Item}: input resistance {rin} MOhm");
+            else Assert.Contains(r.Notes, n => n.Contains("input resistance and time constant are not defined", StringComparison.Ordinal));
+            if (r.MembraneTimeConstantMs is { } tau) Assert.True(tau > 0, $"{row.Item}: time constant {tau} ms");
+        }
+    }
 }
