@@ -74,6 +74,38 @@ internal static class LiveProbe
         }
     }
 
+    /// <summary>"stages [model.json ...]": where the first stage's time goes (settle, passive step, rheobase search, spike-shape run).</summary>
+    public static void Stages(IReadOnlyList<string> modelPaths)
+    {
+        var catalog = CatalogLocator.Ensure();
+        var docs = modelPaths.Count == 0
+            ? new[] { "wb1996", "cortex-rs2008" }.Select(p => (p, catalog.Preset(p))).ToList()
+            : modelPaths.Select(p => (Path.GetFileName(p), ModelDocument.Parse(File.ReadAllText(p), p))).ToList();
+        var s = ReadoutSettings.Live;
+        var sim = s.Simulation;
+        Console.WriteLine("first-stage parts, median of 7 (ms): settle | passive step | rheobase search (cold, seeded 5 % off) | shape run");
+        foreach (var (name, doc) in docs)
+        {
+            var cell = new CompiledCell(catalog.BuildCell(doc));
+            var first = Features.MeasureFirst(cell, s);
+            if (first.RestState is not { } rest || first.SlopeConductanceMsPerCm2 is not { } g || first.RheobaseUaPerCm2 is not { } rb) { Console.WriteLine($"{name}: no rheobase"); continue; }
+            var (start, max) = Features.RheobaseSearchRange(g);
+            double settle = Median(() => Simulator.Run(cell, new NoCurrent(), s.SettleMs, sim with { RecordEvery = 0 }));
+            double passive = Median(() => Simulator.Run(cell, Protocols.Step(-5 * g, 100, s.PassiveStepMs), 100 + s.PassiveStepMs, sim with { RecordEvery = 1 }, rest));
+            double cold = Median(() => RheobaseSearch.Rheobase(cell, rest, start, max, s));
+            double seeded = Median(() => RheobaseSearch.Rheobase(cell, rest, start, max, s, default, rb * 1.05));
+            double latency = RheobaseSearch.Rheobase(cell, rest, start, max, s).LatencyMs ?? s.StepDurationMs;
+            double shape = Median(() => Simulator.Run(cell, Protocols.Step(rb, 100, s.StepDurationMs), Math.Min(100 + s.StepDurationMs, 100 + latency + 150), sim with { RecordEvery = 1 }, rest));
+            var resume = RheobaseSearch.Rheobase(cell, rest, start, max, s).BeforeFirstSpike;
+            double resumed = resume is null ? double.NaN : Median(() => Simulator.Resume(cell, Protocols.Step(rb, 100, s.StepDurationMs), resume, Math.Min(100 + s.StepDurationMs, 100 + latency + 150), sim with { RecordEvery = 1 }));
+            var traceStep = Protocols.Step(2 * rb, 100, 500);
+            double traceGates = Median(() => Simulator.Run(cell, traceStep, 700, sim with { RecordEvery = 1, RecordGateStates = true }));
+            double traceBare = Median(() => Simulator.Run(cell, traceStep, 700, sim with { RecordEvery = 1 }));
+            Console.WriteLine($"{name,-24} Workbench trace (700 ms at 2 x rheobase): with gate states {traceGates,5:F1}, voltage only {traceBare,5:F1}");
+            Console.WriteLine($"{name,-24} settle {settle,5:F1} | passive {passive,5:F1} | search cold {cold,5:F1} seeded {seeded,5:F1} | shape from rest {shape,5:F1}, resumed {resumed,5:F1} (latency {latency:F0} ms)");
+        }
+    }
+
     private static double Median(Action run)
     {
         var t = new double[7];

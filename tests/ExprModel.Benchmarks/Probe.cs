@@ -25,13 +25,13 @@ internal static class Probe
             // other work on a shared machine.
             var proc = Process.GetCurrentProcess();
             var c0 = proc.TotalProcessorTime;
-            SweepKernel.Run(cell, table, stims, 44800, SimulationSettings.SpikesOnly, cell.InitialState(), default);
+            SweepKernel.Run(cell, table, stims, 44800, SimulationSettings.SpikesOnly, cell.InitialState(), null, default);
             proc.Refresh();
             var c1 = proc.TotalProcessorTime;
             Simulator.Run(cell, stims[1], 1120, SimulationSettings.SpikesOnly);
             proc.Refresh();
             double tKernel = (c1 - c0).TotalMilliseconds, tScalar = (proc.TotalProcessorTime - c1).TotalMilliseconds;
-            Console.WriteLine($"SIMD: {tKernel * 1e6 / 44800:F0} ns per vector step (4 lanes); scalar: {tScalar * 1e6 / 44800:F0} ns per step (process CPU time)");
+            Console.WriteLine($"SIMD: {tKernel * 1e6 / 44800:F0} ns per vector step ({SweepKernel.Width} lanes, 4 used); scalar: {tScalar * 1e6 / 44800:F0} ns per step (process CPU time)");
         }
     }
 }

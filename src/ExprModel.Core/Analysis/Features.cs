@@ -122,7 +122,7 @@ public static class Features
         // Search up to the current that would hold a passive membrane 150 mV above rest (beyond that the model
         // leaves any physiological range), and never past 200 uA/cm2 (10 nA on 5000 um2).
         var (startSearch, maxSearch) = RheobaseSearchRange(gSlope);
-        var (rheo, knownLatency) = firesAtRest ? (null, null) : RheobaseSearch.Rheobase(cell, rest, startSearch, maxSearch, s, cancel, rheobaseHint);
+        var (rheo, knownLatency, resume) = firesAtRest ? new RheobaseSearch.RheobaseResult(null, null, null) : RheobaseSearch.Rheobase(cell, rest, startSearch, maxSearch, s, cancel, rheobaseHint);
         if (!firesAtRest && rheo is null) notes.Add($"No spike for steps up to {maxSearch:G3} uA/cm2.");
         double? rheobase = rheo?.AtOrAboveUaPerCm2;
         var (rin, tau, passiveNote) = passiveTask is null ? (null, null, null) : passiveTask.GetAwaiter().GetResult();
@@ -134,14 +134,18 @@ public static class Features
             {
                 // 5. Spike shape and latency at rheobase.
                 // The search saw when the first spike comes; record only up to 150 ms past it (enough for its shape,
-                // after-hyperpolarisation window and a following spike).
+                // after-hyperpolarisation window and a following spike), starting from the search's resume point 20 ms
+                // before the spike when it kept one (near rheobase the first spike can come a second after onset).
                 double recordMs = knownLatency is { } kl ? Math.Min(100 + s.StepDurationMs, 100 + kl + 150) : 100 + s.StepDurationMs;
-                var at = Simulator.Run(cell, Protocols.Step(rb, 100, s.StepDurationMs), recordMs, sim with { RecordEvery = 1 }, rest, cancel);
+                var step = Protocols.Step(rb, 100, s.StepDurationMs);
+                var recordAll = sim with { RecordEvery = 1 };
+                var at = resume is not null && resume.Step < (int)Math.Round(recordMs / dt) ? Simulator.Resume(cell, step, resume, recordMs, recordAll, cancel) : null;
+                if (at is null || !at.SpikeTimesMs.Any(t => t >= 100)) at = Simulator.Run(cell, step, recordMs, recordAll, rest, cancel);
                 var inStep = at.SpikeTimesMs.Where(t => t >= 100).ToArray();
                 if (inStep.Length > 0)
                 {
                     latency = inStep[0] - 100;
-                    shape = SpikeShapes.Measure(at.VoltageMv, dt, 0, inStep[0], inStep.Length > 1 ? inStep[1] : null, s.ThresholdSlopeMvPerMs);
+                    shape = SpikeShapes.Measure(at.VoltageMv, dt, at.TimeMs[0], inStep[0], inStep.Length > 1 ? inStep[1] : null, s.ThresholdSlopeMvPerMs);
                 }
                 // A spike must be regenerative: its upstroke must outrun the passive charging rate of the step (I/C) by
                 // a wide margin. Without this, a large step that merely pushes V past the detection level (a cell with

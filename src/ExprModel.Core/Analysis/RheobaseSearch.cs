@@ -173,21 +173,41 @@ public static class RheobaseSearch
         }
     }
 
+    /// <summary>Time before the first spike at which the search keeps a resume point for the spike-shape run (ms).</summary>
+    public const double ResumeMarginMs = 20;
+
+    /// <summary>Result of the rheobase search.</summary>
+    /// <param name="Bracket">The onset bracket (null: no spike up to the maximum).</param>
+    /// <param name="LatencyMs">First spike time (ms from step onset) at the rheobase step, as the search saw it.</param>
+    /// <param name="BeforeFirstSpike">Where a recorded run of the rheobase step can start, at least <see cref="ResumeMarginMs"/>
+    /// before its first spike (null when the sweep could not keep one).</param>
+    public sealed record RheobaseResult(Bracket? Bracket, double? LatencyMs, ResumePoint? BeforeFirstSpike);
+
     /// <summary>
-    /// Rheobase: the smallest step that evokes at least one spike. Also returns the first spike time (ms from step
-    /// onset) at that amplitude, so the spike-shape run can stop soon after it.
+    /// Rheobase: the smallest step that evokes at least one spike. Also returns the first spike time at that amplitude
+    /// and a resume point shortly before that spike, so the spike-shape run need not simulate the whole latency again.
     /// </summary>
-    public static (Bracket? Bracket, double? LatencyMs) Rheobase(CompiledCell cell, CellState rest, double startUaPerCm2, double maxUaPerCm2, ReadoutSettings s,
+    public static RheobaseResult Rheobase(CompiledCell cell, CellState rest, double startUaPerCm2, double maxUaPerCm2, ReadoutSettings s,
         CancellationToken cancel = default, double? hint = null)
     {
-        var latency = new Dictionary<double, double>();
+        var seen = new Dictionary<double, (double Latency, ResumePoint? Resume)>();
         var bracket = FindOnset(amps =>
         {
             // Only "any spike in the step" matters here, so each run may end at its first spike.
-            var fi = FiCurve.Measure(cell, amps, s.StepDurationMs, rest, s.Simulation with { StopAtFirstSpikeAfterMs = FiCurve.DefaultDelayMs }, cancel);
-            foreach (var p in fi) if (p.FirstSpikeLatencyMs is { } l) latency[p.CurrentUaPerCm2] = l;
-            return fi.Select(p => p.SpikesInStep > 0).ToArray();
+            var stimuli = amps.Select(a => (Stimulus)Protocols.Step(a, FiCurve.DefaultDelayMs, s.StepDurationMs)).ToArray();
+            var lanes = Simulator.Sweep(cell, stimuli, FiCurve.DefaultDelayMs + s.StepDurationMs + 20, s.Simulation with { StopAtFirstSpikeAfterMs = FiCurve.DefaultDelayMs },
+                rest, ResumeMarginMs, cancel);
+            var holds = new bool[amps.Count];
+            for (int i = 0; i < amps.Count; i++)
+            {
+                var p = FiCurve.Point(amps[i], lanes[i].SpikeTimesMs, FiCurve.DefaultDelayMs, s.StepDurationMs);
+                if (p.FirstSpikeLatencyMs is { } l) seen[amps[i]] = (l, lanes[i].BeforeFirstSpike);
+                holds[i] = p.SpikesInStep > 0;
+            }
+            return holds;
         }, startUaPerCm2, maxUaPerCm2, s.RheobaseAbsoluteToleranceUaPerCm2, s.RheobaseRelativeTolerance, cancel, hint: hint);
-        return (bracket, bracket is not null && latency.TryGetValue(bracket.AtOrAboveUaPerCm2, out var t) ? t : null);
+        return bracket is not null && seen.TryGetValue(bracket.AtOrAboveUaPerCm2, out var at)
+            ? new RheobaseResult(bracket, at.Latency, at.Resume)
+            : new RheobaseResult(bracket, null, null);
     }
 }

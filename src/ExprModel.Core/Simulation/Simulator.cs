@@ -40,11 +40,21 @@ public static class Simulator
 
     /// <summary>Runs many stimuli on the same cell in parallel, recording only spikes (the f-I path).</summary>
     public static IReadOnlyList<IReadOnlyList<double>> SpikeTimes(CompiledCell cell, IReadOnlyList<Stimulus> stimuli, double durationMs,
-        SimulationSettings? settings = null, CellState? initial = null, CancellationToken cancel = default)
+        SimulationSettings? settings = null, CellState? initial = null, CancellationToken cancel = default) =>
+        Sweep(cell, stimuli, durationMs, settings, initial, null, cancel).Select(l => l.SpikeTimesMs).ToArray();
+
+    /// <summary>
+    /// Runs many stimuli on the same cell in parallel, recording only spikes. With <paramref name="resumeMarginMs"/>,
+    /// each lane also carries a resume point at least that long before its first spike (see <see cref="Resume"/>), so a
+    /// recorded run of the same stimulus can start there instead of from the beginning. Resume points come from the SIMD
+    /// sweep; the scalar loop gives none.
+    /// </summary>
+    public static IReadOnlyList<SweepLane> Sweep(CompiledCell cell, IReadOnlyList<Stimulus> stimuli, double durationMs,
+        SimulationSettings? settings = null, CellState? initial = null, double? resumeMarginMs = null, CancellationToken cancel = default)
     {
         try
         {
-            return SpikeTimesParallel(cell, stimuli, durationMs, settings, initial, cancel);
+            return SweepParallel(cell, stimuli, durationMs, settings, initial, resumeMarginMs, cancel);
         }
         catch (AggregateException e) when (e.Flatten().InnerExceptions.FirstOrDefault(x => x is not OperationCanceledException) is { } first)
         {
@@ -54,31 +64,45 @@ public static class Simulator
         }
     }
 
-    private static IReadOnlyList<IReadOnlyList<double>> SpikeTimesParallel(CompiledCell cell, IReadOnlyList<Stimulus> stimuli, double durationMs,
-        SimulationSettings? settings = null, CellState? initial = null, CancellationToken cancel = default)
+    /// <summary>
+    /// Continues a run of <paramref name="stimulus"/> from a resume point up to <paramref name="untilMs"/> (times stay
+    /// those of the whole run: the trace starts at the resume point's time). The scalar loop computes it.
+    /// </summary>
+    public static Trace Resume(CompiledCell cell, Stimulus stimulus, ResumePoint from, double untilMs, SimulationSettings? settings = null, CancellationToken cancel = default)
+    {
+        settings ??= SimulationSettings.Default;
+        Validate(untilMs, settings);
+        int steps = (int)Math.Round(untilMs / settings.DtMs);
+        if (from.Step < 0 || from.Step >= steps) throw new ArgumentOutOfRangeException(nameof(from), $"the resume point (step {from.Step}) must lie before the end of the run (step {steps})");
+        return Lane.Run(cell, TableFor(cell, settings.DtMs), stimulus, steps, settings, from.State, cancel, from.Step, from.PreviousVoltageMv);
+    }
+
+    private static IReadOnlyList<SweepLane> SweepParallel(CompiledCell cell, IReadOnlyList<Stimulus> stimuli, double durationMs,
+        SimulationSettings? settings, CellState? initial, double? resumeMarginMs, CancellationToken cancel)
     {
         settings = (settings ?? SimulationSettings.Default) with { RecordEvery = 0, RecordCurrents = false };
         Validate(durationMs, settings);
         int steps = (int)Math.Round(durationMs / settings.DtMs);
         var table = TableFor(cell, settings.DtMs);
         var start = initial ?? cell.InitialState();
-        var result = new IReadOnlyList<double>[stimuli.Count];
+        var result = new SweepLane[stimuli.Count];
         var options = new ParallelOptions { CancellationToken = cancel, MaxDegreeOfParallelism = Environment.ProcessorCount };
         if (SweepKernel.CanRun(cell) && UseSimd)
         {
-            int groups = (stimuli.Count + SweepKernel.Width - 1) / SweepKernel.Width;
+            int width = SweepKernel.Width;
+            int groups = (stimuli.Count + width - 1) / width;
             Parallel.For(0, groups, options, gi =>
             {
-                int first = gi * SweepKernel.Width, count = Math.Min(SweepKernel.Width, stimuli.Count - first);
+                int first = gi * width, count = Math.Min(width, stimuli.Count - first);
                 var stims = Enumerable.Range(first, count).Select(i => stimuli[i]).ToArray();
-                var spikes = SweepKernel.Run(cell, table, stims, steps, settings, start, cancel);
-                for (int l = 0; l < count; l++) result[first + l] = spikes[l];
+                var lanes = SweepKernel.Run(cell, table, stims, steps, settings, start, resumeMarginMs, cancel);
+                for (int l = 0; l < count; l++) result[first + l] = lanes[l];
             });
             return result;
         }
         Parallel.For(0, stimuli.Count, options, i =>
         {
-            result[i] = Lane.Run(cell, table, stimuli[i], steps, settings, start, cancel).SpikeTimesMs;
+            result[i] = new SweepLane(Lane.Run(cell, table, stimuli[i], steps, settings, start, cancel).SpikeTimesMs, null);
         });
         return result;
     }
@@ -94,7 +118,10 @@ public static class Simulator
     private static class Lane
     {
         [MethodImpl(MethodImplOptions.AggressiveOptimization)]
-        public static Trace Run(CompiledCell cell, RateTable table, Stimulus stimulus, int steps, SimulationSettings settings, CellState init, CancellationToken cancel)
+        /// <param name="firstStep">Step to start at (a resume point's; 0 from the beginning). Times and the stimulus stay those of the whole run.</param>
+        /// <param name="previousVoltageMv">V one step before <paramref name="firstStep"/> (defaults to the initial V).</param>
+        public static Trace Run(CompiledCell cell, RateTable table, Stimulus stimulus, int steps, SimulationSettings settings, CellState init, CancellationToken cancel,
+            int firstStep = 0, double? previousVoltageMv = null)
         {
             // A step (or no current) is computed from its on-range; other stimuli are sampled once per step.
             double[]? stim = null;
@@ -123,11 +150,17 @@ public static class Simulator
             var power = cell.GatePower;
             var instant = cell.GateIsInstantaneous;
             var caRates = Enumerable.Range(0, gateCount).Select(cell.GateHasCalciumRates).ToArray();
+            // Calcium gates: -dt x rate factor x temperature factor for BK-type rates; Hill magnitude, K^m and direction otherwise.
+            var bkRateMult = Enumerable.Range(0, gateCount).Select(k => -settings.DtMs * cell.Gates[k].RateFactor * cell.GateTemperatureFactor[k]).ToArray();
+            var hill = cell.Gates.Select(gs => Math.Abs(gs.Calcium?.HillCoefficient ?? 1)).ToArray();
+            var hillInteger = hill.Select(h => h == Math.Floor(h) && h is >= 1 and <= 8 ? (int)h : 0).ToArray();
+            var hillRises = cell.Gates.Select(gs => gs.Calcium?.RisesWithCalcium ?? true).ToArray();
+            var kdPow = cell.Gates.Select(gs => gs.Calcium is { } c ? Math.Pow(c.HalfActivationMm, Math.Abs(c.HillCoefficient)) : 0).ToArray();
             var carriesCalcium = cell.Model.Channels.Select(ch => ch.Entry.Ion == Kinetics.Ion.Calcium).ToArray();
             bool anyNernstCalcium = cell.Mode.Any(m => m == DriveMode.NernstCalcium);
             bool anyGhkCalcium = cell.Mode.Any(m => m == DriveMode.GhkCalcium);
             double caThermalMv = Kinetics.Nernst.ThermalVoltageMv(cell.TemperatureC, 2), caOutsideMm = cell.CalciumOutsideMm;
-            double vPrevious = v;
+            double vPrevious = previousVoltageMv ?? v;
             bool anySpecial = mode.Any(m => m != DriveMode.Ohmic);
             double cm = cell.CapacitanceUfPerCm2;
             double invRes = 1.0 / RateTable.ResolutionMv;
@@ -138,7 +171,7 @@ public static class Simulator
             double shellRest = cell.ShellRestMm;
 
             int every = settings.RecordEvery;
-            int samples = every > 0 ? steps / every + 1 : 0;
+            int samples = every > 0 ? (steps - firstStep) / every + 1 : 0;
             var tRec = new double[samples];
             var vRec = new double[samples];
             var iRec = new double[samples];
@@ -146,20 +179,24 @@ public static class Simulator
             double[]? caRec = every > 0 && hasShell ? new double[samples] : null;
             double[]? gatesRec = every > 0 && settings.RecordGateStates ? new double[samples * gateCount] : null;
             var spikes = new List<double>();
+            var resumePoints = new List<ResumePoint>();
+            bool keepResume = settings.KeepResumePoints;
             var detector = new SpikeDetector(settings.Spikes);
-            detector.Feed(0, v, dt);
+            detector.Feed(firstStep * dt, v, dt);
             var g = new double[channelCount];
             if (every > 0)
             {
+                tRec[0] = firstStep * dt;
                 vRec[0] = v;
                 if (caRec is not null) caRec[0] = ca;
                 if (currents is not null) RecordCurrents(cell, currents, 0, v, x, ca);
                 if (gatesRec is not null) Array.Copy(x, 0, gatesRec, 0, gateCount);
             }
 
-            for (int s = 0; s < steps; s++)
+            for (int s = firstStep; s < steps; s++)
             {
-                if ((s & 0xFFFF) == 0 && cancel.IsCancellationRequested) cancel.ThrowIfCancellationRequested();
+                if ((s & 0xFFF) == 0 && cancel.IsCancellationRequested) cancel.ThrowIfCancellationRequested();
+                if (keepResume && s % SimulationSettings.ResumePointEverySteps == 0) resumePoints.Add(new ResumePoint(s, s * dt, new CellState(v, (double[])x.Clone(), ca), vPrevious));
                 double pos = (v - RateTable.MinMv) * invRes;
                 if (pos < 0) pos = 0;
                 else if (pos > maxIndex) pos = maxIndex;
@@ -171,8 +208,24 @@ public static class Simulator
                     var t = data[k];
                     if (t is null)
                     {
-                        double inf = cell.GateSteadyState(k, v, ca);
-                        double decay = caRates[k] ? Math.Exp(-dt / cell.GateTimeConstantMs(k, v, ca)) : caDecay[k];
+                        double inf, decay;
+                        if (caRates[k])
+                        {
+                            // BK-type: both rates once per step give the steady state and the exact decay for the step.
+                            var gate = cell.Gates[k];
+                            double vs = v - cell.GateShiftMv[k];
+                            double opening = gate.Alpha!.Evaluate(vs, ca), sum = opening + gate.Beta!.Evaluate(vs, ca);
+                            inf = opening / sum;
+                            decay = Math.Exp(sum * bkRateMult[k]);
+                        }
+                        else
+                        {
+                            // Hill gate: ca^m by multiplication for whole coefficients, K^m computed once.
+                            double c0 = Math.Max(ca, 0), caPow = hillInteger[k] > 0 ? c0 : Math.Pow(c0, hill[k]);
+                            for (int h = 1; h < hillInteger[k]; h++) caPow *= c0;
+                            inf = (hillRises[k] ? caPow : kdPow[k]) / (caPow + kdPow[k]);
+                            decay = caDecay[k];
+                        }
                         x[k] = inf + (x[k] - inf) * decay;
                         continue;
                     }
@@ -253,9 +306,9 @@ public static class Simulator
                     if (every == 0 && settings.StopAtFirstSpikeAfterMs is { } after && spike >= after) break;
                 }
 
-                if (every > 0 && (s + 1) % every == 0)
+                if (every > 0 && (s + 1 - firstStep) % every == 0)
                 {
-                    int r = (s + 1) / every;
+                    int r = (s + 1 - firstStep) / every;
                     tRec[r] = time;
                     vRec[r] = v;
                     iRec[r] = iStim;
@@ -277,6 +330,7 @@ public static class Simulator
                 CalciumMm = caRec,
                 GateStates = gatesRec,
                 SpikeTimesMs = spikes,
+                ResumePoints = resumePoints,
                 FinalState = new CellState(v, x, ca),
                 DurationMs = steps * dt,
             };

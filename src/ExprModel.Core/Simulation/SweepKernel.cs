@@ -3,15 +3,20 @@ using System.Runtime.Intrinsics.X86;
 
 namespace ExprModel.Core.Simulation;
 
+/// <summary>One stimulus's result in a sweep: its spike times and, when asked for, a resume point shortly before its first spike.</summary>
+public sealed record SweepLane(IReadOnlyList<double> SpikeTimesMs, ResumePoint? BeforeFirstSpike);
+
 /// <summary>
-/// The sweep hot loop with four stimuli as SIMD lanes (AVX2 gathers from the rate tables, FMA, vector exp).
-/// Same staggered scheme and the same spike rule as the scalar loop, so results agree with it to rounding.
-/// Handles voltage gates from tables, calcium-gated (Hill) gates, calcium channels with a Nernst or GHK driving
-/// force and the calcium shell, exactly as the scalar loop orders them.
+/// The sweep hot loop with four stimuli as SIMD lanes (AVX2 gathers from the rate tables, FMA, vector exp). Same staggered scheme and the same spike rule as the scalar
+/// loop, so results agree with it to rounding. Handles voltage gates from tables, calcium-gated (Hill) gates, calcium
+/// channels with a Nernst or GHK driving force and the calcium shell, exactly as the scalar loop orders them.
 /// </summary>
 internal static unsafe class SweepKernel
 {
     public const int Width = 4;
+
+    /// <summary>Integration steps between the snapshots kept for resume points.</summary>
+    public const int CheckpointEverySteps = SimulationSettings.ResumePointEverySteps;
 
     public static bool CanRun(CompiledCell cell) =>
         Avx2.IsSupported && Fma.IsSupported
@@ -20,31 +25,39 @@ internal static unsafe class SweepKernel
     private static bool IsCalciumRate(Kinetics.GateRate? r) => r is { Shape: Kinetics.RateShape.CalciumBoundOpening or Kinetics.RateShape.CalciumBoundClosing };
 
     /// <summary>A calcium-bound rate (Moczydlowski &amp; Latorre 1983), as GateRate.Evaluate(v, ca) computes it.</summary>
-    private static Vector256<double> CalciumRate(Kinetics.GateRate r, Vector256<double> v, Vector256<double> ca)
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private static Vector256<double> CalciumRate(Kinetics.RateShape shape, Vector256<double> a, Vector256<double> c1, Vector256<double> minusInvK, Vector256<double> v, Vector256<double> ca)
     {
-        var e = Vector256.Exp(Vector256<double>.Zero - v / Vector256.Create(r.K));
+        var e = InlineExp.Exp(v * minusInvK);
         var one = Vector256.Create(1.0);
-        return r.Shape == Kinetics.RateShape.CalciumBoundOpening
-            ? Vector256.Create(r.A) / (one + Vector256.Create(r.C1) * e / Vector256.Max(ca, Vector256.Create(1e-12)))
-            : Vector256.Create(r.A) / (one + Vector256.Max(ca, Vector256<double>.Zero) / (Vector256.Create(r.C1) * e));
+        return shape == Kinetics.RateShape.CalciumBoundOpening
+            ? a / (one + c1 * e / Vector256.Max(ca, Vector256.Create(1e-12)))
+            : a / (one + Vector256.Max(ca, Vector256.Create(0.0)) / (c1 * e));
     }
 
-    /// <summary>Runs up to four stimuli (each sampled per step) from the same initial state; returns spike times per lane.</summary>
+    /// <summary>
+    /// Runs up to <c>Vector256<double>.Count</c> stimuli (each a step, or sampled per step) from the same initial state; returns each
+    /// lane's spike times. With <paramref name="resumeMarginMs"/>, also a resume point at least that long before each
+    /// lane's first spike (taken from snapshots every <see cref="CheckpointEverySteps"/> steps; null when
+    /// the lane crossed the detection level before its first counted spike, or no snapshot is early enough).
+    /// </summary>
     [MethodImpl(MethodImplOptions.AggressiveOptimization)]
-    public static List<double>[] Run(CompiledCell cell, RateTable table, IReadOnlyList<Stimulus> stimuli, int steps, SimulationSettings settings, CellState init, CancellationToken cancel)
+    public static SweepLane[] Run(CompiledCell cell, RateTable table, IReadOnlyList<Stimulus> stimuli, int steps, SimulationSettings settings, CellState init,
+        double? resumeMarginMs, CancellationToken cancel)
     {
+        const int width = Width;
         int lanes = stimuli.Count;
-        if (lanes is < 1 or > Width) throw new ArgumentOutOfRangeException(nameof(stimuli));
+        if (lanes < 1 || lanes > width) throw new ArgumentOutOfRangeException(nameof(stimuli));
         int gates = cell.GateCount, channels = cell.ChannelCount;
         double dt = settings.DtMs;
         // Steps (the f-I protocol) are computed inline from their on-range; anything else is sampled per step.
         bool allSteps = stimuli.All(x => x is StepCurrent or NoCurrent);
-        double[] stim = allSteps ? [] : new double[steps * Width];
-        var onFirst = new double[Width];
-        var onEnd = new double[Width];
-        var onValue = new double[Width];
-        var offValue = new double[Width];
-        for (int l = 0; l < Width; l++)
+        double[] stim = allSteps ? [] : new double[steps * width];
+        var onFirst = new double[width];
+        var onEnd = new double[width];
+        var onValue = new double[width];
+        var offValue = new double[width];
+        for (int l = 0; l < width; l++)
         {
             var st = stimuli[l < lanes ? l : 0];
             if (allSteps)
@@ -57,7 +70,7 @@ internal static unsafe class SweepKernel
                 continue;
             }
             var sampled = st.Sample(dt, steps);
-            for (int s = 0; s < steps; s++) stim[s * Width + l] = sampled[s];
+            for (int s = 0; s < steps; s++) stim[s * width + l] = sampled[s];
         }
         var onFirstV = Vector256.Create(onFirst);
         var onEndV = Vector256.Create(onEnd);
@@ -75,11 +88,25 @@ internal static unsafe class SweepKernel
         var gateEnd = cell.GateEnd;
         var isCaGate = cell.GateIsCalcium;
         var caRates = Enumerable.Range(0, gates).Select(cell.GateHasCalciumRates).ToArray();
+        // Calcium-bound (BK-type) rates, broadcast once: shape, A, C1 and -1/K of the opening and the closing rate.
+        var openShape = new Kinetics.RateShape[gates];
+        var closeShape = new Kinetics.RateShape[gates];
+        var openA = new Vector256<double>[gates]; var openC1 = new Vector256<double>[gates]; var openK = new Vector256<double>[gates];
+        var closeA = new Vector256<double>[gates]; var closeC1 = new Vector256<double>[gates]; var closeK = new Vector256<double>[gates];
+        for (int g = 0; g < gates; g++)
+        {
+            if (!caRates[g]) continue;
+            var (o, c) = (cell.Gates[g].Alpha!, cell.Gates[g].Beta!);
+            (openShape[g], openA[g], openC1[g], openK[g]) = (o.Shape, Vector256.Create(o.A), Vector256.Create(o.C1), Vector256.Create(-1 / o.K));
+            (closeShape[g], closeA[g], closeC1[g], closeK[g]) = (c.Shape, Vector256.Create(c.A), Vector256.Create(c.C1), Vector256.Create(-1 / c.K));
+        }
         var shiftV = cell.GateShiftMv.Select(Vector256.Create).ToArray();
         // exp(-dt * (alpha + beta) * rateFactor * temperature factor): the same tau the scalar loop takes.
         var rateMult = Enumerable.Range(0, gates).Select(g => Vector256.Create(-dt * cell.Gates[g].RateFactor * cell.GateTemperatureFactor[g])).ToArray();
         // Hill exponent magnitude and K^|n|; a negative coefficient (calcium-dependent inactivation) takes K^m / (K^m + ca^m).
         var hill = cell.Gates.Select(gs => Math.Abs(gs.Calcium?.HillCoefficient ?? 1)).ToArray();
+        var hillV = hill.Select(Vector256.Create).ToArray();
+        var hillInteger = hill.Select(h => h == Math.Floor(h) && h is >= 1 and <= 8 ? (int)h : 0).ToArray();
         var rises = cell.Gates.Select(gs => gs.Calcium?.RisesWithCalcium ?? true).ToArray();
         var kdPow = cell.Gates.Select(gs => gs.Calcium is { } ca ? Vector256.Create(Math.Pow(ca.HalfActivationMm, Math.Abs(ca.HillCoefficient))) : default).ToArray();
         var caDecay = table.CalciumDecay.Select(Vector256.Create).ToArray();
@@ -89,7 +116,6 @@ internal static unsafe class SweepKernel
         var carriesCalcium = cell.Model.Channels.Select(ch => ch.Entry.Ion == Kinetics.Ion.Calcium).ToArray();
         bool hasShell = cell.HasShell;
         var caOut = Vector256.Create(cell.CalciumOutsideMm);
-        var caOutScalar = cell.CalciumOutsideMm;
         double vt2 = Kinetics.Nernst.ThermalVoltageMv(cell.TemperatureC, 2);
         var vt2v = Vector256.Create(vt2);
         var invVt2 = Vector256.Create(1 / vt2);
@@ -100,12 +126,12 @@ internal static unsafe class SweepKernel
         var ca = Vector256.Create(init.CalciumMm);
         var gcs = new Vector256<double>[channels];
         var one = Vector256.Create(1.0);
-        var smallU = Vector256.Create(1e-6);
         var v = Vector256.Create(init.VoltageMv);
         var vPrev = v;
         var vMin = Vector256.Create(RateTable.MinMv);
         var invRes = Vector256.Create(1.0 / RateTable.ResolutionMv);
-        var zero = Vector256<double>.Zero;
+        var zero = Vector256.Create(0.0);
+        var hillFloor = Vector256.Create(1e-300);
         var maxPos = Vector256.Create((double)(table.Points - 2));
         var half = Vector256.Create(0.5);
         var minusDtOverC = Vector256.Create(-dt / cell.CapacitanceUfPerCm2);
@@ -117,20 +143,46 @@ internal static unsafe class SweepKernel
 
         var spikes = new List<double>[lanes];
         for (int l = 0; l < lanes; l++) spikes[l] = [];
-        var pending = new double[Width];
-        var lastCross = new double[Width];
+        var pending = new double[width];
+        var lastCross = new double[width];
         Array.Fill(pending, double.NaN);
         Array.Fill(lastCross, double.NegativeInfinity);
         bool anyPending = false;
         double? stopAfter = settings.StopAtFirstSpikeAfterMs;
-        var doneLane = new bool[Width];
+        var doneLane = new bool[width];
         int lanesDone = 0;
+
+        // Resume points: a ring of whole-pack snapshots every CheckpointEverySteps steps; at a lane's first crossing the
+        // newest snapshot at least the margin earlier becomes its candidate, kept if that crossing is its first counted spike.
+        const int ring = 4;
+        bool keepResume = resumeMarginMs is not null;
+        int marginSteps = keepResume ? (int)Math.Ceiling(resumeMarginMs!.Value / dt) : 0;
+        var ckX = keepResume ? new Vector256<double>[ring * gates] : [];
+        var ckV = new Vector256<double>[ring];
+        var ckVPrev = new Vector256<double>[ring];
+        var ckCa = new Vector256<double>[ring];
+        var ckStep = new int[ring];
+        Array.Fill(ckStep, -1);
+        var crossed = new bool[width];
+        var candidate = new ResumePoint?[width];
+        var firstCrossTime = new double[width];
+        var resume = new ResumePoint?[lanes];
+        double resumeAfter = stopAfter ?? 0;
 
         fixed (double* S = stim)
         {
             for (int s = 0; s < steps; s++)
             {
-                if ((s & 0xFFFF) == 0 && cancel.IsCancellationRequested) cancel.ThrowIfCancellationRequested();
+                if ((s & 0xFFF) == 0 && cancel.IsCancellationRequested) cancel.ThrowIfCancellationRequested();
+                if (keepResume && s % CheckpointEverySteps == 0)
+                {
+                    int slot = s / CheckpointEverySteps % ring;
+                    ckStep[slot] = s;
+                    ckV[slot] = v;
+                    ckVPrev[slot] = vPrev;
+                    ckCa[slot] = ca;
+                    Array.Copy(x, 0, ckX, slot * gates, gates);
+                }
                 var pos = Vector256.Min(Vector256.Max((v - vMin) * invRes, zero), maxPos);
                 var fl = Vector256.Floor(pos);
                 var f = pos - fl;
@@ -152,17 +204,25 @@ internal static unsafe class SweepKernel
                     {
                         // BK-type: rates depend on V (with the channel's shift) and calcium; exact update for the step.
                         var vs = v - shiftV[g];
-                        var opening = CalciumRate(cell.Gates[g].Alpha!, vs, ca);
-                        var closing = CalciumRate(cell.Gates[g].Beta!, vs, ca);
+                        var opening = CalciumRate(openShape[g], openA[g], openC1[g], openK[g], vs, ca);
+                        var closing = CalciumRate(closeShape[g], closeA[g], closeC1[g], closeK[g], vs, ca);
                         var sum = opening + closing;
                         var inf = opening / sum;
-                        x[g] = Fma.MultiplyAdd(x[g] - inf, Vector256.Exp(sum * rateMult[g]), inf);
+                        x[g] = Fma.MultiplyAdd(x[g] - inf, InlineExp.Exp(sum * rateMult[g]), inf);
                         continue;
                     }
                     if (isCaGate[g])
                     {
                         // Hill steady state of a calcium-gated subunit (rising, or falling for calcium-dependent inactivation); constant time constant.
-                        var cn = hill[g] == 1 ? Vector256.Max(ca, zero) : Vector256.Exp(Vector256.Create(hill[g]) * Vector256.Log(Vector256.Max(ca, Vector256.Create(1e-300))));
+                        Vector256<double> cn;
+                        if (hillInteger[g] > 0)
+                        {
+                            // Whole Hill coefficients (the usual case) by repeated multiplication.
+                            var c0 = Vector256.Max(ca, zero);
+                            cn = c0;
+                            for (int h = 1; h < hillInteger[g]; h++) cn *= c0;
+                        }
+                        else cn = InlineExp.Exp(hillV[g] * InlineLog.Log(Vector256.Max(ca, hillFloor)));
                         var inf = (rises[g] ? cn : kdPow[g]) / (cn + kdPow[g]);
                         x[g] = Fma.MultiplyAdd(x[g] - inf, caDecay[g], inf);
                         continue;
@@ -195,8 +255,10 @@ internal static unsafe class SweepKernel
                 var gE = zero;
                 var extra = zero;
                 // The driving term of a calcium channel depends only on its mode, V and shell calcium, so each mode's
-                // term (one logarithm or one exponential) is computed once per step for every channel that uses it.
-                var (drivingNernst, drivingGhk) = anySpecial ? Drivings(v, ca) : (zero, zero);
+                // term is computed once per step for every channel that uses it. The Nernst potential of shell calcium
+                // (one logarithm) serves this step's currents and the shell update alike.
+                var eCa = anyNernst ? vt2v * InlineLog.Log(caOut / Vector256.Max(ca, caFloor)) : zero;
+                var drivingGhk = anyGhk ? Ghk(v, ca, caOut, vt2v, invVt2) : zero;
                 for (int c = 0; c < channels; c++)
                 {
                     var gc = gbar[c];
@@ -215,23 +277,16 @@ internal static unsafe class SweepKernel
                     }
                     else
                     {
-                        extra = Fma.MultiplyAdd(gc, mode[c] == DriveMode.NernstCalcium ? drivingNernst : drivingGhk, extra);
+                        extra = Fma.MultiplyAdd(gc, mode[c] == DriveMode.NernstCalcium ? v - eCa : drivingGhk, extra);
                     }
                 }
-                Vector256<double> current;
-                if (allSteps)
-                {
-                    var sv = Vector256.Create((double)s);
-                    current = Vector256.ConditionalSelect(Vector256.GreaterThanOrEqual(sv, onFirstV) & Vector256.LessThan(sv, onEndV), onValueV, offValueV);
-                }
-                else
-                {
-                    current = Vector256.Load(S + (long)s * Width);
-                }
+                Vector256<double> current = allSteps
+                    ? Vector256.ConditionalSelect(Vector256.GreaterThanOrEqual(Vector256.Create((double)s), onFirstV) & Vector256.LessThan(Vector256.Create((double)s), onEndV), onValueV, offValueV)
+                    : Vector256.Create(new ReadOnlySpan<double>(S + (long)s * width, width));
                 vPrev = v;
                 var drive = gE + current - extra;
                 var vInf = drive / Vector256.Max(gSum, tiny);
-                var relaxed = Fma.MultiplyAdd(v - vInf, Vector256.Exp(gSum * minusDtOverC), vInf);
+                var relaxed = Fma.MultiplyAdd(v - vInf, InlineExp.Exp(gSum * minusDtOverC), vInf);
                 var euler = Fma.MultiplyAdd(dtOverC, drive - gSum * v, v);
                 v = Vector256.ConditionalSelect(Vector256.GreaterThan(gSum, tiny), relaxed, euler);
 
@@ -239,9 +294,9 @@ internal static unsafe class SweepKernel
                 {
                     var vMid = (v + vPrev) * half;
                     var ica = zero;
-                    var (nernstMid, ghkMid) = anySpecial ? Drivings(vMid, ca) : (zero, zero);
+                    var ghkMid = anyGhk ? Ghk(vMid, ca, caOut, vt2v, invVt2) : zero;
                     for (int c = 0; c < channels; c++)
-                        if (carriesCalcium[c]) ica = Fma.MultiplyAdd(gcs[c], mode[c] switch { DriveMode.Ohmic => vMid - erev[c], DriveMode.NernstCalcium => nernstMid, _ => ghkMid }, ica);
+                        if (carriesCalcium[c]) ica = Fma.MultiplyAdd(gcs[c], mode[c] switch { DriveMode.Ohmic => vMid - erev[c], DriveMode.NernstCalcium => vMid - eCa, _ => ghkMid }, ica);
                     var caInf = shellRest - shellGain * ica;
                     ca = Vector256.Max(Fma.MultiplyAdd(ca - caInf, shellDecay, caInf), zero);
                 }
@@ -264,6 +319,7 @@ internal static unsafe class SweepKernel
                         {
                             if (vl < levelMv)
                             {
+                                if (keepResume && spikes[l].Count == 0 && pending[l] == firstCrossTime[l] && pending[l] >= resumeAfter) resume[l] = candidate[l];
                                 spikes[l].Add(pending[l]);
                                 if (stopAfter is { } after && pending[l] >= after && !doneLane[l]) { doneLane[l] = true; lanesDone++; }
                                 pending[l] = double.NaN;
@@ -276,6 +332,12 @@ internal static unsafe class SweepKernel
                         {
                             pending[l] = t - dt + (levelMv - vp) / (vl - vp) * dt;
                             lastCross[l] = pending[l];
+                            if (keepResume && !crossed[l])
+                            {
+                                crossed[l] = true;
+                                firstCrossTime[l] = pending[l];
+                                candidate[l] = Snapshot(l, (int)Math.Floor(pending[l] / dt) - marginSteps, ckStep, ckX, ckV, ckVPrev, ckCa, gates, dt);
+                            }
                         }
                         if (!double.IsNaN(pending[l])) anyPending = true;
                     }
@@ -283,19 +345,32 @@ internal static unsafe class SweepKernel
                 }
             }
         }
-        return spikes;
+        var result = new SweepLane[lanes];
+        for (int l = 0; l < lanes; l++) result[l] = new SweepLane(spikes[l], resume[l]);
+        return result;
+    }
 
-        // Driving terms (mV) of calcium channels: V - E_Ca (Nernst of shell calcium) and the scaled GHK term; each is
-        // computed only when some channel uses that mode.
-        (Vector256<double> Nernst, Vector256<double> Ghk) Drivings(Vector256<double> vm, Vector256<double> caIn)
-        {
-            var ci = Vector256.Max(caIn, caFloor);
-            var nernst = anyNernst ? vm - vt2v * Vector256.Log(caOut / ci) : zero;
-            if (!anyGhk) return (nernst, zero);
-            var u = vm * invVt2;
-            var e = Vector256.Exp(zero - u);
-            var linear = Vector256.ConditionalSelect(Vector256.LessThan(Vector256.Abs(u), smallU), vt2v * Fma.MultiplyAdd(u, half, one), vm / (one - e));
-            return (nernst, linear * (ci / caOut - e));
-        }
+    /// <summary>GHK driving term (mV) of calcium channels at V = vm and shell calcium (as Nernst.GhkDrivingMv computes it).</summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private static Vector256<double> Ghk(Vector256<double> vm, Vector256<double> caIn, Vector256<double> caOut, Vector256<double> vt2, Vector256<double> invVt2)
+    {
+        var ci = Vector256.Max(caIn, Vector256.Create(1e-9));
+        var u = vm * invVt2;
+        var one = Vector256.Create(1.0);
+        var e = InlineExp.Exp(Vector256.Create(0.0) - u);
+        var linear = Vector256.ConditionalSelect(Vector256.LessThan(Vector256.Abs(u), Vector256.Create(1e-6)), vt2 * Fma.MultiplyAdd(u, Vector256.Create(0.5), one), vm / (one - e));
+        return linear * (ci / caOut - e);
+    }
+
+    /// <summary>Lane l of the newest ring snapshot taken at or before step 'latest' (null when none is that early).</summary>
+    private static ResumePoint? Snapshot(int l, int latest, int[] ckStep, Vector256<double>[] ckX, Vector256<double>[] ckV, Vector256<double>[] ckVPrev, Vector256<double>[] ckCa, int gates, double dt)
+    {
+        int best = -1;
+        for (int k = 0; k < ckStep.Length; k++)
+            if (ckStep[k] >= 0 && ckStep[k] <= latest && (best < 0 || ckStep[k] > ckStep[best])) best = k;
+        if (best < 0) return null;
+        var gs = new double[gates];
+        for (int g = 0; g < gates; g++) gs[g] = ckX[best * gates + g][l];
+        return new ResumePoint(ckStep[best], ckStep[best] * dt, new CellState(ckV[best][l], gs, ckCa[best][l]), ckVPrev[best][l]);
     }
 }

@@ -14,6 +14,14 @@ public sealed record SimulationSettings
     /// <see cref="RecordCurrents"/> when only a window is shown.
     /// </summary>
     public bool RecordGateStates { get; init; }
+    /// <summary>
+    /// Keep a <see cref="ResumePoint"/> every <see cref="ResumePointEverySteps"/> steps (<see cref="Trace.ResumePoints"/>), so
+    /// part of the run can be computed again in more detail (gate states around a spike) without running it all.
+    /// </summary>
+    public bool KeepResumePoints { get; init; }
+
+    /// <summary>Integration steps between the resume points a run keeps (10 ms at the default 25 us step).</summary>
+    public const int ResumePointEverySteps = 400;
     public SpikeDetection Spikes { get; init; } = SpikeDetection.Default;
     /// <summary>Spike-only runs end as soon as a spike after this time (ms) is confirmed (in a SIMD group: once every lane has one). Null runs to the end.</summary>
     public double? StopAtFirstSpikeAfterMs { get; init; }
@@ -21,6 +29,11 @@ public sealed record SimulationSettings
     public static SimulationSettings Default { get; } = new();
     public static SimulationSettings SpikesOnly { get; } = new() { RecordEvery = 0 };
 }
+
+/// <summary>Where a run can be taken up again: the integrator's full state at the start of an integration step.</summary>
+/// <param name="Step">Index of the next integration step (its start time is Step x dt).</param>
+/// <param name="PreviousVoltageMv">V one step earlier (instantaneous gates extrapolate V from it).</param>
+public sealed record ResumePoint(int Step, double TimeMs, CellState State, double PreviousVoltageMv);
 
 /// <summary>A recorded current-clamp run: membrane potential, optional channel currents, stimulus and spikes.</summary>
 public sealed class Trace
@@ -35,6 +48,8 @@ public sealed class Trace
     /// <summary>Gate states per recorded sample, sample-major (sample r, gate k at r * gate count + k), when recorded.</summary>
     public double[]? GateStates { get; init; }
     public required IReadOnlyList<double> SpikeTimesMs { get; init; }
+    /// <summary>With <see cref="SimulationSettings.KeepResumePoints"/>: where the run can be taken up again, in time order.</summary>
+    public IReadOnlyList<ResumePoint> ResumePoints { get; init; } = [];
     public required CellState FinalState { get; init; }
     public required double DurationMs { get; init; }
 }

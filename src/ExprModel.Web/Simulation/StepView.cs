@@ -28,7 +28,9 @@ public sealed record StepView
     public const double WindowBeforeMs = 3, WindowAfterMs = 8;
 
     /// <param name="cell">The cell that ran; its channel currents are computed for the spike window from the recorded gate states.</param>
-    public static StepView From(CompiledCell cell, Trace trace, StepProtocol step)
+    /// <param name="spikeWindow">The stretch of the run around its first spike computed again with gate states (its samples
+    /// are the trace's from the resume point's step on); without it, the trace itself must carry gate states.</param>
+    public static StepView From(CompiledCell cell, Trace trace, StepProtocol step, Trace? spikeWindow = null)
     {
         var t = trace.TimeMs;
         var v = trace.VoltageMv;
@@ -44,7 +46,9 @@ public sealed record StepView
             var idx = Enumerable.Range(from, to - from + 1).Where(k => (k - from) % 2 == 0).ToArray();
             window = idx.Select(k => t[k] - s).ToArray();
             var labels = Simulator.ChannelLabels(cell);
-            var rows = idx.Select(k => Simulator.ChannelCurrentsAt(cell, trace, k)).ToArray();
+            var source = spikeWindow ?? trace;
+            int offset = spikeWindow is null ? 0 : (int)Math.Round(spikeWindow.TimeMs[0] / trace.SampleIntervalMs);
+            var rows = idx.Select(k => Simulator.ChannelCurrentsAt(cell, source, k - offset)).ToArray();
             for (int c = 0; c < labels.Count; c++) currents[labels[c]] = rows.Select(r => r[c]).ToArray();
         }
         return new StepView

@@ -62,6 +62,21 @@ public class GateStateCurrentsTests
             var i = Simulator.ChannelCurrentsAt(cell, states, k);
             for (int c = 0; c < labels.Count; c++) Assert.Equal(recorded.ChannelCurrentsUaPerCm2[labels[c]][k], i[c]);
         }
+
+        // The Workbench records voltage only, with resume points, and runs the stretch around the first spike again
+        // with gate states: the same loop from the same state, so the same samples and currents, exactly.
+        var kept = Simulator.Run(cell, stim, 200, SimulationSettings.Default with { KeepResumePoints = true });
+        Assert.Equal(recorded.VoltageMv, kept.VoltageMv);
+        Assert.Equal(Enumerable.Range(0, 20).Select(i => i * 10.0), kept.ResumePoints.Select(r => Math.Round(r.TimeMs, 9))); // at 0, 10, ... 190 ms
+        var from = kept.ResumePoints.Last(r => r.TimeMs <= kept.SpikeTimesMs[0] - 3);
+        var window = Simulator.Resume(cell, stim, from, kept.SpikeTimesMs[0] + 9, SimulationSettings.Default with { RecordGateStates = true });
+        Assert.Equal(from.TimeMs, window.TimeMs[0]);
+        for (int k = 0; k < window.VoltageMv.Length; k++)
+        {
+            Assert.Equal(recorded.VoltageMv[from.Step + k], window.VoltageMv[k]);
+            var i = Simulator.ChannelCurrentsAt(cell, window, k);
+            for (int c = 0; c < labels.Count; c++) Assert.Equal(recorded.ChannelCurrentsUaPerCm2[labels[c]][from.Step + k], i[c]);
+        }
     }
 }
 
