@@ -267,15 +267,20 @@ public static class Features
                 int firstLate = fi.ToList().FindIndex(p => p.LateRateHz > 0);
                 if (firstLate > 0 && fi.Skip(firstLate).All(p => p.LateRateHz > 0)) known = (fi[firstLate - 1].CurrentUaPerCm2, fi[firstLate].CurrentUaPerCm2);
             }
+            // Every point the search measures is kept: the onset is always one of them (or an f-I point), so its rate needs
+            // no run of its own.
+            var classPoints = new Dictionary<double, FiPoint>();
+            if (s.ClassStepMs == s.StepDurationMs) foreach (var p in fi) classPoints[p.CurrentUaPerCm2] = p;
             var sustained = RheobaseSearch.FindOnset(amps =>
             {
                 var pts = FiCurve.Measure(cell, amps, s.ClassStepMs, rest, sim, cancel);
+                foreach (var p in pts) classPoints[p.CurrentUaPerCm2] = p;
                 return pts.Select(p => p.LateRateHz > 0).ToArray();
             }, rb, rb * s.BlockSearchMultiple, s.RheobaseAbsoluteToleranceUaPerCm2, s.ClassRelativeTolerance, cancel, known);
             if (sustained is not null)
             {
                 onsetCurrent = sustained.AtOrAboveUaPerCm2;
-                var p = FiCurve.Measure(cell, [onsetCurrent.Value], s.ClassStepMs, rest, sim, cancel)[0];
+                var p = classPoints.TryGetValue(onsetCurrent.Value, out var seen) ? seen : FiCurve.Measure(cell, [onsetCurrent.Value], s.ClassStepMs, rest, sim, cancel)[0];
                 onsetRate = p.LateRateHz;
                 cls = onsetRate < s.ClassOneOnsetRateHz ? 1 : 2;
             }

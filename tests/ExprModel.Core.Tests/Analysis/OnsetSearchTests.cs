@@ -100,4 +100,19 @@ public sealed class OnsetSearchTests
         Assert.False(cold.IsComplete);
         Assert.True(staged.IsComplete);
     }
+
+    [Theory]
+    [InlineData("wb1996")]
+    [InlineData("cortex-rs2008")]
+    public void Onset_rate_is_the_rate_of_a_run_of_its_own_at_the_onset(string preset)
+    {
+        // The onset rate is taken from the search's own probe at the onset amplitude; a separate run must give it exactly.
+        var cell = TestCatalog.Preset(preset);
+        var s = ReadoutSettings.Live;
+        var r = Features.Measure(cell, s);
+        Assert.NotNull(r.SustainedFiringOnsetUaPerCm2);
+        var own = FiCurve.Measure(cell, [r.SustainedFiringOnsetUaPerCm2.Value], s.ClassStepMs, r.RestState, s.Simulation)[0];
+        Assert.True(own.LateRateHz > 0);
+        Assert.Equal(own.LateRateHz, r.OnsetRateHz);
+    }
 }
