@@ -25,7 +25,7 @@ internal static class LiveProbe
             double read = Median(() => Features.Measure(cell, ReadoutSettings.Live));
             var first = Features.MeasureFirst(cell, ReadoutSettings.Live);
             double cold = Median(() => Features.MeasureFirst(cell, ReadoutSettings.Live));
-            double? hint = first.RheobaseUaPerCm2 * 1.05;
+            var hint = first.Hint is { } h ? h with { RheobaseUaPerCm2 = h.RheobaseUaPerCm2 * 1.05 } : null;
             double warm = Median(() => Features.MeasureFirst(cell, ReadoutSettings.Live, default, hint));
             double second = Median(() => Features.Complete(cell, first, ReadoutSettings.Live));
             double trace = Median(() => Simulator.Run(cell, step, 700, settings));
@@ -42,8 +42,9 @@ internal static class LiveProbe
     }
 
     /// <summary>
-    /// Rounds of the rheobase search over a browser-benchmark-like walk (25 moves: a random channel to 49-219 %),
-    /// seeded with the previous rheobase versus cold. Counts, not times: independent of machine load.
+    /// Rounds of the rheobase search over a browser-benchmark-like walk (25 moves: a random channel to 49-219 %): cold,
+    /// seeded with the previous rheobase, and seeded with the previous rheobase scaled by the ratio of slope conductances
+    /// (<see cref="RheobaseHint"/>, what the Workbench uses). Counts, not times: independent of machine load.
     /// </summary>
     public static void Rounds(IReadOnlyList<string> modelPaths)
     {
@@ -52,12 +53,15 @@ internal static class LiveProbe
             ? new[] { "wb1996", "cortex-rs2008" }.Select(p => (p, catalog.Preset(p))).ToList()
             : modelPaths.Select(p => (Path.GetFileName(p), ModelDocument.Parse(File.ReadAllText(p), p))).ToList();
         var s = ReadoutSettings.Live;
+        double gridStep = Math.Log(1 + s.RheobaseRelativeTolerance);
         foreach (var (name, doc) in docs)
         {
             var rng = new Random(7);
             var rel = doc.Channels.Select(c => c.RelativeDensity).ToArray();
-            double? previous = null;
-            int seeded = 0, cold = 0, moves = 0, sameAnswer = 0;
+            RheobaseHint? previous = null;
+            int cold = 0, byRheobase = 0, byHint = 0, moves = 0, sameAnswer = 0;
+            var errRheobase = new List<double>();
+            var errHint = new List<double>();
             for (int m = 0; m < 25; m++)
             {
                 int ch = rng.Next(rel.Length);
@@ -69,15 +73,24 @@ internal static class LiveProbe
                 if (first.RestState is not { } rest || first.SlopeConductanceMsPerCm2 is not { } g) continue;
                 var (start, max) = Features.RheobaseSearchRange(g);
                 var c = RheobaseSearch.Rheobase(cell, rest, start, max, s).Bracket;
-                var w = RheobaseSearch.Rheobase(cell, rest, start, max, s, default, previous).Bracket;
-                if (c is null || w is null) continue;
+                var r = RheobaseSearch.Rheobase(cell, rest, start, max, s, default, previous?.RheobaseUaPerCm2).Bracket;
+                var h = RheobaseSearch.Rheobase(cell, rest, start, max, s, default, previous?.PredictFor(g)).Bracket;
+                if (c is null || r is null || h is null) continue;
+                if (previous is { } p)
+                {
+                    errRheobase.Add(Math.Abs(Math.Log(p.RheobaseUaPerCm2 / c.AtOrAboveUaPerCm2)) / gridStep);
+                    errHint.Add(Math.Abs(Math.Log(p.PredictFor(g) / c.AtOrAboveUaPerCm2)) / gridStep);
+                }
                 moves++;
                 cold += c.Rounds;
-                seeded += w.Rounds;
-                if (c.AtOrAboveUaPerCm2 == w.AtOrAboveUaPerCm2) sameAnswer++;
-                previous = c.AtOrAboveUaPerCm2;
+                byRheobase += r.Rounds;
+                byHint += h.Rounds;
+                if (c.AtOrAboveUaPerCm2 == r.AtOrAboveUaPerCm2 && c.AtOrAboveUaPerCm2 == h.AtOrAboveUaPerCm2) sameAnswer++;
+                previous = first.Hint;
             }
-            Console.WriteLine($"{name,-24} {moves} moves: rheobase rounds seeded {seeded / (double)moves:F2}, cold {cold / (double)moves:F2}; same answer {sameAnswer}/{moves}");
+            static double Med(List<double> x) => x.Count == 0 ? double.NaN : x.Order().ElementAt(x.Count / 2);
+            Console.WriteLine($"{name,-24} {moves} moves, rheobase search rounds: cold {cold / (double)moves:F2}, from the previous rheobase {byRheobase / (double)moves:F2}, " +
+                $"from the slope-scaled hint {byHint / (double)moves:F2}; median start error in grid steps {Med(errRheobase):F1} and {Med(errHint):F1}; same answer {sameAnswer}/{moves}");
         }
     }
 

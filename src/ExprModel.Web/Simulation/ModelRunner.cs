@@ -91,10 +91,10 @@ public sealed class ModelRunner(ChannelCatalog catalog, SimulationGate gate)
 
     /// <summary>
     /// The Workbench's live read-outs, first stage: rest, passive properties, sag, rheobase and the spike at rheobase
-    /// (the rest are marked pending). <paramref name="rheobaseHint"/> (the previous model's rheobase) seeds the search; the
-    /// answer is the same grid point a cold search finds. A model already measured in full comes back complete.
+    /// (the rest are marked pending). <paramref name="rheobaseHint"/> (the previous model's <see cref="ReadoutSet.Hint"/>) seeds
+    /// the search; the answer is the same grid point a cold search finds. A model already measured in full comes back complete.
     /// </summary>
-    public async Task<ReadoutSet> FirstReadoutsAsync(ModelDocument doc, double? rheobaseHint, CancellationToken cancel)
+    public async Task<ReadoutSet> FirstReadoutsAsync(ModelDocument doc, RheobaseHint? rheobaseHint, CancellationToken cancel)
     {
         var cell = Compile(doc);
         if (_cache.TryGetValue(doc.ToJson(), out var hit)) return hit;
@@ -200,5 +200,6 @@ public sealed class ModelRunner(ChannelCatalog catalog, SimulationGate gate)
         {
             Fi = r.FiCurve.Select(p => new FiRow(p.CurrentUaPerCm2, p.SpikesInStep, p.WholeStepRateHz, p.FirstIsiRateHz, p.LateRateHz)).ToArray(),
             Pending = r.IsComplete ? new HashSet<string>() : CellReadouts.SecondStageNames,
+            Hint = r.Hint,
         };
 }

@@ -52,6 +52,9 @@ public sealed record ReadoutSet(IReadOnlyList<ReadoutRow> Rows, IReadOnlyList<st
     /// <summary>The library's first-stage result and compiled cell, kept so the second stage can continue from it.</summary>
     internal (ExprModel.Core.Simulation.CompiledCell Cell, ExprModel.Core.Analysis.CellReadouts Stage)? Continuation { get; init; }
 
+    /// <summary>Where the next similar model's rheobase search starts (see <see cref="ExprModel.Core.Analysis.RheobaseHint"/>).</summary>
+    public ExprModel.Core.Analysis.RheobaseHint? Hint { get; init; }
+
     private static readonly IReadOnlySet<string> EmptyNames = new HashSet<string>();
 
     public double? Value(string name) => Rows.FirstOrDefault(r => r.Name == name)?.Value;

@@ -86,9 +86,11 @@ public sealed class OnsetSearchTests
         var cell = TestCatalog.Preset(preset);
         var cold = Features.MeasureFirst(cell, ReadoutSettings.Live);
         Assert.NotNull(cold.RheobaseUaPerCm2);
-        foreach (double factor in new[] { 0.6, 0.98, 1.05, 1.7 })
+        foreach (double factor in new[] { 0.6, 0.98, 1.05, 1.7, 40 })
         {
-            var seeded = Features.MeasureFirst(cell, ReadoutSettings.Live, default, cold.RheobaseUaPerCm2 * factor);
+            // A hint from a "similar cell" whose rheobase and slope conductance are off by the factor and its square root.
+            var hint = new RheobaseHint(cold.RheobaseUaPerCm2!.Value * factor, cold.SlopeConductanceMsPerCm2!.Value * Math.Sqrt(factor));
+            var seeded = Features.MeasureFirst(cell, ReadoutSettings.Live, default, hint);
             Assert.Equal(cold.RheobaseUaPerCm2, seeded.RheobaseUaPerCm2);
             Assert.Equal(cold.ThresholdMv, seeded.ThresholdMv);
             Assert.Equal(cold.InputResistanceMOhm, seeded.InputResistanceMOhm);
@@ -99,6 +101,16 @@ public sealed class OnsetSearchTests
         Assert.Equal(all.Rows(), staged.Rows());
         Assert.False(cold.IsComplete);
         Assert.True(staged.IsComplete);
+    }
+
+    [Fact]
+    public void A_hint_predicts_rheobase_in_proportion_to_slope_conductance()
+    {
+        var hint = new RheobaseHint(2.0, 0.1);
+        Assert.Equal(3.0, hint.PredictFor(0.15), 12);
+        Assert.Equal(2.0, hint.PredictFor(0.1), 12);
+        Assert.Equal(2.0, new RheobaseHint(2.0, 0).PredictFor(0.15)); // no usable ratio: the rheobase itself
+        Assert.Equal(2.0, hint.PredictFor(-0.1));
     }
 
     [Theory]
