@@ -56,6 +56,8 @@ public sealed class WorkbenchPageTests : BunitContext
     public void Switching_sodium_off_changes_the_readouts()
     {
         var cut = Open("wb1996");
+        // Let the opened model's read-outs finish (its second stage also counts as an update) before moving the slider.
+        cut.WaitForAssertion(() => Assert.True(int.Parse(cut.Find("[data-testid=readouts]").GetAttribute("data-complete-update")!) > 0), TimeSpan.FromSeconds(60));
         var rheobase = Value(cut, "rheobase");
         Assert.NotEqual("—", rheobase);
         int before = int.Parse(cut.Find("[data-testid=readouts]").GetAttribute("data-update")!);
