@@ -117,9 +117,9 @@ public static class Simulator
     /// <summary>The hot loop for one stimulus. Flat arrays, no allocation per step.</summary>
     private static class Lane
     {
-        [MethodImpl(MethodImplOptions.AggressiveOptimization)]
         /// <param name="firstStep">Step to start at (a resume point's; 0 from the beginning). Times and the stimulus stay those of the whole run.</param>
         /// <param name="previousVoltageMv">V one step before <paramref name="firstStep"/> (defaults to the initial V).</param>
+        [MethodImpl(MethodImplOptions.AggressiveOptimization)]
         public static Trace Run(CompiledCell cell, RateTable table, Stimulus stimulus, int steps, SimulationSettings settings, CellState init, CancellationToken cancel,
             int firstStep = 0, double? previousVoltageMv = null)
         {

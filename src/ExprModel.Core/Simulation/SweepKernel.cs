@@ -125,7 +125,6 @@ internal static unsafe class SweepKernel
         var shellRest = Vector256.Create(cell.ShellRestMm);
         var ca = Vector256.Create(init.CalciumMm);
         var gcs = new Vector256<double>[channels];
-        var one = Vector256.Create(1.0);
         var v = Vector256.Create(init.VoltageMv);
         var vPrev = v;
         var vMin = Vector256.Create(RateTable.MinMv);
