@@ -12,9 +12,7 @@ internal static class LiveProbe
     public static void Run(IReadOnlyList<string> modelPaths)
     {
         var catalog = CatalogLocator.Ensure();
-        var docs = modelPaths.Count == 0
-            ? new[] { "wb1996", "cortex-rs2008", "hh1952", "cortex-fs2008" }.Select(p => (p, catalog.Preset(p))).ToList()
-            : modelPaths.Select(p => (Path.GetFileName(p), ModelDocument.Parse(File.ReadAllText(p), p))).ToList();
+        var docs = Models(catalog, modelPaths, "wb1996", "cortex-rs2008", "hh1952", "cortex-fs2008");
         Console.WriteLine("live update cost, median of 7 (ms): read-outs (live settings): all | first stage cold | first stage seeded 5 % off | second stage | 700 ms step: currents recorded throughout, and as the Workbench runs it (voltage, then the spike window again with gate states)");
         foreach (var (name, doc) in docs)
         {
@@ -49,9 +47,7 @@ internal static class LiveProbe
     public static void Rounds(IReadOnlyList<string> modelPaths)
     {
         var catalog = CatalogLocator.Ensure();
-        var docs = modelPaths.Count == 0
-            ? new[] { "wb1996", "cortex-rs2008" }.Select(p => (p, catalog.Preset(p))).ToList()
-            : modelPaths.Select(p => (Path.GetFileName(p), ModelDocument.Parse(File.ReadAllText(p), p))).ToList();
+        var docs = Models(catalog, modelPaths, "wb1996", "cortex-rs2008");
         var s = ReadoutSettings.Live;
         double gridStep = Math.Log(1 + s.RheobaseRelativeTolerance);
         foreach (var (name, doc) in docs)
@@ -98,9 +94,7 @@ internal static class LiveProbe
     public static void Stages(IReadOnlyList<string> modelPaths)
     {
         var catalog = CatalogLocator.Ensure();
-        var docs = modelPaths.Count == 0
-            ? new[] { "wb1996", "cortex-rs2008" }.Select(p => (p, catalog.Preset(p))).ToList()
-            : modelPaths.Select(p => (Path.GetFileName(p), ModelDocument.Parse(File.ReadAllText(p), p))).ToList();
+        var docs = Models(catalog, modelPaths, "wb1996", "cortex-rs2008");
         var s = ReadoutSettings.Live;
         var sim = s.Simulation;
         Console.WriteLine("first-stage parts, median of 7 (ms): settle | passive step | rheobase search (cold, seeded 5 % off) | shape run");
@@ -125,6 +119,12 @@ internal static class LiveProbe
             Console.WriteLine($"{name,-24} settle {settle,5:F1} | passive {passive,5:F1} | search cold {cold,5:F1} seeded {seeded,5:F1} | shape from rest {shape,5:F1}, resumed {resumed,5:F1} (latency {latency:F0} ms)");
         }
     }
+
+    /// <summary>The model files named on the command line (labelled by file name), or the given presets when none are.</summary>
+    private static List<(string Name, ModelDocument Doc)> Models(ChannelCatalog catalog, IReadOnlyList<string> modelPaths, params string[] presets) =>
+        modelPaths.Count == 0
+            ? presets.Select(p => (p, catalog.Preset(p))).ToList()
+            : modelPaths.Select(p => (Path.GetFileName(p), ModelDocument.Parse(File.ReadAllText(p), p))).ToList();
 
     private static double Median(Action run)
     {

@@ -35,7 +35,7 @@ public class InlineExpTests
         var got = InlineExp.Exp(Vector256.Create(-5000.0, -745.0, 800.0, 0.0));
         Assert.Equal(Math.Exp(-700), got[0], 1e-310);
         Assert.Equal(Math.Exp(-700), got[1], 1e-310);
-        Assert.Equal(1, Ulps(got[2], Math.Exp(700)), 2.0);
+        Assert.InRange(Ulps(got[2], Math.Exp(700)), 0, 2);
         Assert.Equal(1.0, got[3]);
     }
 
