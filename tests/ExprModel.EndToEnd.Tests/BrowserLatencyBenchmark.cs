@@ -43,7 +43,14 @@ public sealed class BrowserLatencyBenchmark(AppFixture app, ITestOutputHelper ou
             const check = () => {
               const now = performance.now() - t0;
               for (const k in marks) if (times[k] === undefined && marks[k]() > start[k]) times[k] = now;
-              if (Object.keys(marks).every(k => times[k] !== undefined)) { observer.disconnect(); resolve(times); }
+              if (Object.keys(marks).every(k => times[k] !== undefined)) {
+                observer.disconnect();
+                // The server's own share: from the slider event reaching it to the trace / first read-outs being ready.
+                const p = document.querySelector('[data-testid=spike-count]');
+                times.serverTrace = Number(p?.getAttribute('data-server-trace-ms') ?? NaN);
+                times.serverFirst = Number(p?.getAttribute('data-server-first-ms') ?? NaN);
+                resolve(times);
+              }
             };
             const observer = new MutationObserver(check);
             observer.observe(document.body, { attributes: true, subtree: true, attributeFilter: ['data-update', 'data-complete-update', 'data-shown'] });
@@ -61,7 +68,7 @@ public sealed class BrowserLatencyBenchmark(AppFixture app, ITestOutputHelper ou
     {
         var (context, page, _) = await app.NewPageAsync();
         page.SetDefaultTimeout(120_000);
-        var results = new List<(string Model, double[] Trace, double[] Read, double[] All, double[] Fi)>();
+        var results = new List<(string Model, double[] Trace, double[] Read, double[] All, double[] Fi, double[] ServerTrace, double[] ServerFirst)>();
 
         foreach (var preset in new[] { "wb1996", "cortex-rs2008" })
         {
@@ -82,17 +89,21 @@ public sealed class BrowserLatencyBenchmark(AppFixture app, ITestOutputHelper ou
         }
 
         var lines = new List<string> { $"slider -> update latency in the browser, {Moves} moves per model (ms): p50 / p95 / max" };
-        foreach (var (model, trace, read, all, fi) in results)
+        foreach (var (model, trace, read, all, fi, _, _) in results)
             lines.Add($"{model,-22} trace drawn {Stats(trace)} | read-outs first stage {Stats(read)} | all read-outs {Stats(all)} | f-I drawn {Stats(fi)}");
         lines.Add($"{"ALL",-22} trace drawn {Stats(results.SelectMany(r => r.Trace).ToArray())} | read-outs first stage {Stats(results.SelectMany(r => r.Read).ToArray())} | " +
             $"all read-outs {Stats(results.SelectMany(r => r.All).ToArray())} | f-I drawn {Stats(results.SelectMany(r => r.Fi).ToArray())}");
         lines.Add("targets: trace and read-outs p95 150 ms; f-I p95 500 ms");
+        lines.Add("server's share (event received -> ready on the server; the rest is transfer, rendering and drawing in the browser):");
+        foreach (var (model, _, _, _, _, serverTrace, serverFirst) in results)
+            lines.Add($"{model,-22} trace ready {Stats(serverTrace)} | first read-outs ready {Stats(serverFirst)}");
+        lines.Add($"{"ALL",-22} trace ready {Stats(results.SelectMany(r => r.ServerTrace).ToArray())} | first read-outs ready {Stats(results.SelectMany(r => r.ServerFirst).ToArray())}");
         foreach (var l in lines) { output.WriteLine(l); Console.WriteLine(l); }
         Assert.All(results, r => Assert.Equal(Moves, r.Read.Length)); // every move produced an update
         await context.CloseAsync();
     }
 
-    private async Task<(string, double[], double[], double[], double[])> Measure(IPage page, string model)
+    private async Task<(string, double[], double[], double[], double[], double[], double[])> Measure(IPage page, string model)
     {
         await WorkbenchTests.WaitForUpdateAfter(page, 0);
         await page.WaitForFunctionAsync("() => Number(document.querySelector('[data-testid=plot-fi]')?.getAttribute('data-shown') ?? 0) > 0");
@@ -103,6 +114,8 @@ public sealed class BrowserLatencyBenchmark(AppFixture app, ITestOutputHelper ou
         var read = new List<double>();
         var all = new List<double>();
         var fi = new List<double>();
+        var serverTrace = new List<double>();
+        var serverFirst = new List<double>();
         var rng = new Random(7);
         for (int i = 0; i < Moves; i++)
         {
@@ -114,8 +127,10 @@ public sealed class BrowserLatencyBenchmark(AppFixture app, ITestOutputHelper ou
             if (r.TryGetProperty("read", out var x)) read.Add(x.GetDouble());
             if (r.TryGetProperty("all", out var a)) all.Add(a.GetDouble());
             if (r.TryGetProperty("fi", out var f)) fi.Add(f.GetDouble());
+            if (r.TryGetProperty("serverTrace", out var st) && st.ValueKind == JsonValueKind.Number) serverTrace.Add(st.GetDouble());
+            if (r.TryGetProperty("serverFirst", out var sf) && sf.ValueKind == JsonValueKind.Number) serverFirst.Add(sf.GetDouble());
         }
-        return (model, trace.ToArray(), read.ToArray(), all.ToArray(), fi.ToArray());
+        return (model, trace.ToArray(), read.ToArray(), all.ToArray(), fi.ToArray(), serverTrace.ToArray(), serverFirst.ToArray());
     }
 
     private static double Percentile(double[] v, double p)

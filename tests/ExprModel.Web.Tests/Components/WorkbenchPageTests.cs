@@ -65,6 +65,11 @@ public sealed class WorkbenchPageTests : BunitContext
         cut.WaitForAssertion(() => Assert.True(int.Parse(cut.Find("[data-testid=readouts]").GetAttribute("data-update")!) > before), TimeSpan.FromSeconds(60));
         Assert.Equal("off", cut.Find("[data-testid=slider-wb-na-1996] output").TextContent);
         Assert.NotEqual(rheobase, Value(cut, "rheobase"));
+        // The server's share of the update, for the browser benchmark: the trace is awaited before the first read-outs.
+        var p = cut.Find("[data-testid=spike-count]");
+        double trace = double.Parse(p.GetAttribute("data-server-trace-ms")!, System.Globalization.CultureInfo.InvariantCulture);
+        double first = double.Parse(p.GetAttribute("data-server-first-ms")!, System.Globalization.CultureInfo.InvariantCulture);
+        Assert.InRange(trace, 0.05, first);
     }
 
     [Fact]
