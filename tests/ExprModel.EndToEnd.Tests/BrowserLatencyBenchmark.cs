@@ -68,7 +68,7 @@ public sealed class BrowserLatencyBenchmark(AppFixture app, ITestOutputHelper ou
     {
         var (context, page, _) = await app.NewPageAsync();
         page.SetDefaultTimeout(120_000);
-        var results = new List<(string Model, double[] Trace, double[] Read, double[] All, double[] Fi, double[] ServerTrace, double[] ServerFirst)>();
+        var results = new List<Latencies>();
 
         foreach (var preset in new[] { "wb1996", "cortex-rs2008" })
         {
@@ -89,21 +89,24 @@ public sealed class BrowserLatencyBenchmark(AppFixture app, ITestOutputHelper ou
         }
 
         var lines = new List<string> { $"slider -> update latency in the browser, {Moves} moves per model (ms): p50 / p95 / max" };
-        foreach (var (model, trace, read, all, fi, _, _) in results)
-            lines.Add($"{model,-22} trace drawn {Stats(trace)} | read-outs first stage {Stats(read)} | all read-outs {Stats(all)} | f-I drawn {Stats(fi)}");
+        foreach (var r in results)
+            lines.Add($"{r.Model,-22} trace drawn {Stats(r.Trace)} | read-outs first stage {Stats(r.Read)} | all read-outs {Stats(r.All)} | f-I drawn {Stats(r.Fi)}");
         lines.Add($"{"ALL",-22} trace drawn {Stats(results.SelectMany(r => r.Trace).ToArray())} | read-outs first stage {Stats(results.SelectMany(r => r.Read).ToArray())} | " +
             $"all read-outs {Stats(results.SelectMany(r => r.All).ToArray())} | f-I drawn {Stats(results.SelectMany(r => r.Fi).ToArray())}");
         lines.Add("targets: trace and read-outs p95 150 ms; f-I p95 500 ms");
         lines.Add("server's share (event received -> ready on the server; the rest is transfer, rendering and drawing in the browser):");
-        foreach (var (model, _, _, _, _, serverTrace, serverFirst) in results)
-            lines.Add($"{model,-22} trace ready {Stats(serverTrace)} | first read-outs ready {Stats(serverFirst)}");
+        foreach (var r in results)
+            lines.Add($"{r.Model,-22} trace ready {Stats(r.ServerTrace)} | first read-outs ready {Stats(r.ServerFirst)}");
         lines.Add($"{"ALL",-22} trace ready {Stats(results.SelectMany(r => r.ServerTrace).ToArray())} | first read-outs ready {Stats(results.SelectMany(r => r.ServerFirst).ToArray())}");
         foreach (var l in lines) { output.WriteLine(l); Console.WriteLine(l); }
         Assert.All(results, r => Assert.Equal(Moves, r.Read.Length)); // every move produced an update
         await context.CloseAsync();
     }
 
-    private async Task<(string, double[], double[], double[], double[], double[], double[])> Measure(IPage page, string model)
+    /// <summary>One model's latencies per move (ms): in the browser, then the server's share of the first two.</summary>
+    private sealed record Latencies(string Model, double[] Trace, double[] Read, double[] All, double[] Fi, double[] ServerTrace, double[] ServerFirst);
+
+    private async Task<Latencies> Measure(IPage page, string model)
     {
         await WorkbenchTests.WaitForUpdateAfter(page, 0);
         await page.WaitForFunctionAsync("() => Number(document.querySelector('[data-testid=plot-fi]')?.getAttribute('data-shown') ?? 0) > 0");
@@ -130,7 +133,7 @@ public sealed class BrowserLatencyBenchmark(AppFixture app, ITestOutputHelper ou
             if (r.TryGetProperty("serverTrace", out var st) && st.ValueKind == JsonValueKind.Number) serverTrace.Add(st.GetDouble());
             if (r.TryGetProperty("serverFirst", out var sf) && sf.ValueKind == JsonValueKind.Number) serverFirst.Add(sf.GetDouble());
         }
-        return (model, trace.ToArray(), read.ToArray(), all.ToArray(), fi.ToArray(), serverTrace.ToArray(), serverFirst.ToArray());
+        return new Latencies(model, trace.ToArray(), read.ToArray(), all.ToArray(), fi.ToArray(), serverTrace.ToArray(), serverFirst.ToArray());
     }
 
     private static double Percentile(double[] v, double p)
