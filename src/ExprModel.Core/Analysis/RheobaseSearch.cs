@@ -20,6 +20,13 @@ public static class RheobaseSearch
     {
         /// <summary>Rounds of parallel probes the search took (for cost reports; not part of the answer).</summary>
         public int Rounds { get; init; }
+
+        /// <summary>
+        /// When some probe failed at a larger amplitude than one that held (the property is not monotone here), the
+        /// lowest amplitude seen to hold and the highest seen to fail above it; null when every probe agreed with a
+        /// single onset. The answer is then the onset the search's probe path found, and another path can find another.
+        /// </summary>
+        public (double HeldUaPerCm2, double FailedAboveUaPerCm2)? NotMonotone { get; init; }
     }
 
     /// <summary>Amplitudes tested per round: two SIMD groups of four per core keeps every core busy.</summary>
@@ -78,11 +85,19 @@ public static class RheobaseSearch
         // Invariant once bracketed: the property fails at lo (index 0 is zero current, assumed to fail) and holds at hi.
         long lo = 0, hi;
         int rounds = 0;
+        // Lowest index seen to hold and highest seen to fail (across all rounds), to notice a non-monotone property.
+        long lowestHeld = long.MaxValue, highestFailed = -1;
         bool[] Test(long[] idx)
         {
             cancel.ThrowIfCancellationRequested();
             rounds++;
-            return holds(idx.Select(grid.At).ToArray());
+            var ok = holds(idx.Select(grid.At).ToArray());
+            for (int i = 0; i < idx.Length; i++)
+            {
+                if (ok[i]) lowestHeld = Math.Min(lowestHeld, idx[i]);
+                else highestFailed = Math.Max(highestFailed, idx[i]);
+            }
+            return ok;
         }
 
         if (known is { } k)
@@ -169,7 +184,11 @@ public static class RheobaseSearch
                     if (first > 0) below = idx[first - 1];
                 }
             }
-            return new Bracket(grid.At(below), grid.At(above), grid.At(above) - grid.At(below)) { Rounds = rounds };
+            return new Bracket(grid.At(below), grid.At(above), grid.At(above) - grid.At(below))
+            {
+                Rounds = rounds,
+                NotMonotone = highestFailed > lowestHeld ? (grid.At(lowestHeld), grid.At(highestFailed)) : null,
+            };
         }
     }
 

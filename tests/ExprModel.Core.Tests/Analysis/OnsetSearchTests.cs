@@ -40,12 +40,32 @@ public sealed class OnsetSearchTests
             Assert.NotNull(cold);
             Assert.Equal(expected, cold!.AtOrAboveUaPerCm2);
             Assert.True(cold.BelowUaPerCm2 < threshold);
+            Assert.Null(cold.NotMonotone);
             foreach (double factor in new[] { 0.2, 0.8, 0.97, 1.0, 1.02, 1.3, 4.0 })
             {
                 var seeded = RheobaseSearch.FindOnset(Holds, 0.1, 200, 0.005, 0.02, hint: threshold * factor);
                 Assert.Equal((cold.BelowUaPerCm2, cold.AtOrAboveUaPerCm2, cold.ToleranceUaPerCm2), (seeded!.BelowUaPerCm2, seeded.AtOrAboveUaPerCm2, seeded.ToleranceUaPerCm2));
+                Assert.Null(seeded.NotMonotone);
             }
         }
+    }
+
+    [Fact]
+    public void A_property_that_is_not_monotone_is_reported_when_the_probes_see_it()
+    {
+        // Holds in a window [1, 1.5) and again from 10 on: a cell that fires for a narrow range of small steps, goes
+        // quiet, and fires again for large ones. The answer then depends on the probe path, so the search says so.
+        bool[] Window(IReadOnlyList<double> amps) => amps.Select(a => a is >= 1 and < 1.5 || a >= 10).ToArray();
+        var cold = RheobaseSearch.FindOnset(Window, 0.1, 50, 0.005, 0.02);
+        Assert.NotNull(cold);
+        Assert.InRange(cold!.AtOrAboveUaPerCm2, 1, 1.02);
+        Assert.NotNull(cold.NotMonotone);
+        var (held, failedAbove) = cold.NotMonotone!.Value;
+        Assert.True(Window([held])[0] && !Window([failedAbove])[0] && failedAbove > held, $"held {held}, failed above {failedAbove}");
+        // Seeded above the gap, the probes never see the window: the other onset, with nothing to report.
+        var seeded = RheobaseSearch.FindOnset(Window, 0.1, 50, 0.005, 0.02, hint: 12);
+        Assert.InRange(seeded!.AtOrAboveUaPerCm2, 10, 10.2);
+        Assert.Null(seeded.NotMonotone);
     }
 
     [Fact]
