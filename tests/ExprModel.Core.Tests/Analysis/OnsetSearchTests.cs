@@ -58,13 +58,13 @@ public sealed class OnsetSearchTests
         bool[] Window(IReadOnlyList<double> amps) => amps.Select(a => a is >= 1 and < 1.5 || a >= 10).ToArray();
         var cold = RheobaseSearch.FindOnset(Window, 0.1, 50, 0.005, 0.02);
         Assert.NotNull(cold);
-        Assert.InRange(cold!.AtOrAboveUaPerCm2, 1, 1.02);
+        Assert.InRange(cold!.AtOrAboveUaPerCm2, 1, 1.02); // the first point of the 2 % grid at or above the window's start
         Assert.NotNull(cold.NotMonotone);
         var (held, failedAbove) = cold.NotMonotone!.Value;
         Assert.True(Window([held])[0] && !Window([failedAbove])[0] && failedAbove > held, $"held {held}, failed above {failedAbove}");
         // Seeded above the gap, the probes never see the window: the other onset, with nothing to report.
         var seeded = RheobaseSearch.FindOnset(Window, 0.1, 50, 0.005, 0.02, hint: 12);
-        Assert.InRange(seeded!.AtOrAboveUaPerCm2, 10, 10.2);
+        Assert.InRange(seeded!.AtOrAboveUaPerCm2, 10, 10.2); // the first grid point at or above the second onset
         Assert.Null(seeded.NotMonotone);
     }
 
