@@ -24,7 +24,9 @@ public static class RheobaseSearch
         /// <summary>
         /// When some probe failed at a larger amplitude than one that held (the property is not monotone here), the
         /// lowest amplitude seen to hold and the highest seen to fail above it; null when every probe agreed with a
-        /// single onset. The answer is then the onset the search's probe path found, and another path can find another.
+        /// single onset. The answer is then the onset the search's probe path found, and another path can find another;
+        /// the amplitude seen to hold can even lie below the answer (a probe below a failing one held, and the search,
+        /// assuming monotonicity, looked for the onset above the failure).
         /// </summary>
         public (double HeldUaPerCm2, double FailedAboveUaPerCm2)? NotMonotone { get; init; }
     }

@@ -69,6 +69,23 @@ public sealed class OnsetSearchTests
     }
 
     [Fact]
+    public void A_hold_seen_below_the_answer_is_reported_as_such()
+    {
+        // Holds in [0.8, 9) and from 10 on. Seeded at 13, the first round holds everywhere, so the search widens
+        // downwards by 2, 4, 8, 16, ... grid steps from its lowest probe (about 11.1): it fails in the gap near 9.5, holds
+        // again near 8.1, and, assuming monotonicity, settles on the upper onset. The report names the lower hold.
+        // The path needs eight probes per round (two or more cores); with one core the window is too narrow to see it.
+        if (Environment.ProcessorCount < 2) return;
+        bool[] TwoWindows(IReadOnlyList<double> amps) => amps.Select(a => a is >= 0.8 and < 9 || a >= 10).ToArray();
+        var seeded = RheobaseSearch.FindOnset(TwoWindows, 0.1, 50, 0.005, 0.02, hint: 13);
+        Assert.InRange(seeded!.AtOrAboveUaPerCm2, 10, 10.2); // the first grid point at or above the upper onset
+        Assert.NotNull(seeded.NotMonotone);
+        var (held, failedAbove) = seeded.NotMonotone!.Value;
+        Assert.True(held < seeded.AtOrAboveUaPerCm2 && failedAbove > held && TwoWindows([held])[0] && !TwoWindows([failedAbove])[0],
+            $"held {held}, failed above {failedAbove}");
+    }
+
+    [Fact]
     public void A_property_that_never_holds_gives_no_onset_seeded_or_not()
     {
         bool[] Never(IReadOnlyList<double> amps) => amps.Select(_ => false).ToArray();
