@@ -144,13 +144,9 @@ public static class Features
         var (rheo, knownLatency, resume) = firesAtRest ? new RheobaseSearch.RheobaseResult(null, null, null) : RheobaseSearch.Rheobase(cell, rest, startSearch, maxSearch, s, cancel, hint?.PredictFor(gSlope));
         if (!firesAtRest && rheo is null) notes.Add($"No spike for steps up to {maxSearch:G3} uA/cm2.");
         if (rheo?.NotMonotone is { } nm)
-            notes.Add(nm.HeldUaPerCm2 < rheo.AtOrAboveUaPerCm2
-                ? $"Spiking is not monotone in the step amplitude here: the step of {nm.HeldUaPerCm2:G4} uA/cm2, below the reported rheobase, crosses the " +
-                  $"spike detection level, and the larger step of {nm.FailedAboveUaPerCm2:G4} uA/cm2 does not. The rheobase search assumes larger steps " +
-                  "keep spiking; it reports the onset its probes settled on."
-                : $"Spiking is not monotone in the step amplitude here: the step of {nm.HeldUaPerCm2:G4} uA/cm2 crosses the spike detection level, " +
-                  $"the larger step of {nm.FailedAboveUaPerCm2:G4} uA/cm2 does not. The rheobase search assumes larger steps keep spiking; " +
-                  "it reports the onset its probes settled on, and a smaller step may also spike.");
+            notes.Add($"Spiking is not monotone in the step amplitude here: the step of {nm.HeldUaPerCm2:G4} uA/cm2 crosses the spike detection level, " +
+                $"the larger step of {nm.FailedAboveUaPerCm2:G4} uA/cm2 does not. The rheobase search assumes larger steps keep spiking; " +
+                "it reports the lowest onset its probes found, and a smaller step may also spike.");
         double? rheobase = rheo?.AtOrAboveUaPerCm2;
         var (rin, tau, passiveNote) = passiveTask is null ? (null, null, null) : passiveTask.GetAwaiter().GetResult();
         if (passiveNote is not null) notes.Add(passiveNote);

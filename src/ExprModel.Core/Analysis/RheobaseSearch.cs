@@ -24,9 +24,8 @@ public static class RheobaseSearch
         /// <summary>
         /// When some probe failed at a larger amplitude than one that held (the property is not monotone here), the
         /// lowest amplitude seen to hold and the highest seen to fail above it; null when every probe agreed with a
-        /// single onset. The answer is then the onset the search's probe path found, and another path can find another;
-        /// the amplitude seen to hold can even lie below the answer (a probe below a failing one held, and the search,
-        /// assuming monotonicity, looked for the onset above the failure).
+        /// single onset. The answer is then the onset the search's probe path found (never above an amplitude seen to
+        /// hold), and another path can find another.
         /// </summary>
         public (double HeldUaPerCm2, double FailedAboveUaPerCm2)? NotMonotone { get; init; }
     }
@@ -87,7 +86,9 @@ public static class RheobaseSearch
         // Invariant once bracketed: the property fails at lo (index 0 is zero current, assumed to fail) and holds at hi.
         long lo = 0, hi;
         int rounds = 0;
-        // Lowest index seen to hold and highest seen to fail (across all rounds), to notice a non-monotone property.
+        // Every index tested and its result, with the lowest seen to hold and the highest seen to fail: to notice a
+        // property that is not monotone, and to keep the answer at or below every amplitude seen to hold.
+        var tested = new Dictionary<long, bool>();
         long lowestHeld = long.MaxValue, highestFailed = -1;
         bool[] Test(long[] idx)
         {
@@ -96,6 +97,7 @@ public static class RheobaseSearch
             var ok = holds(idx.Select(grid.At).ToArray());
             for (int i = 0; i < idx.Length; i++)
             {
+                tested[idx[i]] = ok[i];
                 if (ok[i]) lowestHeld = Math.Min(lowestHeld, idx[i]);
                 else highestFailed = Math.Max(highestFailed, idx[i]);
             }
@@ -171,6 +173,24 @@ public static class RheobaseSearch
         // k-section on grid indices until the bracket is one grid step wide.
         Bracket Narrow(long below, long above)
         {
+            while (true)
+            {
+                (below, above) = NarrowTo(below, above);
+                // Not monotone, and a probe below the bracket held (seen while widening past a gap): the onset asked for
+                // lies at or below that probe, so narrow again between it and the highest failure below it.
+                if (lowestHeld >= above) break;
+                above = lowestHeld;
+                below = tested.Where(t => !t.Value && t.Key < above).Select(t => t.Key).DefaultIfEmpty(0).Max();
+            }
+            return new Bracket(grid.At(below), grid.At(above), grid.At(above) - grid.At(below))
+            {
+                Rounds = rounds,
+                NotMonotone = highestFailed > lowestHeld ? (grid.At(lowestHeld), grid.At(highestFailed)) : null,
+            };
+        }
+
+        (long Below, long Above) NarrowTo(long below, long above)
+        {
             while (above - below > 1)
             {
                 long gap = above - below;
@@ -186,11 +206,7 @@ public static class RheobaseSearch
                     if (first > 0) below = idx[first - 1];
                 }
             }
-            return new Bracket(grid.At(below), grid.At(above), grid.At(above) - grid.At(below))
-            {
-                Rounds = rounds,
-                NotMonotone = highestFailed > lowestHeld ? (grid.At(lowestHeld), grid.At(highestFailed)) : null,
-            };
+            return (below, above);
         }
     }
 

@@ -69,20 +69,22 @@ public sealed class OnsetSearchTests
     }
 
     [Fact]
-    public void A_hold_seen_below_the_answer_is_reported_as_such()
+    public void The_answer_never_lies_above_an_amplitude_seen_to_hold()
     {
         // Holds in [0.8, 9) and from 10 on. Seeded at 13, the first round holds everywhere, so the search widens
-        // downwards by 2, 4, 8, 16, ... grid steps from its lowest probe (about 11.1): it fails in the gap near 9.5, holds
-        // again near 8.1, and, assuming monotonicity, settles on the upper onset. The report names the lower hold.
+        // downwards by 2, 4, 8, 16, ... grid steps from its lowest probe (about 11.1): it fails in the gap near 9.5 and
+        // holds again further down. Bisection alone would settle on the upper onset near 10, above steps it saw spike;
+        // the search instead narrows again below the lowest hold and finds the lower onset, and reports the gap.
         // The path needs eight probes per round (two or more cores); with one core the window is too narrow to see it.
         if (Environment.ProcessorCount < 2) return;
         bool[] TwoWindows(IReadOnlyList<double> amps) => amps.Select(a => a is >= 0.8 and < 9 || a >= 10).ToArray();
         var seeded = RheobaseSearch.FindOnset(TwoWindows, 0.1, 50, 0.005, 0.02, hint: 13);
-        Assert.InRange(seeded!.AtOrAboveUaPerCm2, 10, 10.2); // the first grid point at or above the upper onset
+        Assert.InRange(seeded!.AtOrAboveUaPerCm2, 0.8, 0.8 * 1.02); // the first point of the 2 % grid at or above the lower onset
+        Assert.False(TwoWindows([seeded.BelowUaPerCm2])[0]);
         Assert.NotNull(seeded.NotMonotone);
         var (held, failedAbove) = seeded.NotMonotone!.Value;
-        Assert.True(held < seeded.AtOrAboveUaPerCm2 && failedAbove > held && TwoWindows([held])[0] && !TwoWindows([failedAbove])[0],
-            $"held {held}, failed above {failedAbove}");
+        Assert.Equal(seeded.AtOrAboveUaPerCm2, held);
+        Assert.True(failedAbove > held && !TwoWindows([failedAbove])[0], $"failed above {failedAbove}");
     }
 
     [Fact]
