@@ -141,9 +141,14 @@ public static class Features
         // Search up to the current that would hold a passive membrane 150 mV above rest (beyond that the model
         // leaves any physiological range), and never past 200 uA/cm2 (10 nA on 5000 um2).
         var (startSearch, maxSearch) = RheobaseSearchRange(gSlope);
-        var (rheo, knownLatency, resume) = firesAtRest ? new RheobaseSearch.RheobaseResult(null, null, null) : RheobaseSearch.Rheobase(cell, rest, startSearch, maxSearch, s, cancel, hint?.PredictFor(gSlope));
+        var found = firesAtRest ? new RheobaseSearch.RheobaseResult(null, null, null) : RheobaseSearch.Rheobase(cell, rest, startSearch, maxSearch, s, cancel, hint?.PredictFor(gSlope));
+        var gap = found.Bracket?.NotMonotone;
+        // A seeded search that saw spiking stop and start again took a path of its own through the gap: measure again
+        // unseeded, so the live read-outs equal a cold measurement of the same cell (the one a share link stores).
+        if (gap is not null && hint is not null) found = RheobaseSearch.Rheobase(cell, rest, startSearch, maxSearch, s, cancel);
+        var (rheo, knownLatency, resume) = found;
         if (!firesAtRest && rheo is null) notes.Add($"No spike for steps up to {maxSearch:G3} uA/cm2.");
-        if (rheo?.NotMonotone is { } nm)
+        if ((rheo?.NotMonotone ?? gap) is { } nm)
             notes.Add($"Spiking is not monotone in the step amplitude here: the step of {nm.HeldUaPerCm2:G4} uA/cm2 crosses the spike detection level, " +
                 $"the larger step of {nm.FailedAboveUaPerCm2:G4} uA/cm2 does not. The rheobase search assumes larger steps keep spiking; " +
                 "it reports the lowest onset its probes found, and a smaller step may also spike.");

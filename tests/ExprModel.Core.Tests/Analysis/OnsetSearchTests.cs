@@ -1,10 +1,15 @@
 using ExprModel.Core.Analysis;
+using ExprModel.Core.Expression;
+using ExprModel.Core.Mapping;
+using ExprModel.Core.Simulation;
+using ExprModel.Data.Catalog;
 
 namespace ExprModel.Core.Tests.Analysis;
 
 /// <summary>
 /// The onset search returns the first point of a fixed amplitude grid at which the property holds, whatever the
-/// starting point or hint: a seeded search (the Workbench's live read-outs) and a cold one agree exactly.
+/// starting point or hint: a seeded search (the Workbench's live read-outs) and a cold one agree exactly when the
+/// property is monotone in the amplitude. When it is not, the search says so (tests near the end).
 /// </summary>
 public sealed class OnsetSearchTests
 {
@@ -115,6 +120,35 @@ public sealed class OnsetSearchTests
             Assert.Equal(2, fair);
         }
         Assert.True(fair < cold, $"seeded 10 % off: {fair} rounds; cold: {cold}");
+    }
+
+    [Fact]
+    public void A_seeded_search_that_notices_a_gap_gives_the_cold_answer()
+    {
+        // Demo cell FH2046 (strong Kv7 M-current): a narrow range of small steps crosses the detection level, larger
+        // ones do not, larger ones again. When a seeded search's probes see that, the read-outs are measured again
+        // unseeded, so the live table equals the cold measurement a share link stores. (A seeded search that never
+        // probes the gap can still land in another window: that is the path dependence the note warns of.)
+        var dir = CatalogLocator.FindSourceDirectory()!;
+        var data = ExpressionDataset.Read(TestCatalog.Catalog.ForMapping(), Path.Combine(dir, "demo", "counts.csv"), new ExpressionReadOptions());
+        var doc = data.Build(data.Map(), new DensityRule(), ModelTarget.ForCell("FH2046")).Document;
+        var cell = new CompiledCell(TestCatalog.Catalog.BuildCell(doc));
+        var s = ReadoutSettings.Live;
+        var cold = Features.MeasureFirst(cell, s);
+        double g = cold.SlopeConductanceMsPerCm2!.Value;
+        var (start, max) = Features.RheobaseSearchRange(g);
+        int noticed = 0;
+        foreach (double hint in new[] { 0.5, 1, 1.5, 2, 3, 5, 8, 12, 20, 30 })
+        {
+            var probe = RheobaseSearch.Rheobase(cell, cold.RestState!, start, max, s, default, hint);
+            if (probe.Bracket?.NotMonotone is null) continue;
+            noticed++;
+            var seeded = Features.MeasureFirst(cell, s, default, new RheobaseHint(hint, g));
+            Assert.Equal(cold.RheobaseUaPerCm2, seeded.RheobaseUaPerCm2);
+            Assert.Equal(cold.ThresholdMv, seeded.ThresholdMv);
+            Assert.Contains(seeded.Notes, n => n.StartsWith("Spiking is not monotone", StringComparison.Ordinal));
+        }
+        Assert.True(noticed > 0, "no hint led the search across the gap");
     }
 
     [Theory]
