@@ -57,6 +57,47 @@ public sealed class WorkbenchTests(AppFixture app)
         await context.CloseAsync();
     }
 
+    /// <summary>
+    /// A new slider value drops the queued redraws of the phase plane and the currents (the run it starts sends fresh
+    /// ones). After a burst of moves, every plot must still end up drawn with the newest run's data: each figure's
+    /// data-shown (set by the page's plot queue after drawing) equals its data-revision (set by the server).
+    /// </summary>
+    [Fact]
+    public async Task After_a_burst_of_slider_moves_every_plot_shows_the_newest_run()
+    {
+        var (context, page, errors) = await app.NewPageAsync();
+        await app.GotoAsync(page, "/workbench?preset=wb1996");
+        await WaitForUpdateAfter(page, 0);
+        await page.WaitForSelectorAsync("[data-testid=plot-currents] .main-svg");
+        int count = await UpdateCount(page);
+        string[] keys = ["voltage", "fi", "phase", "currents"];
+        var revisionsBefore = new Dictionary<string, string?>();
+        foreach (var k in keys) revisionsBefore[k] = await page.Locator($"[data-testid=plot-{k}]").GetAttributeAsync("data-revision");
+
+        // Six values 40 ms apart on the sodium channel: each cancels the run before it, some land while plots are queued.
+        await page.EvaluateAsync("""
+            async () => {
+              const input = document.querySelector('[data-testid=slider-wb-na-1996] input[type=range]');
+              for (const v of [700, 760, 820, 880, 840, 800]) {
+                input.value = String(v);
+                input.dispatchEvent(new Event('input', { bubbles: true }));
+                await new Promise(r => setTimeout(r, 40));
+              }
+            }
+            """);
+        await WaitForUpdateAfter(page, count);
+        await page.WaitForFunctionAsync("""
+            () => ['voltage', 'fi', 'phase', 'currents'].every(k => {
+              const f = document.querySelector('[data-testid=plot-' + k + ']');
+              return f && f.getAttribute('data-shown') === f.getAttribute('data-revision');
+            })
+            """, null, new PageWaitForFunctionOptions { Timeout = 20_000 });
+        foreach (var k in keys)
+            Assert.NotEqual(revisionsBefore[k], await page.Locator($"[data-testid=plot-{k}]").GetAttributeAsync("data-revision"));
+        Assert.Empty(errors);
+        await context.CloseAsync();
+    }
+
     [Fact]
     public async Task A_share_link_reproduces_the_readouts_in_a_fresh_browser()
     {

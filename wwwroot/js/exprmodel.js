@@ -60,6 +60,15 @@ window.exprModel.downloadFigure = function (id, format, fileName, height) {
       });
   }
 
+  // A new slider value makes queued redraws of the phase plane and the spike currents (priority 2 and up) stale: every
+  // live run sends both again right after its read-outs' first stage, so they are dropped instead of being drawn ahead
+  // of the new trace (measured on a published-model preset: trace p50 about 80 -> 60 ms, p95 about 140 -> 100 ms).
+  // The trace keeps its place (it is what the user watches) and so does the f-I curve (a custom sweep is a separate job).
+  document.addEventListener('input', function (e) {
+    if (!(e.target instanceof HTMLInputElement) || e.target.type !== 'range') return;
+    for (const [key, entry] of pending) if (entry.priority >= 2) pending.delete(key);
+  }, true);
+
   window.exprModel.plotData = function (id, revision, priority, title, traces) {
     pending.set(id, { revision: revision, priority: priority, title: title, traces: traces });
     if (!draining) { draining = true; setTimeout(next, 0); }
