@@ -114,6 +114,15 @@ public sealed class ModelRunner(ChannelCatalog catalog, SimulationGate gate)
         return set;
     }
 
+    /// <summary>
+    /// Keeps a complete, unseeded measurement of <paramref name="doc"/> (the one a share link stored) as the live loop's
+    /// answer for that model, so returning to the same slider position shows it rather than a seeded search's.
+    /// </summary>
+    public void Adopt(ModelDocument doc, ReadoutSet set)
+    {
+        if (set.IsComplete) Remember(doc.ToJson(), set);
+    }
+
     /// <summary>Cells per request of a per-cell batch: each chunk is one bounded request (time cap, a gate slot).</summary>
     public const int CellBatchChunk = 8;
 

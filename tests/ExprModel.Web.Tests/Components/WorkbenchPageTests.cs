@@ -38,6 +38,18 @@ public sealed class WorkbenchPageTests : BunitContext
         return cut;
     }
 
+    /// <summary>How many times every read-out has been measured (a first stage shown early does not count).</summary>
+    private static int Completed(IRenderedComponent<Workbench> cut) => int.Parse(cut.Find("[data-testid=readouts]").GetAttribute("data-complete-update")!);
+
+    /// <summary>Waits for the opened model's read-outs, moves a channel's slider and waits until every read-out is in for the new position.</summary>
+    private static void MoveAndWait(IRenderedComponent<Workbench> cut, string entry, string position)
+    {
+        cut.WaitForAssertion(() => Assert.True(Completed(cut) > 0), TimeSpan.FromSeconds(60));
+        int before = Completed(cut);
+        cut.Find($"[data-testid=slider-{entry}] input").Input(position);
+        cut.WaitForAssertion(() => Assert.True(Completed(cut) > before), TimeSpan.FromSeconds(60));
+    }
+
     private static string Value(IRenderedComponent<Workbench> cut, string readout) =>
         cut.Find($"tr[data-readout={readout}]").QuerySelectorAll("td")[1].TextContent;
 
@@ -57,7 +69,7 @@ public sealed class WorkbenchPageTests : BunitContext
     {
         var cut = Open("wb1996");
         // Let the opened model's read-outs finish (its second stage also counts as an update) before moving the slider.
-        cut.WaitForAssertion(() => Assert.True(int.Parse(cut.Find("[data-testid=readouts]").GetAttribute("data-complete-update")!) > 0), TimeSpan.FromSeconds(60));
+        cut.WaitForAssertion(() => Assert.True(Completed(cut) > 0), TimeSpan.FromSeconds(60));
         var rheobase = Value(cut, "rheobase");
         Assert.NotEqual("—", rheobase);
         int before = int.Parse(cut.Find("[data-testid=readouts]").GetAttribute("data-update")!);
@@ -78,10 +90,7 @@ public sealed class WorkbenchPageTests : BunitContext
         // The live loop shows a first stage early and seeds the rheobase search with the previous value; once every
         // read-out is in, the table must hold exactly what a fresh, unseeded measurement of that model gives.
         var cut = Open("cortex-rs2008");
-        cut.WaitForAssertion(() => Assert.True(int.Parse(cut.Find("[data-testid=readouts]").GetAttribute("data-complete-update")!) > 0), TimeSpan.FromSeconds(60));
-        int before = int.Parse(cut.Find("[data-testid=readouts]").GetAttribute("data-complete-update")!);
-        cut.Find("[data-testid=slider-kv7-m-yamada] input").Input("820");
-        cut.WaitForAssertion(() => Assert.True(int.Parse(cut.Find("[data-testid=readouts]").GetAttribute("data-complete-update")!) > before), TimeSpan.FromSeconds(60));
+        MoveAndWait(cut, "kv7-m-yamada", "820");
         Assert.Empty(cut.FindAll("[data-testid=readouts] td.pending"));
 
         var catalog = Services.GetRequiredService<ChannelCatalog>();
@@ -94,6 +103,64 @@ public sealed class WorkbenchPageTests : BunitContext
         var cold = ModelRunner.Readouts(runner.Compile(moved), CancellationToken.None);
         foreach (var row in cold.Rows)
             Assert.Equal(ExprModel.Web.Components.Panels.ReadoutPanel.Format(row.Value), Value(cut, row.Name));
+    }
+
+    /// <summary>
+    /// Demo cell FH2046 with its T-type calcium channel (cav3-t-destexhe1996) at slider position 860: spiking is not monotone in the step amplitude,
+    /// and on a two-core machine the live search seeded from the opened model's rheobase lands on a rheobase where an
+    /// unseeded search finds none. Sharing stores the unseeded measurement; the Workbench must then show exactly that and
+    /// say what changed. On other machines the search's probe layout (four probes per core) differs and the two may
+    /// agree; then no note may appear. Either way, after sharing the table equals the unseeded measurement.
+    /// </summary>
+    [Fact]
+    public void After_sharing_the_table_holds_what_the_link_stored_and_says_when_that_differs_from_the_live_search()
+    {
+        var catalog = Services.GetRequiredService<ChannelCatalog>();
+        var src = CatalogLocator.FindSourceDirectory()!;
+        var data = ExprModel.Core.Mapping.ExpressionDataset.Read(catalog.ForMapping(), Path.Combine(src, "demo", "counts.csv"), new ExprModel.Core.Expression.ExpressionReadOptions());
+        var doc = data.Build(data.Map(), new ExprModel.Core.Mapping.DensityRule(), ExprModel.Core.Mapping.ModelTarget.ForCell("FH2046")).Document;
+        Services.GetRequiredService<WorkspaceState>().Open(doc, "demo cell FH2046");
+        var cut = Render<Workbench>();
+        MoveAndWait(cut, "cav3-t-destexhe1996", "860");
+        var live = cut.FindAll("[data-testid=readouts] tbody tr").ToDictionary(r => r.GetAttribute("data-readout")!, r => r.QuerySelectorAll("td")[1].TextContent);
+
+        var runner = Services.GetRequiredService<ModelRunner>();
+        var moved = doc with
+        {
+            Channels = doc.Channels.Select(c => c.Entry == "cav3-t-destexhe1996" ? c with { RelativeDensity = ExprModel.Web.Components.Panels.DensityScale.RelativeAt(860) } : c).ToArray(),
+        };
+        var cold = ModelRunner.Readouts(runner.Compile(moved), CancellationToken.None);
+        bool differed = cold.Rows.Any(r => ExprModel.Web.Components.Panels.ReadoutPanel.Format(r.Value) != live[r.Name]);
+        if (Environment.ProcessorCount == 2) Assert.True(differed, "expected the seeded live search to differ from the unseeded one here");
+
+        cut.Find("[data-testid=share]").Click();
+        cut.WaitForAssertion(() => Assert.NotEmpty(cut.FindAll("[data-testid=share-link]")), TimeSpan.FromSeconds(60));
+        foreach (var row in cold.Rows)
+            Assert.Equal(ExprModel.Web.Components.Panels.ReadoutPanel.Format(row.Value), Value(cut, row.Name));
+        var note = cut.FindAll("[data-testid=share-note]");
+        if (differed)
+        {
+            Assert.Single(note);
+            Assert.Contains("rheobase", note[0].TextContent);
+            Assert.Contains("not monotone", note[0].TextContent);
+        }
+        else Assert.Empty(note);
+
+        // Moving on clears the note (it described the table at the moment of sharing).
+        cut.Find("[data-testid=slider-cav3-t-destexhe1996] input").Input("850");
+        cut.WaitForAssertion(() => Assert.Empty(cut.FindAll("[data-testid=share-note]")));
+    }
+
+    [Fact]
+    public void Sharing_a_published_model_leaves_the_live_table_as_it_is()
+    {
+        var cut = Open("cortex-rs2008");
+        MoveAndWait(cut, "kv7-m-yamada", "700");
+        int shown = int.Parse(cut.Find("[data-testid=readouts]").GetAttribute("data-update")!);
+        cut.Find("[data-testid=share]").Click();
+        cut.WaitForAssertion(() => Assert.NotEmpty(cut.FindAll("[data-testid=share-link]")), TimeSpan.FromSeconds(60));
+        Assert.Empty(cut.FindAll("[data-testid=share-note]"));
+        Assert.Equal(shown, int.Parse(cut.Find("[data-testid=readouts]").GetAttribute("data-update")!));
     }
 
     [Fact]
