@@ -210,5 +210,6 @@ public sealed class ModelRunner(ChannelCatalog catalog, SimulationGate gate)
             Fi = r.FiCurve.Select(p => new FiRow(p.CurrentUaPerCm2, p.SpikesInStep, p.WholeStepRateHz, p.FirstIsiRateHz, p.LateRateHz)).ToArray(),
             Pending = r.IsComplete ? new HashSet<string>() : CellReadouts.SecondStageNames,
             Hint = r.Hint,
+            SpikingNotMonotone = r.SpikingNotMonotone,
         };
 }

@@ -55,6 +55,9 @@ public sealed record ReadoutSet(IReadOnlyList<ReadoutRow> Rows, IReadOnlyList<st
     /// <summary>Where the next similar model's rheobase search starts (see <see cref="ExprModel.Core.Analysis.RheobaseHint"/>).</summary>
     public ExprModel.Core.Analysis.RheobaseHint? Hint { get; init; }
 
+    /// <summary>The rheobase search saw spiking stop and start again with the step amplitude; such a cell gives no <see cref="Hint"/>.</summary>
+    public bool SpikingNotMonotone { get; init; }
+
     private static readonly IReadOnlySet<string> EmptyNames = new HashSet<string>();
 
     public double? Value(string name) => Rows.FirstOrDefault(r => r.Name == name)?.Value;

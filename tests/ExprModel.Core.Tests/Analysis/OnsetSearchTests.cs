@@ -151,6 +151,25 @@ public sealed class OnsetSearchTests
         Assert.True(noticed > 0, "no hint led the search across the gap");
     }
 
+    [Fact]
+    public void A_cell_whose_spiking_is_not_monotone_gives_no_hint()
+    {
+        // Demo cell FH2046 (see above): its cold search reports the gap, so the next slider position's search must start
+        // from scratch; a published model's cell has no gap and gives its rheobase and slope conductance as the hint.
+        var dir = CatalogLocator.FindSourceDirectory()!;
+        var data = ExpressionDataset.Read(TestCatalog.Catalog.ForMapping(), Path.Combine(dir, "demo", "counts.csv"), new ExpressionReadOptions());
+        var doc = data.Build(data.Map(), new DensityRule(), ModelTarget.ForCell("FH2046")).Document;
+        var gapped = Features.MeasureFirst(new CompiledCell(TestCatalog.Catalog.BuildCell(doc)), ReadoutSettings.Live);
+        Assert.True(gapped.SpikingNotMonotone);
+        Assert.NotNull(gapped.RheobaseUaPerCm2);
+        Assert.Null(gapped.Hint);
+        var plain = Features.MeasureFirst(TestCatalog.Preset("wb1996"), ReadoutSettings.Live);
+        Assert.False(plain.SpikingNotMonotone);
+        Assert.Equal(new RheobaseHint(plain.RheobaseUaPerCm2!.Value, plain.SlopeConductanceMsPerCm2!.Value), plain.Hint);
+        // The second stage keeps the flag (the Workbench takes its hint from the complete set).
+        Assert.True(Features.Complete(new CompiledCell(TestCatalog.Catalog.BuildCell(doc)), gapped, ReadoutSettings.Live).SpikingNotMonotone);
+    }
+
     [Theory]
     [InlineData("wb1996")]
     [InlineData("cortex-rs2008")]
