@@ -156,8 +156,11 @@ public static class Features
         // A seeded search that saw spiking stop and start again took a path of its own through the gap: measure again
         // unseeded, so the live read-outs equal a cold measurement of the same cell (the one a share link stores).
         if (gap is not null && hint is not null) found = RheobaseSearch.Rheobase(cell, rest, startSearch, maxSearch, s, cancel);
-        var (rheo, knownLatency, resume) = found;
+        var (rheo, knownLatency, resume, outOfRange) = found;
         if (!firesAtRest && rheo is null) notes.Add($"No spike for steps up to {maxSearch:G3} uA/cm2.");
+        if (outOfRange is { } runaway)
+            notes.Add($"The step of {runaway:G4} uA/cm2 drove the membrane past 1000 mV: the model has no stable response to it. " +
+                "The rheobase search counts such steps as no spike.");
         var notMonotone = rheo?.NotMonotone ?? gap;
         if (notMonotone is { } nm)
             notes.Add($"Spiking is not monotone in the step amplitude here: the step of {nm.HeldUaPerCm2:G4} uA/cm2 crosses the spike detection level, " +

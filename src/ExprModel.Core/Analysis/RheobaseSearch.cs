@@ -218,7 +218,9 @@ public static class RheobaseSearch
     /// <param name="LatencyMs">First spike time (ms from step onset) at the rheobase step, as the search saw it.</param>
     /// <param name="BeforeFirstSpike">Where a recorded run of the rheobase step can start, at least <see cref="ResumeMarginMs"/>
     /// before its first spike (null when the sweep could not keep one).</param>
-    public sealed record RheobaseResult(Bracket? Bracket, double? LatencyMs, ResumePoint? BeforeFirstSpike);
+    /// <param name="OutOfRangeFromUaPerCm2">The smallest probed step that drove the membrane out of the physical range
+    /// (|V| of 1000 mV or more: the model has no stable response there); such steps count as no spike. Null when none did.</param>
+    public sealed record RheobaseResult(Bracket? Bracket, double? LatencyMs, ResumePoint? BeforeFirstSpike, double? OutOfRangeFromUaPerCm2 = null);
 
     /// <summary>
     /// Rheobase: the smallest step that evokes at least one spike. Also returns the first spike time at that amplitude
@@ -228,23 +230,41 @@ public static class RheobaseSearch
         CancellationToken cancel = default, double? hint = null)
     {
         var seen = new Dictionary<double, (double Latency, ResumePoint? Resume)>();
+        double? outOfRange = null;
+        double duration = FiCurve.DefaultDelayMs + s.StepDurationMs + 20;
+        // Only "any spike in the step" matters here, so each run may end at its first spike.
+        var settings = s.Simulation with { StopAtFirstSpikeAfterMs = FiCurve.DefaultDelayMs };
+        IReadOnlyList<SweepLane?> Run(IReadOnlyList<double> amps) =>
+            Simulator.Sweep(cell, amps.Select(a => (Stimulus)Protocols.Step(a, FiCurve.DefaultDelayMs, s.StepDurationMs)).ToArray(), duration, settings, rest, ResumeMarginMs, cancel);
         var bracket = FindOnset(amps =>
         {
-            // Only "any spike in the step" matters here, so each run may end at its first spike.
-            var stimuli = amps.Select(a => (Stimulus)Protocols.Step(a, FiCurve.DefaultDelayMs, s.StepDurationMs)).ToArray();
-            var lanes = Simulator.Sweep(cell, stimuli, FiCurve.DefaultDelayMs + s.StepDurationMs + 20, s.Simulation with { StopAtFirstSpikeAfterMs = FiCurve.DefaultDelayMs },
-                rest, ResumeMarginMs, cancel);
+            IReadOnlyList<SweepLane?> lanes;
+            try
+            {
+                lanes = Run(amps);
+            }
+            catch (SimulationBlowUpException)
+            {
+                // A step the model cannot follow (the membrane runs past 1000 mV) stops its whole SIMD group: run the
+                // round's steps one at a time to keep the others' answers, and count the runaway ones as no spike.
+                lanes = amps.Select(a =>
+                {
+                    try { return Run([a])[0]; }
+                    catch (SimulationBlowUpException) { outOfRange = Math.Min(outOfRange ?? double.PositiveInfinity, a); return null; }
+                }).ToArray();
+            }
             var holds = new bool[amps.Count];
             for (int i = 0; i < amps.Count; i++)
             {
-                var p = FiCurve.Point(amps[i], lanes[i].SpikeTimesMs, FiCurve.DefaultDelayMs, s.StepDurationMs);
-                if (p.FirstSpikeLatencyMs is { } l) seen[amps[i]] = (l, lanes[i].BeforeFirstSpike);
+                if (lanes[i] is not { } lane) continue;
+                var p = FiCurve.Point(amps[i], lane.SpikeTimesMs, FiCurve.DefaultDelayMs, s.StepDurationMs);
+                if (p.FirstSpikeLatencyMs is { } l) seen[amps[i]] = (l, lane.BeforeFirstSpike);
                 holds[i] = p.SpikesInStep > 0;
             }
             return holds;
         }, startUaPerCm2, maxUaPerCm2, s.RheobaseAbsoluteToleranceUaPerCm2, s.RheobaseRelativeTolerance, cancel, hint: hint);
         return bracket is not null && seen.TryGetValue(bracket.AtOrAboveUaPerCm2, out var at)
-            ? new RheobaseResult(bracket, at.Latency, at.Resume)
-            : new RheobaseResult(bracket, null, null);
+            ? new RheobaseResult(bracket, at.Latency, at.Resume, outOfRange)
+            : new RheobaseResult(bracket, null, null, outOfRange);
     }
 }

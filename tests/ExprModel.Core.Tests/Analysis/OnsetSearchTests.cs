@@ -1,6 +1,7 @@
 using ExprModel.Core.Analysis;
 using ExprModel.Core.Expression;
 using ExprModel.Core.Mapping;
+using ExprModel.Core.Models;
 using ExprModel.Core.Simulation;
 using ExprModel.Data.Catalog;
 
@@ -129,9 +130,7 @@ public sealed class OnsetSearchTests
         // ones do not, larger ones again. When a seeded search's probes see that, the read-outs are measured again
         // unseeded, so the live table equals the cold measurement a share link stores. (A seeded search that never
         // probes the gap can still land in another window: that is the path dependence the note warns of.)
-        var dir = CatalogLocator.FindSourceDirectory()!;
-        var data = ExpressionDataset.Read(TestCatalog.Catalog.ForMapping(), Path.Combine(dir, "demo", "counts.csv"), new ExpressionReadOptions());
-        var doc = data.Build(data.Map(), new DensityRule(), ModelTarget.ForCell("FH2046")).Document;
+        var doc = DemoCell("FH2046");
         var cell = new CompiledCell(TestCatalog.Catalog.BuildCell(doc));
         var s = ReadoutSettings.Live;
         var cold = Features.MeasureFirst(cell, s);
@@ -151,14 +150,36 @@ public sealed class OnsetSearchTests
         Assert.True(noticed > 0, "no hint led the search across the gap");
     }
 
+    /// <summary>A demo cell's model, built as `exprmodel build --cell ID` builds it from the demo counts.</summary>
+    private static ModelDocument DemoCell(string id)
+    {
+        var dir = CatalogLocator.FindSourceDirectory()!;
+        var data = ExpressionDataset.Read(TestCatalog.Catalog.ForMapping(), Path.Combine(dir, "demo", "counts.csv"), new ExpressionReadOptions());
+        return data.Build(data.Map(), new DensityRule(), ModelTarget.ForCell(id)).Document;
+    }
+
+    [Fact]
+    public void Steps_that_drive_the_membrane_out_of_range_count_as_no_spike_and_are_named()
+    {
+        // Demo cell FH2018: large search steps run its membrane past 1000 mV (there the leak carries the largest
+        // current; the voltage-gated channels pass little). That used to stop the whole read-out set with an error; now
+        // those steps count as no spike, the other read-outs are measured and a note names the step.
+        var cell = new CompiledCell(TestCatalog.Catalog.BuildCell(DemoCell("FH2018")));
+        var first = Features.MeasureFirst(cell, ReadoutSettings.Live);
+        Assert.Null(first.RheobaseUaPerCm2);
+        Assert.NotNull(first.RestingPotentialMv);
+        Assert.Contains(first.Notes, n => n.Contains("drove the membrane past 1000 mV", StringComparison.Ordinal));
+        Assert.Contains(first.Notes, n => n.StartsWith("No spike for steps up to", StringComparison.Ordinal));
+        var all = Features.Complete(cell, first, ReadoutSettings.Live);
+        Assert.True(all.IsComplete);
+    }
+
     [Fact]
     public void A_cell_whose_spiking_is_not_monotone_gives_no_hint()
     {
         // Demo cell FH2046 (see above): its cold search reports the gap, so the next slider position's search must start
         // from scratch; a published model's cell has no gap and gives its rheobase and slope conductance as the hint.
-        var dir = CatalogLocator.FindSourceDirectory()!;
-        var data = ExpressionDataset.Read(TestCatalog.Catalog.ForMapping(), Path.Combine(dir, "demo", "counts.csv"), new ExpressionReadOptions());
-        var doc = data.Build(data.Map(), new DensityRule(), ModelTarget.ForCell("FH2046")).Document;
+        var doc = DemoCell("FH2046");
         var gapped = Features.MeasureFirst(new CompiledCell(TestCatalog.Catalog.BuildCell(doc)), ReadoutSettings.Live);
         Assert.True(gapped.SpikingNotMonotone);
         Assert.NotNull(gapped.RheobaseUaPerCm2);
