@@ -10,6 +10,15 @@ public sealed class WorkbenchTests(AppFixture app)
     internal static async Task<int> UpdateCount(IPage page) =>
         int.Parse(await page.Locator("[data-testid=readouts]").GetAttributeAsync("data-complete-update") ?? "0");
 
+    /// <summary>A new browser context with the Workbench open on a published model, its read-outs measured once.</summary>
+    internal static async Task<(IBrowserContext Context, IPage Page, List<string> ConsoleErrors)> OpenPresetAsync(AppFixture app, string preset)
+    {
+        var opened = await app.NewPageAsync();
+        await app.GotoAsync(opened.Page, "/workbench?preset=" + preset);
+        await WaitForUpdateAfter(opened.Page, 0);
+        return opened;
+    }
+
     internal static async Task WaitForUpdateAfter(IPage page, int before) =>
         await page.WaitForFunctionAsync($"() => Number(document.querySelector('[data-testid=readouts]')?.dataset.completeUpdate ?? 0) > {before}");
 
@@ -29,9 +38,7 @@ public sealed class WorkbenchTests(AppFixture app)
     [Fact]
     public async Task Moving_a_density_slider_changes_the_readouts()
     {
-        var (context, page, errors) = await app.NewPageAsync();
-        await app.GotoAsync(page, "/workbench?preset=wb1996");
-        await WaitForUpdateAfter(page, 0);
+        var (context, page, errors) = await OpenPresetAsync(app, "wb1996");
         await page.WaitForSelectorAsync("[data-testid=plot-fi] .main-svg");
         await page.WaitForTimeoutAsync(1500);
         await app.ScreenshotAsync(page, "workbench-preset");
@@ -65,9 +72,7 @@ public sealed class WorkbenchTests(AppFixture app)
     [Fact]
     public async Task After_a_burst_of_slider_moves_every_plot_shows_the_newest_run()
     {
-        var (context, page, errors) = await app.NewPageAsync();
-        await app.GotoAsync(page, "/workbench?preset=wb1996");
-        await WaitForUpdateAfter(page, 0);
+        var (context, page, errors) = await OpenPresetAsync(app, "wb1996");
         await page.WaitForSelectorAsync("[data-testid=plot-currents] .main-svg");
         int count = await UpdateCount(page);
         string[] keys = ["voltage", "fi", "phase", "currents"];
@@ -101,9 +106,7 @@ public sealed class WorkbenchTests(AppFixture app)
     [Fact]
     public async Task A_share_link_reproduces_the_readouts_in_a_fresh_browser()
     {
-        var (context, page, errors) = await app.NewPageAsync();
-        await app.GotoAsync(page, "/workbench?preset=cortex-rs2008");
-        await WaitForUpdateAfter(page, 0);
+        var (context, page, errors) = await OpenPresetAsync(app, "cortex-rs2008");
         int count = await UpdateCount(page);
         await page.Locator("[data-testid=slider-kv7-m-yamada] input[type=range]").FillAsync("900");
         await WaitForUpdateAfter(page, count);
@@ -156,9 +159,7 @@ public sealed class ExportTests(AppFixture app)
     [Fact]
     public async Task Csv_and_json_exports_carry_the_caution_and_the_model_imports_back()
     {
-        var (context, page, errors) = await app.NewPageAsync();
-        await app.GotoAsync(page, "/workbench?preset=hh1952");
-        await WorkbenchTests.WaitForUpdateAfter(page, 0);
+        var (context, page, errors) = await WorkbenchTests.OpenPresetAsync(app, "hh1952");
         var shown = await WorkbenchTests.ReadoutValues(page);
 
         var csv = await DownloadText(page, "text=read-outs CSV");
