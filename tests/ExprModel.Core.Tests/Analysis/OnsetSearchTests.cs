@@ -20,7 +20,7 @@ public sealed class OnsetSearchTests
     [InlineData(0.05, 0.05)]
     public void Grid_spacing_never_exceeds_the_tolerance_and_indices_invert(double abs, double rel)
     {
-        var grid = new RheobaseSearch.OnsetGrid(abs, rel);
+        var grid = new OnsetGrid(abs, rel);
         for (long n = 1; n < 3000; n++)
         {
             double a = grid.At(n - 1), b = grid.At(n);
@@ -40,16 +40,16 @@ public sealed class OnsetSearchTests
         {
             double threshold = Math.Exp(rng.NextDouble() * 9 - 5); // 0.007 to 55
             bool[] Holds(IReadOnlyList<double> amps) => amps.Select(a => a >= threshold).ToArray();
-            var grid = new RheobaseSearch.OnsetGrid(0.005, 0.02);
+            var grid = new OnsetGrid(0.005, 0.02);
             double expected = grid.At(grid.Ceiling(threshold));
-            var cold = RheobaseSearch.FindOnset(Holds, 0.1, 200, 0.005, 0.02);
+            var cold = OnsetSearch.FindOnset(Holds, 0.1, 200, 0.005, 0.02);
             Assert.NotNull(cold);
             Assert.Equal(expected, cold!.AtOrAboveUaPerCm2);
             Assert.True(cold.BelowUaPerCm2 < threshold);
             Assert.Null(cold.NotMonotone);
             foreach (double factor in new[] { 0.2, 0.8, 0.97, 1.0, 1.02, 1.3, 4.0 })
             {
-                var seeded = RheobaseSearch.FindOnset(Holds, 0.1, 200, 0.005, 0.02, hint: threshold * factor);
+                var seeded = OnsetSearch.FindOnset(Holds, 0.1, 200, 0.005, 0.02, hint: threshold * factor);
                 Assert.Equal((cold.BelowUaPerCm2, cold.AtOrAboveUaPerCm2, cold.ToleranceUaPerCm2), (seeded!.BelowUaPerCm2, seeded.AtOrAboveUaPerCm2, seeded.ToleranceUaPerCm2));
                 Assert.Null(seeded.NotMonotone);
             }
@@ -62,14 +62,14 @@ public sealed class OnsetSearchTests
         // Holds in a window [1, 1.5) and again from 10 on: a cell that fires for a narrow range of small steps, goes
         // quiet, and fires again for large ones. The answer then depends on the probe path, so the search says so.
         bool[] Window(IReadOnlyList<double> amps) => amps.Select(a => a is >= 1 and < 1.5 || a >= 10).ToArray();
-        var cold = RheobaseSearch.FindOnset(Window, 0.1, 50, 0.005, 0.02);
+        var cold = OnsetSearch.FindOnset(Window, 0.1, 50, 0.005, 0.02);
         Assert.NotNull(cold);
         Assert.InRange(cold!.AtOrAboveUaPerCm2, 1, 1.02); // the first point of the 2 % grid at or above the window's start
         Assert.NotNull(cold.NotMonotone);
         var (held, failedAbove) = cold.NotMonotone!.Value;
         Assert.True(Window([held])[0] && !Window([failedAbove])[0] && failedAbove > held, $"held {held}, failed above {failedAbove}");
         // Seeded above the gap, the probes never see the window: the other onset, with nothing to report.
-        var seeded = RheobaseSearch.FindOnset(Window, 0.1, 50, 0.005, 0.02, hint: 12);
+        var seeded = OnsetSearch.FindOnset(Window, 0.1, 50, 0.005, 0.02, hint: 12);
         Assert.InRange(seeded!.AtOrAboveUaPerCm2, 10, 10.2); // the first grid point at or above the second onset
         Assert.Null(seeded.NotMonotone);
     }
@@ -84,7 +84,7 @@ public sealed class OnsetSearchTests
         // The path needs eight probes per round (two or more cores); with one core the window is too narrow to see it.
         if (Environment.ProcessorCount < 2) return;
         bool[] TwoWindows(IReadOnlyList<double> amps) => amps.Select(a => a is >= 0.8 and < 9 || a >= 10).ToArray();
-        var seeded = RheobaseSearch.FindOnset(TwoWindows, 0.1, 50, 0.005, 0.02, hint: 13);
+        var seeded = OnsetSearch.FindOnset(TwoWindows, 0.1, 50, 0.005, 0.02, hint: 13);
         Assert.InRange(seeded!.AtOrAboveUaPerCm2, 0.8, 0.8 * 1.02); // the first point of the 2 % grid at or above the lower onset
         Assert.False(TwoWindows([seeded.BelowUaPerCm2])[0]);
         Assert.NotNull(seeded.NotMonotone);
@@ -97,9 +97,9 @@ public sealed class OnsetSearchTests
     public void A_property_that_never_holds_gives_no_onset_seeded_or_not()
     {
         bool[] Never(IReadOnlyList<double> amps) => amps.Select(_ => false).ToArray();
-        Assert.Null(RheobaseSearch.FindOnset(Never, 0.1, 50, 0.005, 0.02));
-        Assert.Null(RheobaseSearch.FindOnset(Never, 0.1, 50, 0.005, 0.02, hint: 10));
-        Assert.Null(RheobaseSearch.FindOnset(Never, 0.1, 50, 0.005, 0.02, hint: 49.9));
+        Assert.Null(OnsetSearch.FindOnset(Never, 0.1, 50, 0.005, 0.02));
+        Assert.Null(OnsetSearch.FindOnset(Never, 0.1, 50, 0.005, 0.02, hint: 10));
+        Assert.Null(OnsetSearch.FindOnset(Never, 0.1, 50, 0.005, 0.02, hint: 49.9));
     }
 
     [Fact]
@@ -107,13 +107,13 @@ public sealed class OnsetSearchTests
     {
         int rounds = 0;
         bool[] Holds(IReadOnlyList<double> amps) { rounds++; return amps.Select(a => a >= 3.3).ToArray(); }
-        RheobaseSearch.FindOnset(Holds, 0.1, 200, 0.005, 0.02, hint: 3.35);
+        OnsetSearch.FindOnset(Holds, 0.1, 200, 0.005, 0.02, hint: 3.35);
         int near = rounds;
         rounds = 0;
-        RheobaseSearch.FindOnset(Holds, 0.1, 200, 0.005, 0.02, hint: 3.3 * 1.1);
+        OnsetSearch.FindOnset(Holds, 0.1, 200, 0.005, 0.02, hint: 3.3 * 1.1);
         int fair = rounds;
         rounds = 0;
-        RheobaseSearch.FindOnset(Holds, 0.1, 200, 0.005, 0.02);
+        OnsetSearch.FindOnset(Holds, 0.1, 200, 0.005, 0.02);
         int cold = rounds;
         if (Environment.ProcessorCount >= 2)
         {
@@ -135,11 +135,11 @@ public sealed class OnsetSearchTests
         var s = ReadoutSettings.Live;
         var cold = Features.MeasureFirst(cell, s);
         double g = cold.SlopeConductanceMsPerCm2!.Value;
-        var (start, max) = Features.RheobaseSearchRange(g);
+        var (start, max) = Rheobase.SearchRange(g);
         int noticed = 0;
         foreach (double hint in new[] { 0.5, 1, 1.5, 2, 3, 5, 8, 12, 20, 30 })
         {
-            var probe = RheobaseSearch.Rheobase(cell, cold.RestState!, start, max, s, default, hint);
+            var probe = Rheobase.Search(cell, cold.RestState!, start, max, s, default, hint);
             if (probe.Bracket?.NotMonotone is null) continue;
             noticed++;
             var seeded = Features.MeasureFirst(cell, s, default, new RheobaseHint(hint, g));
