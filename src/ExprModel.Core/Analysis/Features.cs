@@ -4,13 +4,14 @@ using ExprModel.Core.Simulation;
 namespace ExprModel.Core.Analysis;
 
 /// <summary>
-/// The one read-out extractor, used by the command line, the HTTP API, the benchmarks and the tests alike. It runs
-/// each protocol on a model cell from its settled rest and hands the responses to the measurement of its family:
+/// The one read-out extractor, used by every front end, the benchmarks and the tests alike. It runs each protocol on a
+/// model cell from its settled rest and hands the responses to the measurement of its family:
 /// <see cref="Rest"/>, <see cref="Passive"/>, <see cref="Sag"/>, <see cref="Rheobase"/>, <see cref="SpikeAtRheobase"/>,
 /// <see cref="FiCurve"/>, <see cref="SustainedFiring"/>, <see cref="Adaptation"/> and <see cref="DepolarisationBlock"/>.
 /// </summary>
 public static class Features
 {
+    /// <summary>Every read-out: <see cref="MeasureFirst"/> and <see cref="Complete"/> in a row.</summary>
     public static CellReadouts Measure(CompiledCell cell, ReadoutSettings? settings = null, CancellationToken cancel = default) =>
         Complete(cell, MeasureFirst(cell, settings, cancel), settings, cancel);
 

@@ -9,8 +9,8 @@ namespace ExprModel.Core.Analysis;
 /// <remarks>
 /// Amplitudes are taken from a fixed grid (<see cref="OnsetGrid"/>) whose spacing is the stated tolerance, and the
 /// answer is the first grid point at which the property holds. So the answer does not depend on where the search
-/// starts: a search seeded with a nearby earlier answer (the rheobase of a cell whose densities differ a little) returns what a cold
-/// search returns, in fewer rounds, whenever the property is monotone in the amplitude.
+/// starts: a search seeded with a nearby earlier answer (the rheobase of a cell whose densities differ a little)
+/// returns what a cold search returns, in fewer rounds, whenever the property is monotone in the amplitude.
 /// </remarks>
 public static class OnsetSearch
 {
