@@ -67,10 +67,10 @@ internal static class LiveProbe
                 var cell = new CompiledCell(catalog.BuildCell(moved));
                 var first = Features.MeasureFirst(cell, s);
                 if (first.RestState is not { } rest || first.SlopeConductanceMsPerCm2 is not { } g) continue;
-                var (start, max) = Features.RheobaseSearchRange(g);
-                var c = RheobaseSearch.Rheobase(cell, rest, start, max, s).Bracket;
-                var r = RheobaseSearch.Rheobase(cell, rest, start, max, s, default, previous?.RheobaseUaPerCm2).Bracket;
-                var h = RheobaseSearch.Rheobase(cell, rest, start, max, s, default, previous?.PredictFor(g)).Bracket;
+                var (start, max) = Rheobase.SearchRange(g);
+                var c = Rheobase.Search(cell, rest, start, max, s).Bracket;
+                var r = Rheobase.Search(cell, rest, start, max, s, default, previous?.RheobaseUaPerCm2).Bracket;
+                var h = Rheobase.Search(cell, rest, start, max, s, default, previous?.PredictFor(g)).Bracket;
                 if (c is null || r is null || h is null) continue;
                 if (previous is { } p)
                 {
@@ -103,14 +103,14 @@ internal static class LiveProbe
             var cell = new CompiledCell(catalog.BuildCell(doc));
             var first = Features.MeasureFirst(cell, s);
             if (first.RestState is not { } rest || first.SlopeConductanceMsPerCm2 is not { } g || first.RheobaseUaPerCm2 is not { } rb) { Console.WriteLine($"{name}: no rheobase"); continue; }
-            var (start, max) = Features.RheobaseSearchRange(g);
+            var (start, max) = Rheobase.SearchRange(g);
             double settle = Median(() => Simulator.Run(cell, new NoCurrent(), s.SettleMs, sim with { RecordEvery = 0 }));
             double passive = Median(() => Simulator.Run(cell, Protocols.Step(-5 * g, 100, s.PassiveStepMs), 100 + s.PassiveStepMs, sim with { RecordEvery = 1 }, rest));
-            double cold = Median(() => RheobaseSearch.Rheobase(cell, rest, start, max, s));
-            double seeded = Median(() => RheobaseSearch.Rheobase(cell, rest, start, max, s, default, rb * 1.05));
-            double latency = RheobaseSearch.Rheobase(cell, rest, start, max, s).LatencyMs ?? s.StepDurationMs;
+            double cold = Median(() => Rheobase.Search(cell, rest, start, max, s));
+            double seeded = Median(() => Rheobase.Search(cell, rest, start, max, s, default, rb * 1.05));
+            double latency = Rheobase.Search(cell, rest, start, max, s).LatencyMs ?? s.StepDurationMs;
             double shape = Median(() => Simulator.Run(cell, Protocols.Step(rb, 100, s.StepDurationMs), Math.Min(100 + s.StepDurationMs, 100 + latency + 150), sim with { RecordEvery = 1 }, rest));
-            var resume = RheobaseSearch.Rheobase(cell, rest, start, max, s).BeforeFirstSpike;
+            var resume = Rheobase.Search(cell, rest, start, max, s).BeforeFirstSpike;
             double resumed = resume is null ? double.NaN : Median(() => Simulator.Resume(cell, Protocols.Step(rb, 100, s.StepDurationMs), resume, Math.Min(100 + s.StepDurationMs, 100 + latency + 150), sim with { RecordEvery = 1 }));
             var traceStep = Protocols.Step(2 * rb, 100, 500);
             double traceGates = Median(() => Simulator.Run(cell, traceStep, 700, sim with { RecordEvery = 1, RecordGateStates = true }));

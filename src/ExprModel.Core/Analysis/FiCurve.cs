@@ -2,22 +2,23 @@ using ExprModel.Core.Simulation;
 
 namespace ExprModel.Core.Analysis;
 
-/// <summary>One point of an f-I curve.</summary>
-/// <param name="CurrentUaPerCm2">Step amplitude (uA/cm2).</param>
-/// <param name="SpikesInStep">Spikes during the step.</param>
-/// <param name="WholeStepRateHz">Spike count divided by step duration.</param>
-/// <param name="FirstIsiRateHz">Inverse of the first inter-spike interval (0 with fewer than two spikes).</param>
-/// <param name="LateRateHz">Rate over the second half of the step: (n - 1) / (last - first) of the spikes there, 0 with fewer than two.</param>
-/// <param name="FirstSpikeLatencyMs">Time from step onset to the first spike (null if none).</param>
-public sealed record FiPoint(double CurrentUaPerCm2, int SpikesInStep, double WholeStepRateHz, double FirstIsiRateHz, double LateRateHz, double? FirstSpikeLatencyMs)
-{
-    public IReadOnlyList<double> SpikeTimesMs { get; init; } = [];
-}
-
 /// <summary>Firing rate against step amplitude.</summary>
 public static class FiCurve
 {
-    public const double DefaultDelayMs = 100;
+    public const double DefaultDelayMs = Protocols.BaselineMs;
+
+    /// <summary>
+    /// The read-outs' f-I curve: <see cref="ReadoutSettings.FiSteps"/> equally spaced steps from 0 to
+    /// <see cref="ReadoutSettings.FiMaxMultiple"/> x rheobase, with <see cref="ReadoutSettings.ExtraStepsUaPerCm2"/> riding
+    /// along in the same sweep.
+    /// </summary>
+    internal static (IReadOnlyList<FiPoint> Curve, IReadOnlyList<FiPoint> ExtraSteps) MeasureToMultipleOfRheobase(CompiledCell cell, double rheobaseUaPerCm2,
+        ReadoutSettings s, CellState rest, CancellationToken cancel)
+    {
+        var grid = Protocols.StepFamily(0, s.FiMaxMultiple * rheobaseUaPerCm2, s.FiSteps).Select(p => p.AmplitudeUaPerCm2).ToArray();
+        var all = Measure(cell, [.. grid, .. s.ExtraStepsUaPerCm2], s.StepDurationMs, rest, s.Simulation, cancel);
+        return (all.Take(grid.Length).ToArray(), all.Skip(grid.Length).ToArray());
+    }
 
     /// <summary>Runs a family of steps (in parallel) and measures the rates of each.</summary>
     public static IReadOnlyList<FiPoint> Measure(CompiledCell cell, double fromUaPerCm2, double toUaPerCm2, int steps, double durationMs = 1000,
@@ -35,7 +36,10 @@ public static class FiCurve
         return amplitudesUaPerCm2.Select((a, i) => Point(a, trains[i], DefaultDelayMs, durationMs)).ToArray();
     }
 
-    /// <summary>Rates of one step response from its spike times.</summary>
+    /// <summary>
+    /// Rates of one step response from its spike times, recorded or simulated (times on the trace's clock; only those in
+    /// the step count).
+    /// </summary>
     public static FiPoint Point(double amplitude, IReadOnlyList<double> spikeTimesMs, double delayMs, double durationMs)
     {
         var inStep = spikeTimesMs.Where(t => t >= delayMs && t < delayMs + durationMs).ToArray();

@@ -5,8 +5,11 @@ namespace ExprModel.Core.Analysis;
 /// <summary>The standard current-clamp protocols a practitioner reaches for, as stimuli (densities in uA/cm2).</summary>
 public static class Protocols
 {
+    /// <summary>Time at the holding current before a read-out step starts (ms), 100 ms by common practice.</summary>
+    public const double BaselineMs = 100;
+
     /// <summary>A rectangular step, by default 1 s long after a 100 ms baseline (common practice).</summary>
-    public static StepCurrent Step(double amplitudeUaPerCm2, double delayMs = 100, double durationMs = 1000) => new(delayMs, durationMs, amplitudeUaPerCm2);
+    public static StepCurrent Step(double amplitudeUaPerCm2, double delayMs = BaselineMs, double durationMs = 1000) => new(delayMs, durationMs, amplitudeUaPerCm2);
 
     /// <summary>A family of equally spaced steps from <paramref name="fromUaPerCm2"/> to <paramref name="toUaPerCm2"/> inclusive.</summary>
     public static IReadOnlyList<StepCurrent> StepFamily(double fromUaPerCm2, double toUaPerCm2, int count, double delayMs = 100, double durationMs = 1000)

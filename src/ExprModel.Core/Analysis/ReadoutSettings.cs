@@ -55,8 +55,8 @@ public sealed record ReadoutSettings
     };
 
     /// <summary>
-    /// Read-outs for live updates while a slider moves: the batch settings plus sag. The depolarisation-block search is
-    /// left out (run the full read-outs for it).
+    /// Read-outs repeated after each small change of a model's densities: the batch settings plus sag. The
+    /// depolarisation-block search is left out (run the full read-outs for it).
     /// </summary>
     public static ReadoutSettings Live { get; } = Batch with { IncludeSag = true };
 }

@@ -66,9 +66,9 @@ public sealed record Geometry
 public sealed record ChannelInstance
 {
     public required ChannelEntry Entry { get; init; }
-    /// <summary>Maximal conductance density predicted or chosen for this cell (mS/cm2), before the slider.</summary>
+    /// <summary>Maximal conductance density predicted or chosen for this cell (mS/cm2), before the relative density scales it.</summary>
     public required double DensityMsPerCm2 { get; init; }
-    /// <summary>The user's relative-density slider; 1 = as predicted.</summary>
+    /// <summary>The factor the user scales the density by (a knock-down below 1, over-expression above); 1 = as predicted.</summary>
     public double RelativeDensity { get; init; } = 1;
     /// <summary>Overrides the entry's reversal rule with a fixed reversal (mV), as a published model does.</summary>
     public double? ReversalMv { get; init; }

@@ -32,4 +32,10 @@ public static class CurrentUnits
         CurrentUnit.Pa => g.DensityToPicoamps(density),
         _ => g.DensityToPicoamps(density) / 1000,
     };
+
+    /// <summary>
+    /// A slope per unit of current density (for example an f-I gain in Hz per uA/cm2) as a slope per nanoampere for this
+    /// cell's area: 1 uA/cm2 on A um2 is A x 1e-5 nA.
+    /// </summary>
+    public static double PerDensityToPerNanoamp(double perUaPerCm2, Geometry g) => perUaPerCm2 / (g.AreaUm2 * 1e-5);
 }

@@ -118,7 +118,7 @@ public sealed record ModelDocument
     public ModelDocument Pinned(Func<string, int?, ChannelEntry> resolve) =>
         this with { Channels = Channels.Select(c => c with { Version = resolve(c.Entry, c.Version).Version }).ToArray() };
 
-    /// <summary>The same document with relative densities set from a map of entry id to slider value.</summary>
+    /// <summary>The same document with relative densities set from a map of entry id to relative density (1 = as predicted).</summary>
     public ModelDocument WithRelativeDensities(IReadOnlyDictionary<string, double> relative) =>
         this with { Channels = Channels.Select(c => relative.TryGetValue(c.Entry, out var r) ? c with { RelativeDensity = r } : c).ToArray() };
 }

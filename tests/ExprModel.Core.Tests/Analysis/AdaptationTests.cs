@@ -2,20 +2,9 @@ using ExprModel.Core.Analysis;
 
 namespace ExprModel.Core.Tests.Analysis;
 
-/// <summary>Excitability class and adaptation of the published presets.</summary>
-public class PublishedModelClassTests
+/// <summary>Spike-frequency adaptation of the published presets and of spike trains with known intervals.</summary>
+public sealed class AdaptationTests
 {
-    [Fact]
-    public void WangBuzsakiInterneuronIsClassOne()
-    {
-        // Wang & Buzsaki 1996 (J Neurosci 16:6402): the model fires at arbitrarily low rates near onset (class 1).
-        var r = Features.Measure(TestCatalog.Preset("wb1996"));
-        Assert.Equal(1, r.ExcitabilityClass);
-        Assert.True(r.OnsetRateHz < 5, $"onset rate {r.OnsetRateHz} Hz");
-        // The same paper places rest near -64/-65 mV with E_L = -65 mV (from memory).
-        Assert.InRange(r.RestingPotentialMv!.Value, -66, -63);
-    }
-
     [Fact]
     public void RegularSpikingPresetAdaptsAndFastSpikingDoesNot()
     {
@@ -26,5 +15,17 @@ public class PublishedModelClassTests
         Assert.True(rs.AdaptationRatio > 1.5, $"RS adaptation ratio {rs.AdaptationRatio}");
         Assert.True(fs.AdaptationRatio < 1.1, $"FS adaptation ratio {fs.AdaptationRatio}");
         Assert.True(rs.AdaptationIndex > fs.AdaptationIndex);
+    }
+
+    [Fact]
+    public void Intervals_growing_by_a_fixed_factor_give_its_power_and_the_index_of_one_pair()
+    {
+        // ISIs 10, 15, 22.5, 33.75 ms (factor k = 1.5): ratio k^3; each pair gives (k - 1) / (k + 1) = 0.2 (identity).
+        var (ratio, index) = Adaptation.FromSpikeTimes([100, 110, 125, 147.5, 181.25]);
+        Assert.Equal(Math.Pow(1.5, 3), ratio!.Value, 1e-12);
+        Assert.Equal(0.2, index!.Value, 1e-12);
+        var (twoRatio, twoIndex) = Adaptation.FromSpikeTimes([100, 110]);
+        Assert.Null(twoRatio);
+        Assert.Null(twoIndex);
     }
 }
