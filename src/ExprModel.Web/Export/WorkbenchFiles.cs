@@ -31,8 +31,8 @@ public static class WorkbenchFiles
     /// <summary>The pinned variants' read-outs and the live ones ("now"), one column each.</summary>
     public static DownloadFile? Readouts(WorkbenchSession s)
     {
-        if (s.Readouts is null) return null;
-        var columns = s.Variants.Items.Select(v => (v.Name, v.Readouts)).Append(("now", s.Readouts)).ToList();
+        if (s.Table.Rows is null) return null;
+        var columns = s.Variants.Items.Select(v => (v.Name, v.Readouts)).Append(("now", s.Table.Rows)).ToList();
         return new(Stem(s) + ".readouts.csv", "text/csv", CsvExport.Readouts(columns));
     }
 }

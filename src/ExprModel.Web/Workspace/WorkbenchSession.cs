@@ -16,7 +16,6 @@ namespace ExprModel.Web.Workspace;
 public sealed class WorkbenchSession(ModelRunner runner, WorkspaceState workspace, ChannelCatalog catalog, Func<Task> changed) : IDisposable
 {
     private CancellationTokenSource? _liveCts;
-    private readonly RheobaseHintTrail _hints = new();
     /// <summary>True until the opened model's first read-outs size the step to its rheobase, or the user sets the step.</summary>
     private bool _autoProtocol = true;
 
@@ -34,9 +33,7 @@ public sealed class WorkbenchSession(ModelRunner runner, WorkspaceState workspac
     public bool CustomFi { get; private set; }
 
     public StepView? Step { get; private set; }
-    public IReadOnlyList<ReadoutRow>? Readouts { get; private set; }
-    public IReadOnlySet<string> PendingReadouts { get; private set; } = new HashSet<string>();
-    public IReadOnlyList<string> ReadoutNotes { get; private set; } = [];
+    public LiveReadouts Table { get; } = new();
     public IReadOnlyList<FiRow>? FiRows { get; private set; }
     public bool Busy { get; private set; }
     public string? Error { get; set; }
@@ -44,8 +41,6 @@ public sealed class WorkbenchSession(ModelRunner runner, WorkspaceState workspac
     /// <summary>Counters the page carries as data attributes (tests wait on them) and revisions that tell each plot to redraw.</summary>
     public int TraceCount { get; private set; }
     public int FiCount { get; private set; }
-    public int UpdateCount { get; private set; }
-    public int CompleteCount { get; private set; }
     public int TraceRevision { get; private set; }
     public int FiRevision { get; private set; }
     /// <summary>Revision of the phase-plane and spike-current plots: they follow the voltage trace once the first read-outs are shown.</summary>
@@ -106,7 +101,7 @@ public sealed class WorkbenchSession(ModelRunner runner, WorkspaceState workspac
         try { AreaUm2 = model.Cell.ToGeometry().AreaUm2; } catch (ModelFileException e) { Error = e.Message; AreaUm2 = 1000; }
         if (!ReferenceEquals(workspace.Model, model)) workspace.Open(model, from, parent);
         SharedSnapshotId = null;
-        _hints.Forget(); // a newly opened model is measured from scratch, as a share link or the API measure it
+        Table.ForgetHint();
         _autoProtocol = true;
         CustomFi = false;
         ScheduleLive();
@@ -200,7 +195,7 @@ public sealed class WorkbenchSession(ModelRunner runner, WorkspaceState workspac
             await changed();
             // The trace and the read-outs' first stage run side by side; each is shown as soon as it is done, and the
             // second stage (f-I curve, class, adaptation) follows. The previous rheobase seeds this one's search.
-            var firstTask = runner.FirstReadoutsAsync(doc, _hints.Current, token);
+            var firstTask = runner.FirstReadoutsAsync(doc, Table.Hint, token);
             Step = await runner.StepAsync(doc, Protocol, token);
             token.ThrowIfCancellationRequested();
             Observer?.TraceReady();
@@ -210,7 +205,7 @@ public sealed class WorkbenchSession(ModelRunner runner, WorkspaceState workspac
             var set = await firstTask;
             token.ThrowIfCancellationRequested();
             Observer?.FirstReadoutsReady();
-            ShowReadouts(set);
+            Table.Show(set);
             Error = null;
             await changed();
             // The phase plane and the spike currents come from the same trace; drawn after the read-outs so the table is not held up.
@@ -232,7 +227,7 @@ public sealed class WorkbenchSession(ModelRunner runner, WorkspaceState workspac
             {
                 set = await runner.CompleteReadoutsAsync(doc, set, token);
                 token.ThrowIfCancellationRequested();
-                ShowReadouts(set);
+                Table.Show(set);
             }
             if (!CustomFi && includeFi)
             {
@@ -255,16 +250,6 @@ public sealed class WorkbenchSession(ModelRunner runner, WorkspaceState workspac
         }
     }
 
-    private void ShowReadouts(ReadoutSet set)
-    {
-        Readouts = set.Rows;
-        PendingReadouts = set.Pending;
-        ReadoutNotes = set.Notes;
-        _hints.Observe(set.Hint, set.SpikingNotMonotone);
-        UpdateCount++;
-        if (set.IsComplete) CompleteCount++;
-    }
-
     private void ShowFi(IReadOnlyList<FiRow> rows)
     {
         FiRows = rows;
@@ -275,14 +260,14 @@ public sealed class WorkbenchSession(ModelRunner runner, WorkspaceState workspac
     private void StartFiSweep(ModelDocument doc) => FiSweep.Start(doc, Fi, ShowFi, message => Error = message);
 
     /// <summary>True when the live read-outs are complete and a trace is shown: what a variant needs.</summary>
-    public bool CanPin => !Variants.IsFull && Step is not null && PendingReadouts.Count == 0;
+    public bool CanPin => !Variants.IsFull && Step is not null && Table.Pending.Count == 0;
 
     public void PinVariant()
     {
-        if (Step is null || Readouts is null || PendingReadouts.Count > 0 || Variants.IsFull) return;
+        if (Step is null || !Table.IsComplete || Variants.IsFull) return;
         var changedChannels = Model!.Channels.Select((c, i) => Relative[i] == 1 ? null : $"{c.Entry} {Relative[i] * 100:0}%").Where(s => s is not null);
         var name = $"#{Variants.Count + 1} " + (changedChannels.Any() ? string.Join(", ", changedChannels) : "as expressed");
-        Variants.Add(name, Step, FiRows, Readouts, 48);
+        Variants.Add(name, Step, FiRows, Table.Rows!, 48);
         RedrawWithVariants();
         _ = changed();
     }
@@ -320,7 +305,7 @@ public sealed class WorkbenchSession(ModelRunner runner, WorkspaceState workspac
             var model = Current();
             string modelJson = model.ToJson();
             // The live table, if it is complete and belongs to the model being shared.
-            var live = !Busy && PendingReadouts.Count == 0 ? Readouts : null;
+            var live = !Busy && Table.Pending.Count == 0 ? Table.Rows : null;
             var (snap, stored) = await snapshots.SaveAsync(model, new SnapshotProtocol { Step = Protocol, Fi = Fi }, notes, workspace.ParentSnapshotId,
                 expression, storeExpression ? workspace.ExpressionName : null, CancellationToken.None);
             SharedSnapshotId = snap.Id;
@@ -329,7 +314,7 @@ public sealed class WorkbenchSession(ModelRunner runner, WorkspaceState workspac
             if (live is not null && !Busy && Current().ToJson() == modelJson && ReadoutComparison.Changes(live, stored.Rows) is { Count: > 0 } changes)
             {
                 ShareNote = StoredReadoutsNote.For(changes);
-                ShowReadouts(stored);
+                Table.Show(stored);
                 if (!CustomFi) ShowFi(stored.Fi);
                 runner.Adopt(model, stored);
             }

@@ -50,10 +50,10 @@ public sealed class WorkbenchSessionTests : IDisposable
         session.OpenInitial("wb1996");
         await session.LiveRun;
         Assert.Null(session.Error);
-        Assert.Empty(session.PendingReadouts);
-        AssertSameReadouts(Cold(session.Current()), session.Readouts);
+        Assert.Empty(session.Table.Pending);
+        AssertSameReadouts(Cold(session.Current()), session.Table.Rows);
         // The step was sized to the opened cell: twice its rheobase, to two significant figures.
-        Assert.Equal(StepSizing.FromRheobase(session.Readouts!.First(r => r.Name == "rheobase").Value!.Value), session.AmplitudeUaPerCm2);
+        Assert.Equal(StepSizing.FromRheobase(session.Table.Rows!.First(r => r.Name == "rheobase").Value!.Value), session.AmplitudeUaPerCm2);
         Assert.Equal(session.AmplitudeUaPerCm2, session.Step!.Protocol.AmplitudeUaPerCm2);
         Assert.True(_changes > 0, "the page was never told to redraw");
 
@@ -61,8 +61,8 @@ public sealed class WorkbenchSessionTests : IDisposable
         session.SetRelative(k, DensityScale.RelativeAt(700));
         await session.LiveRun;
         Assert.Equal(DensityScale.RelativeAt(700), session.Current().Channels[k].RelativeDensity);
-        AssertSameReadouts(Cold(session.Current()), session.Readouts);
-        Assert.Equal(2, session.CompleteCount);
+        AssertSameReadouts(Cold(session.Current()), session.Table.Rows);
+        Assert.Equal(2, session.Table.CompleteCount);
     }
 
     [Fact]
@@ -75,9 +75,9 @@ public sealed class WorkbenchSessionTests : IDisposable
         session.SetRelative(na, 0);
         await Task.WhenAll(opened, session.LiveRun);
         // Only the last setting's read-outs were shown in full: sodium off, no rheobase.
-        Assert.Equal(1, session.CompleteCount);
-        Assert.Null(session.Readouts!.First(r => r.Name == "rheobase").Value);
-        AssertSameReadouts(Cold(session.Current()), session.Readouts);
+        Assert.Equal(1, session.Table.CompleteCount);
+        Assert.Null(session.Table.Rows!.First(r => r.Name == "rheobase").Value);
+        AssertSameReadouts(Cold(session.Current()), session.Table.Rows);
     }
 
     [Fact]
@@ -86,7 +86,7 @@ public sealed class WorkbenchSessionTests : IDisposable
         using var session = NewSession();
         session.OpenInitial("wb1996");
         await session.LiveRun;
-        var asOpened = session.Readouts;
+        var asOpened = session.Table.Rows;
         session.PinVariant();
         session.SetRelative(0, 0.5);
         await session.LiveRun;
@@ -137,13 +137,13 @@ public sealed class WorkbenchSessionTests : IDisposable
         await session.LiveRun;
         session.SetRelative(doc.Channels.Select(c => c.Entry).ToList().IndexOf("cav3-t-destexhe1996"), DensityScale.RelativeAt(860));
         await session.LiveRun;
-        AssertSameReadouts(Cold(session.Current()), session.Readouts);
+        AssertSameReadouts(Cold(session.Current()), session.Table.Rows);
 
-        var shown = session.Readouts;
+        var shown = session.Table.Rows;
         await session.ShareAsync(new SnapshotService(_store, _runner), "", storeExpression: false);
         Assert.NotNull(session.SharedSnapshotId);
         Assert.Null(session.ShareNote);
-        Assert.Same(shown, session.Readouts);
+        Assert.Same(shown, session.Table.Rows);
     }
 
     /// <summary>As the page test of the same name: the runner's cache is given altered read-outs for the moved model, so the live table differs from what the link stores.</summary>
@@ -164,10 +164,10 @@ public sealed class WorkbenchSessionTests : IDisposable
 
         session.SetRelative(k, DensityScale.RelativeAt(700));
         await session.LiveRun;
-        Assert.Equal(rheobase * 1.5, session.Readouts!.First(r => r.Name == "rheobase").Value);
+        Assert.Equal(rheobase * 1.5, session.Table.Rows!.First(r => r.Name == "rheobase").Value);
 
         await session.ShareAsync(new SnapshotService(_store, _runner), "", storeExpression: false);
-        Assert.Equal(real.Rows, session.Readouts);
+        Assert.Equal(real.Rows, session.Table.Rows);
         Assert.Contains($"rheobase {ReadoutPanel.Format(rheobase * 1.5)} uA/cm2 → {ReadoutPanel.Format(rheobase)} uA/cm2", session.ShareNote);
         // A new setting clears the note: it described the table at the moment of sharing.
         session.SetRelative(k, DensityScale.RelativeAt(690));
