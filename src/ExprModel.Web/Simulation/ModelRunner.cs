@@ -160,23 +160,10 @@ public sealed class ModelRunner(ChannelCatalog catalog, SimulationGate gate)
     /// <summary>The trace of one step with channel currents, shaped for the plots.</summary>
     public static StepView Step(CompiledCell cell, StepProtocol step, CancellationToken cancel)
     {
-        var stimulus = new StepCurrent(step.DelayMs, step.StepMs, step.AmplitudeUaPerCm2);
-        // The trace keeps voltage and a resume point every 10 ms. The channel currents are shown only around the first
-        // spike, so that stretch is run again from the resume point before it, recording gate states (the same scalar loop
-        // from the same state: the same numbers as recording them all along, at a fraction of the cost).
-        var settings = SimulationSettings.Default with { RecordEvery = 1, KeepResumePoints = true };
         try
         {
-            var trace = Simulator.Run(cell, stimulus, step.TotalMs, settings, null, cancel);
-            Trace? window = null;
-            if (trace.SpikeTimesMs.Count > 0 && trace.ResumePoints.Count > 0)
-            {
-                double first = trace.SpikeTimesMs[0];
-                var from = trace.ResumePoints.LastOrDefault(r => r.TimeMs <= first - StepView.WindowBeforeMs) ?? trace.ResumePoints[0];
-                double until = Math.Min(trace.DurationMs, first + StepView.WindowAfterMs + 1);
-                window = Simulator.Resume(cell, stimulus, from, until, settings with { KeepResumePoints = false, RecordGateStates = true }, cancel);
-            }
-            return StepView.From(cell, trace, step, window);
+            var recording = StepRecording.Run(cell, new StepCurrent(step.DelayMs, step.StepMs, step.AmplitudeUaPerCm2), step.TotalMs, cancel);
+            return StepView.From(recording, step);
         }
         catch (SimulationBlowUpException e)
         {

@@ -27,6 +27,12 @@ public sealed record FiProtocol
     public int Steps { get; init; } = 16;
     public double DurationMs { get; init; } = 1000;
 
+    /// <summary>The sweep's amplitudes.</summary>
+    public ExprModel.Core.Analysis.AmplitudeGrid Grid => new(FromUaPerCm2, ToUaPerCm2, Steps);
+
+    /// <summary>This sweep over <paramref name="grid"/> (same duration).</summary>
+    public FiProtocol Over(ExprModel.Core.Analysis.AmplitudeGrid grid) => this with { FromUaPerCm2 = grid.FromUaPerCm2, ToUaPerCm2 = grid.ToUaPerCm2, Steps = grid.Steps };
+
     public string? Problem()
     {
         if (!double.IsFinite(FromUaPerCm2) || !double.IsFinite(ToUaPerCm2) || !(ToUaPerCm2 > FromUaPerCm2)) return "fi: toUaPerCm2 must be a number above fromUaPerCm2";

@@ -1,4 +1,4 @@
-using ExprModel.Core.Simulation;
+using ExprModel.Core.Analysis;
 
 namespace ExprModel.Web.Simulation;
 
@@ -6,7 +6,7 @@ namespace ExprModel.Web.Simulation;
 /// One step's trace shaped for the browser: a voltage trace thinned to <see cref="ModelRunner.PlotBuckets"/> buckets
 /// (each keeps its lowest and highest sample, so spike peaks and troughs survive), the phase-plane points (dV/dt by
 /// central differences of the recorded samples, thinned where the membrane is quiet), and each channel's current in a
-/// window around the first spike.
+/// window around the first spike (recorded by the library's <see cref="StepRecording"/>).
 /// </summary>
 public sealed record StepView
 {
@@ -25,32 +25,23 @@ public sealed record StepView
     public required double[] FullVoltageMv { get; init; }
     public required double[] FullStimulusUaPerCm2 { get; init; }
 
-    public const double WindowBeforeMs = 3, WindowAfterMs = 8;
-
-    /// <param name="cell">The cell that ran; its channel currents are computed for the spike window from the recorded gate states.</param>
-    /// <param name="spikeWindow">The stretch of the run around its first spike computed again with gate states (its samples
-    /// are the trace's from the resume point's step on); without it, the trace itself must carry gate states.</param>
-    public static StepView From(CompiledCell cell, Trace trace, StepProtocol step, Trace? spikeWindow = null)
+    /// <summary>Shapes a recorded step for the plots and the CSV export.</summary>
+    public static StepView From(StepRecording recording, StepProtocol step)
     {
+        var trace = recording.Trace;
         var t = trace.TimeMs;
         var v = trace.VoltageMv;
         var (tt, vv) = Thin(t, v, ModelRunner.PlotBuckets);
         var (pv, ps) = Phase(t, v);
-        double[] window = [];
+        // Every second sample (50 us) of the spike window is plenty for the plot and halves what goes to the browser.
+        var keep = Enumerable.Range(0, recording.SpikeWindowMs.Length).Where(k => k % 2 == 0).ToArray();
         var currents = new Dictionary<string, double[]>();
-        if (trace.SpikeTimesMs.Count > 0)
-        {
-            double s = trace.SpikeTimesMs[0];
-            int from = Math.Max(0, Index(t, s - WindowBeforeMs)), to = Math.Min(t.Length - 1, Index(t, s + WindowAfterMs));
-            // Every second sample (50 us) is plenty for the plot and halves what goes to the browser.
-            var idx = Enumerable.Range(from, to - from + 1).Where(k => (k - from) % 2 == 0).ToArray();
-            window = idx.Select(k => t[k] - s).ToArray();
-            var labels = Simulator.ChannelLabels(cell);
-            var source = spikeWindow ?? trace;
-            int offset = spikeWindow is null ? 0 : (int)Math.Round(spikeWindow.TimeMs[0] / trace.SampleIntervalMs);
-            var rows = idx.Select(k => Simulator.ChannelCurrentsAt(cell, source, k - offset)).ToArray();
-            for (int c = 0; c < labels.Count; c++) currents[labels[c]] = rows.Select(r => r[c]).ToArray();
-        }
+        if (keep.Length > 0)
+            for (int c = 0; c < recording.ChannelLabels.Count; c++)
+            {
+                var series = recording.SpikeWindowCurrentsUaPerCm2[c];
+                currents[recording.ChannelLabels[c]] = keep.Select(k => series[k]).ToArray();
+            }
         return new StepView
         {
             Protocol = step,
@@ -59,18 +50,12 @@ public sealed record StepView
             PhaseVoltageMv = pv,
             PhaseSlopeMvPerMs = ps,
             SpikeTimesMs = trace.SpikeTimesMs,
-            SpikeWindowMs = window,
+            SpikeWindowMs = keep.Select(k => recording.SpikeWindowMs[k]).ToArray(),
             SpikeWindowCurrents = currents,
             FullTimeMs = t,
             FullVoltageMv = v,
             FullStimulusUaPerCm2 = trace.StimulusUaPerCm2,
         };
-    }
-
-    private static int Index(double[] t, double time)
-    {
-        int i = Array.BinarySearch(t, time);
-        return i >= 0 ? i : ~i;
     }
 
     /// <summary>Keeps each bucket's first extreme then its other extreme, in time order.</summary>
