@@ -53,6 +53,7 @@ app.MapCatalogApi();
 app.MapSimulationApi();
 app.MapModelsApi();
 app.MapBuildApi();
+app.MapWhatIfApi();
 app.MapStaticAssets();
 app.MapRazorComponents<App>().AddInteractiveServerRenderMode();
 

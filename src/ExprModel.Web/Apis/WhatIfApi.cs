@@ -1,0 +1,91 @@
+using ExprModel.Core.Models;
+using ExprModel.Core.Perturbation;
+using ExprModel.Web.Simulation;
+using Microsoft.AspNetCore.Http.HttpResults;
+
+namespace ExprModel.Web.Apis;
+
+/// <summary>Knock-down, sensitivity and density fits of a model sent in the request (nothing is stored), within the simulation gate's limits.</summary>
+public static class WhatIfApi
+{
+    public static IEndpointRouteBuilder MapWhatIfApi(this IEndpointRouteBuilder app)
+    {
+        var api = app.MapGroup("/api/whatif").WithTags("What if");
+
+        api.MapPost("/knockdown", async Task<Ok<KnockdownResponse>> (KnockdownRequest request, ModelRunner runner, SimulationGate gate, CancellationToken cancel) =>
+            {
+                var doc = request.ReadModel();
+                var cell = runner.Compile(doc).Model;
+                if (request.Readout is { } r && ReadoutValues.UnitOf(r) is null) throw new UserInputException($"readout: '{r}' is not a read-out.");
+                var report = await gate.RunAsync(token => Library(() =>
+                {
+                    var targets = request.Genes ? GeneKnockdowns.Targets(doc, cell, request.Level)
+                        : KnockdownTarget.Channels(new DensityProbe(cell, Knockdown.DefaultSettings).ChannelLabels, request.Level);
+                    return Knockdown.Run(cell, targets, request.Level, cancel: token);
+                }), cancel);
+                var rows = (request.Readout is { } name ? report.Ranked(name) : report.AllRanked())
+                    .Select(c => new KnockdownRow(c.Readout, c.Unit, c.Target, c.Kind.ToString().ToLowerInvariant(), c.Intact, c.KnockedDown, c.Change, c.RelativeChange, c.Lost)).ToArray();
+                return TypedResults.Ok(new KnockdownResponse(report.Level, rows, report.Failures, ResearchCaution.Text));
+            })
+            .WithName("Knockdown")
+            .WithSummary("Knocks down each channel entry (or each gene of a model built from expression) to a level and ranks every read-out's change against the intact model.")
+            .ProducesProblem(400).ProducesProblem(503);
+
+        api.MapPost("/sensitivity", async Task<Ok<SensitivityResponse>> (SensitivityRequest request, ModelRunner runner, SimulationGate gate, CancellationToken cancel) =>
+            {
+                var cell = runner.Compile(request.ReadModel()).Model;
+                var settings = SensitivitySettings.Default with { StepLn = request.StepLn ?? SensitivitySettings.Default.StepLn };
+                var m = await gate.RunAsync(token => Library(() => Sensitivity.Run(cell, settings, cancel: token)), cancel);
+                return TypedResults.Ok(new SensitivityResponse(m.Channels, m.Columns.Select(c => c.Readout).ToArray(), m.Columns.Select(c => c.EntryUnit).ToArray(),
+                    m.Columns.Select(c => c.Kind == ElasticityKind.LogRatio ? "log-ratio" : "per-log-density").ToArray(), m.Columns.Select(c => c.Quantisation).ToArray(),
+                    m.Values, m.StepLn, m.Notes, ResearchCaution.Text));
+            })
+            .WithName("Sensitivity")
+            .WithSummary("Sensitivity of every read-out to every channel density (central differences in ln density) as heat-map data; potentials are per unit ln density, the rest log ratios.")
+            .ProducesProblem(400).ProducesProblem(503);
+
+        api.MapPost("/fit", async Task<Ok<FitResponse>> (FitRequest request, ModelRunner runner, SimulationGate gate, CancellationToken cancel) =>
+            {
+                var doc = request.ReadModel();
+                var cell = runner.Compile(doc).Model;
+                if (request.Targets is not { Count: > 0 } given) throw new UserInputException("targets: give at least one {readout, value, unit?, scale?}.");
+                var targets = Library(() => given.Select((t, i) =>
+                {
+                    try { return FitTargetReader.ParseTyped(FormattableString.Invariant($"{t.Readout}={t.Value:R}{t.Unit}"), t.Scale); }
+                    catch (ArgumentException e) { throw new ArgumentException($"targets[{i}]: {e.Message}"); }
+                }).ToArray());
+                var settings = FitSettings.Default with
+                {
+                    PriorWidth = request.NoPrior ? null : request.PriorWidth ?? FitSettings.Default.PriorWidth,
+                    Starts = request.Starts,
+                    Seed = request.Seed,
+                    Optimiser = request.Optimiser switch
+                    {
+                        null or "lm" => FitOptimiser.LevenbergMarquardt,
+                        "simplex" => FitOptimiser.Simplex,
+                        var o => throw new UserInputException($"optimiser: '{o}' is not lm or simplex."),
+                    },
+                };
+                var fit = await gate.RunAsync(token => Library(() => DensityFit.Run(doc, cell, targets, settings, cancel: token)), cancel);
+                return TypedResults.Ok(new FitResponse(ModelRequest.ToElement(fit.Document), fit.Channels.Select(FitChannelRow.From).ToArray(), fit.Residuals, fit.Identifiability.SingularValues,
+                    fit.Identifiability.Directions, fit.Identifiability.DirectionPinned, fit.ObjectiveBefore, fit.ObjectiveAfter, fit.Evaluations, fit.Summary, ResearchCaution.Text));
+            })
+            .WithName("FitDensities")
+            .WithSummary("Fits relative densities to recorded read-outs under an expression prior; returns the fitted model, fold changes, residuals and which densities the data pin down.")
+            .ProducesProblem(400).ProducesProblem(503);
+        return app;
+    }
+
+    /// <summary>The library's argument errors (bad targets, a model without a derivation) are the user's to fix: 400.</summary>
+    private static T Library<T>(Func<T> work)
+    {
+        try
+        {
+            return work();
+        }
+        catch (ArgumentException e)
+        {
+            throw new UserInputException(e.Message);
+        }
+    }
+}
