@@ -11,7 +11,7 @@ public class DensityFitTests
     private static readonly string[] Readouts =
         ["rheobase", "resting_potential", "input_resistance", "adaptation_ratio", "spike_half_width", "fi_gain", "after_hyperpolarisation", "spike_peak"];
 
-    private static FitTarget[] TargetsOf(Cell.CellModel truth, IEnumerable<string> names)
+    private static FitTarget[] TargetsOf(ExprModel.Core.Cell.CellModel truth, IEnumerable<string> names)
     {
         var measured = ReadoutValues.From(Features.Measure(new CompiledCell(truth), SensitivitySettings.TightReadouts));
         return names.Select(n => FitTarget.WithDefaultScale(n, measured[n] ?? throw new InvalidOperationException(n + " undefined"))).ToArray();
