@@ -23,8 +23,12 @@ public sealed class PredictedVersusRecordedTests : IDisposable
     {
         var predictions = new Dictionary<string, CellPrediction>
         {
-            ["a1"] = Predict("a1", -69, 90), ["a2"] = Predict("a2", -65, 100), ["a3"] = Predict("a3", -70, 95), ["a4"] = Predict("a4", -71, 120),
-            ["b1"] = Predict("b1", -58, 60), ["b2"] = Predict("b2", -63, null),
+            ["a1"] = Predict("a1", -69, 90),
+            ["a2"] = Predict("a2", -65, 100),
+            ["a3"] = Predict("a3", -70, 95),
+            ["a4"] = Predict("a4", -71, 120),
+            ["b1"] = Predict("b1", -58, 60),
+            ["b2"] = Predict("b2", -63, null),
         };
         var r = PredictedVersusRecorded.Compare(Features(), predictions, c => Group[c], ModelPer.Cell);
 
