@@ -53,6 +53,7 @@ app.MapCatalogApi();
 app.MapSimulationApi();
 app.MapModelsApi();
 app.MapBuildApi();
+app.MapCompareApi();
 app.MapStaticAssets();
 app.MapRazorComponents<App>().AddInteractiveServerRenderMode();
 
