@@ -18,6 +18,7 @@ public static class CliApp
         foreach (var c in ModelCommands.Create(ctx)) root.Subcommands.Add(c);
         foreach (var c in ExpressionCommands.Create(ctx)) root.Subcommands.Add(c);
         foreach (var c in WhatIfCommands.Create(ctx)) root.Subcommands.Add(c);
+        root.Subcommands.Add(CompareCommand.Create(ctx));
         var parse = root.Parse(args);
         if (parse.Errors.Count > 0)
         {

@@ -54,6 +54,7 @@ app.MapSimulationApi();
 app.MapModelsApi();
 app.MapBuildApi();
 app.MapWhatIfApi();
+app.MapCompareApi();
 app.MapStaticAssets();
 app.MapRazorComponents<App>().AddInteractiveServerRenderMode();
 

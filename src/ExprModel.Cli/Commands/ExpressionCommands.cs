@@ -14,8 +14,13 @@ namespace ExprModel.Cli.Commands;
 /// <summary>exprmodel build | batch | merge: from an expression table to models and read-outs.</summary>
 public static class ExpressionCommands
 {
-    private sealed class Inputs
+    internal sealed class Inputs(string defaultShrink = "none")
     {
+        public readonly Option<string> Shrink = new("--shrink")
+        {
+            Description = "Per-cell models: none (each cell's own counts) or group (empirical-Bayes gamma-Poisson shrinkage towards the cell's group).",
+            DefaultValueFactory = _ => defaultShrink,
+        };
         public readonly Option<string> Expression = new("--expression") { Description = "Expression table: CSV/TSV (optionally .gz), Matrix Market directory or .mtx, or .h5ad.", Required = true };
         public readonly Option<string?> Metadata = new("--metadata") { Description = "Cell metadata table (cell id column plus group labels)." };
         public readonly Option<string?> GroupBy = new("--group-by") { Description = "Metadata column holding the group labels." };
@@ -34,7 +39,7 @@ public static class ExpressionCommands
 
         public void AddTo(Command c)
         {
-            foreach (var o in new Option[] { Expression, Metadata, GroupBy, Unit, Log, Orientation, ReferenceGroup, Exponent, NoClamp, CapacitancePf, Temperature, Exclude, Repoint, Weight, Db })
+            foreach (var o in new Option[] { Expression, Metadata, GroupBy, Unit, Log, Orientation, ReferenceGroup, Exponent, NoClamp, CapacitancePf, Temperature, Exclude, Repoint, Weight, Shrink, Db })
                 c.Options.Add(o);
         }
 
@@ -69,6 +74,22 @@ public static class ExpressionCommands
                 TemperatureC = p.GetValue(Temperature),
             };
             return (data, report, rule);
+        }
+
+        public ShrinkageMode ShrinkMode(ParseResult p) => p.GetValue(Shrink) switch
+        {
+            "none" => ShrinkageMode.None,
+            "group" => ShrinkageMode.Group,
+            var o => throw new CliException($"--shrink: '{o}' is not none or group."),
+        };
+
+        /// <summary>The per-cell estimates the --shrink option asks for (null for none); its note goes to standard error.</summary>
+        public PerCellShrinkage? Shrinkage(ParseResult p, CliContext ctx, ExpressionDataset data, MappingReport report)
+        {
+            if (ShrinkMode(p) == ShrinkageMode.None) return null;
+            var s = data.Shrink(report);
+            ctx.Error.WriteLine($"note: {s.Note}");
+            return s;
         }
 
         private List<GeneOverride> Overrides(ParseResult p)
@@ -158,7 +179,7 @@ public static class ExpressionCommands
             var (data, report, rule) = inputs.Load(p, ctx);
             PrintReport(ctx, data, report);
             var target = p.GetValue(group) is { } g ? ModelTarget.ForGroup(g) : ModelTarget.ForCell(p.GetValue(cell)!);
-            var built = data.Build(report, rule, target);
+            var built = data.Build(report, rule, target, target.CellId is null ? null : inputs.Shrinkage(p, ctx, data, report));
             foreach (var d in built.Densities)
                 ctx.Error.WriteLine($"density {d.EntryId,-20} {d.DensityMsPerCm2,10:G4} mS/cm2 = {d.TypicalMsPerCm2:G4} x ({d.Expression:G4} / {d.Reference:G4})^{rule.Exponent:G3}{(d.Clamped ? " [clamped]" : "")}");
             foreach (var wn in built.Warnings) ctx.Error.WriteLine($"warning: {wn}");
@@ -194,9 +215,10 @@ public static class ExpressionCommands
             var (index, count) = ParseShard(p.GetValue(shard));
             int from = (int)((long)items.Count * (index - 1) / count), to = (int)((long)items.Count * index / count);
             var progress = new Progress(ctx.Error, to - from);
-            var results = BatchReadouts.Run(table, report, data.Catalog, rule, items, groups, from, to, progress.Report);
+            var shrink = p.GetValue(per) == "cell" ? inputs.Shrinkage(p, ctx, data, report) : null;
+            var results = BatchReadouts.Run(table, report, data.Catalog, rule, items, groups, from, to, progress.Report, default, shrink);
             progress.Finish();
-            var csv = BatchTable.Create(results, [ResearchCaution.Text, $"source: {table.Source}; shard {index}/{count} of {items.Count} items"]);
+            var csv = BatchTable.Create(results, [ResearchCaution.Text, $"source: {table.Source}; shard {index}/{count} of {items.Count} items{(shrink is null ? "" : "; " + shrink.Note)}"]);
             ctx.Emit(csv.ToString(), p.GetValue(output));
             return 0;
         });
@@ -268,7 +290,7 @@ public static class ExpressionCommands
     }
 
     /// <summary>A progress bar on standard error (a line per 10 % when it is not a terminal).</summary>
-    private sealed class Progress(TextWriter w, int total)
+    internal sealed class Progress(TextWriter w, int total)
     {
         private readonly Lock _gate = new();
         private int _lastDecile = -1;

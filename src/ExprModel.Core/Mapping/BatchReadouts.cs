@@ -17,7 +17,8 @@ public static class BatchReadouts
     public static readonly double[] StandardStepsPa = [100, 200, 400];
 
     public static IReadOnlyList<BatchRow> Run(ExpressionTable table, MappingReport report, MappingCatalog catalog, DensityRule rule,
-        IReadOnlyList<ModelTarget> targets, CellGroups? groups, int from, int to, Action<int>? progress = null, CancellationToken cancel = default)
+        IReadOnlyList<ModelTarget> targets, CellGroups? groups, int from, int to, Action<int>? progress = null, CancellationToken cancel = default,
+        PerCellShrinkage? shrinkage = null)
     {
         var rows = new BatchRow[to - from];
         int done = 0;
@@ -28,7 +29,7 @@ public static class BatchReadouts
             int cells = t.Group is { } g && groups is not null && groups.Members.TryGetValue(g, out var m) ? m.Length : 1;
             try
             {
-                var built = ExpressionModelBuilder.Build(table, report, catalog, rule, t, groups);
+                var built = shrinkage?.Build(catalog, rule, t, groups) ?? ExpressionModelBuilder.Build(table, report, catalog, rule, t, groups);
                 var cell = new CompiledCell(built.Document.ToCellModel((id, _) => catalog.Entry(id)!));
                 var geo = cell.Model.Geometry;
                 var settings = ReadoutSettings.Batch with { ExtraStepsUaPerCm2 = StandardStepsPa.Select(geo.PicoampsToDensity).ToArray() };

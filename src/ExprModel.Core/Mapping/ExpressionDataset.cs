@@ -57,9 +57,13 @@ public sealed class ExpressionDataset
     public MappingReport Map(IReadOnlyList<GeneOverride>? overrides = null) => ExpressionMapping.Map(Table, Catalog, overrides);
 
     /// <summary>Builds the model of one group (the mean of its cells) or one cell.</summary>
+    /// <param name="shrinkage">Per-cell estimates from <see cref="Shrink"/> for a cell's model; null builds from the cell's raw values.</param>
     /// <exception cref="ArgumentException">An unknown group or cell, or a rule that cannot be applied (names which).</exception>
-    public BuiltModel Build(MappingReport report, DensityRule rule, ModelTarget target) =>
-        ExpressionModelBuilder.Build(Table, report, Catalog, rule, target, Groups);
+    public BuiltModel Build(MappingReport report, DensityRule rule, ModelTarget target, PerCellShrinkage? shrinkage = null) =>
+        shrinkage?.Build(Catalog, rule, target, Groups) ?? ExpressionModelBuilder.Build(Table, report, Catalog, rule, target, Groups);
+
+    /// <summary>Per-cell expression shrunk towards each cell's group (<see cref="PerCellShrinkage"/>) for this mapping.</summary>
+    public PerCellShrinkage Shrink(MappingReport report) => new(Table, report, Groups);
 
     /// <summary>The targets a user can build: every group, or every cell when there is no grouping.</summary>
     public IReadOnlyList<ModelTarget> Targets => Groups is not null ? GroupTargets(Groups) : CellTargets;

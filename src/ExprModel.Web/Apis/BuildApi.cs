@@ -144,13 +144,13 @@ public static class BuildApi
     }
 
     /// <summary>A text field; an empty field counts as absent, as a browser form sends it.</summary>
-    private static string? Text(MultipartForm form, string field) => form.Part(field)?.Text.Trim() is { Length: > 0 } t ? t : null;
+    internal static string? Text(MultipartForm form, string field) => form.Part(field)?.Text.Trim() is { Length: > 0 } t ? t : null;
 
-    private static double? Number(MultipartForm form, string field) => Text(form, field) is not { } t ? null
+    internal static double? Number(MultipartForm form, string field) => Text(form, field) is not { } t ? null
         : double.TryParse(t, NumberStyles.Float, CultureInfo.InvariantCulture, out var v) && double.IsFinite(v) ? v
         : throw new UserInputException($"{field}: '{t}' is not a number (use a decimal point, e.g. 1.5).");
 
-    private static bool? Flag(MultipartForm form, string field) => Text(form, field)?.ToLowerInvariant() switch
+    internal static bool? Flag(MultipartForm form, string field) => Text(form, field)?.ToLowerInvariant() switch
     {
         null => null,
         "true" or "on" or "1" => true,
@@ -158,7 +158,7 @@ public static class BuildApi
         var t => throw new UserInputException($"{field}: '{t}' is not true or false."),
     };
 
-    private static List<GeneOverride>? Overrides(MultipartForm form)
+    internal static List<GeneOverride>? Overrides(MultipartForm form)
     {
         if (Text(form, "overrides") is not { } json) return null;
         try { return JsonSerializer.Deserialize<List<GeneOverride>>(json, SnapshotService.Json); }

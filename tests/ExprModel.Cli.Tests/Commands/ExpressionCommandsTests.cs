@@ -30,6 +30,19 @@ public class ExpressionCommandsTests
     }
 
     [Fact]
+    public void BuildOfOneCellShrinksItsCountsTowardsItsGroupOnlyWhenAsked()
+    {
+        var plain = CliRunner.Run(["build", .. Inputs, "--cell", "FH1001"]);
+        Assert.True(plain.Exit == 0, plain.Err);
+        Assert.DoesNotContain("expressionEstimate", plain.Out);
+        var shrunk = CliRunner.Run(["build", .. Inputs, "--cell", "FH1001", "--shrink", "group"]);
+        Assert.True(shrunk.Exit == 0, shrunk.Err);
+        Assert.Contains("note: per-cell expression shrunk towards each cell's group", shrunk.Err);
+        var doc = ModelDocument.Parse(shrunk.Out, "stdout");
+        Assert.Equal("group T1-fast", doc.Derivation!["expressionEstimate"]!["priorOver"]!.GetValue<string>());
+    }
+
+    [Fact]
     public void BuildRefusesAnUnknownGroupNamingTheKnownOnes()
     {
         var (exit, _, err) = CliRunner.Run(["build", .. Inputs, "--group", "T9-none"]);

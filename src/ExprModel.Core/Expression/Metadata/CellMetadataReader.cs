@@ -23,10 +23,10 @@ public sealed record CellMetadataOptions
 public static partial class CellMetadataReader
 {
     [GeneratedRegex(@"^(cell|cells|cell[ _.]?(id|name|barcode)|barcode|barcodes|id|sample|sample[ _.]?id|obs[ _.]?names?)$", RegexOptions.IgnoreCase)]
-    private static partial Regex CellIdHeader();
+    internal static partial Regex CellIdHeader();
 
     /// <summary>Spellings of "no value" accepted in a numeric column.</summary>
-    private static readonly HashSet<string> Missing = new(StringComparer.OrdinalIgnoreCase) { "", "NA", "N/A", "NaN", "null", "none", "-" };
+    internal static readonly HashSet<string> Missing = new(StringComparer.OrdinalIgnoreCase) { "", "NA", "N/A", "NaN", "null", "none", "-" };
 
     public static CellMetadata Read(string path, CellMetadataOptions? options = null)
     {

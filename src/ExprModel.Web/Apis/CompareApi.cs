@@ -1,0 +1,190 @@
+using System.Text;
+using System.Text.Json;
+using ExprModel.Core.Confrontation;
+using ExprModel.Core.Export;
+using ExprModel.Core.Expression;
+using ExprModel.Core.Mapping;
+using ExprModel.Core.Models;
+using ExprModel.Data.Catalog;
+using ExprModel.Web.Hosting;
+using ExprModel.Web.Simulation;
+using ExprModel.Web.Workspace;
+using Microsoft.AspNetCore.Http.HttpResults;
+using Microsoft.Extensions.Options;
+
+namespace ExprModel.Web.Apis;
+
+/// <summary>A compare request: a build request's inputs, the recorded table (default: the metadata) and how to compare.</summary>
+public sealed record CompareRequest
+{
+    public string? Expression { get; init; }
+    public string ExpressionName { get; init; } = "expression.csv";
+    public string? Metadata { get; init; }
+    public string MetadataName { get; init; } = "metadata.csv";
+    public string? GroupBy { get; init; }
+    /// <summary>Per-cell recorded values with units in the headers, as CSV or TSV text; absent = the metadata table.</summary>
+    public string? Recorded { get; init; }
+    public string RecordedName { get; init; } = "recorded.csv";
+    /// <summary>Cell id column of the recorded table; absent = a column named like a cell id.</summary>
+    public string? RecordedCellColumn { get; init; }
+    /// <summary>Column (header, or header without its unit) to read-out name, or to "none".</summary>
+    public IReadOnlyDictionary<string, string>? Map { get; init; }
+    /// <summary>cell (each recorded cell's own model) or group (its group's model).</summary>
+    public string Per { get; init; } = "cell";
+    /// <summary>Per-cell models: group (gamma-Poisson shrinkage towards the cell's group) or none.</summary>
+    public string Shrink { get; init; } = "group";
+    public string? Orientation { get; init; }
+    public string? Unit { get; init; }
+    public IReadOnlyList<GeneOverride>? Overrides { get; init; }
+    public string? ReferenceGroup { get; init; }
+    public double Exponent { get; init; } = 1;
+    public bool Clamp { get; init; } = true;
+    public double CapacitancePf { get; init; } = 50;
+    public double TemperatureC { get; init; } = 34;
+}
+
+/// <param name="Csv">The same table as <c>exprmodel compare</c> writes (research caution first).</param>
+public sealed record CompareResponse(IReadOnlyList<ReadoutMatch> Matches, string Per, string ExpressionNote, IReadOnlyList<ReadoutAgreement> Agreement,
+    IReadOnlyList<GroupComparison> Groups, IReadOnlyList<CellComparison> Cells, IReadOnlyList<string> Warnings, string Csv, string Caution);
+
+/// <summary>
+/// Predicted against recorded read-outs (the library's <see cref="PredictedVersusRecorded"/>, as <c>exprmodel compare</c>
+/// uses it): a JSON body with the tables as text, or a multipart form with the tables as file parts, like the build API.
+/// </summary>
+public static class CompareApi
+{
+    private static readonly string[] FormFields =
+        ["expression", "metadata", "recorded", "groupBy", "recordedCellColumn", "map", "per", "shrink", "orientation", "unit", "referenceGroup", "exponent", "clamp",
+         "capacitancePf", "temperatureC", "overrides"];
+
+    private sealed record CompareUpload(CompareRequest Options, byte[] Expression, string ExpressionName, byte[]? Metadata, string MetadataName, byte[]? Recorded, string RecordedName);
+
+    public static IEndpointRouteBuilder MapCompareApi(this IEndpointRouteBuilder app)
+    {
+        var api = app.MapGroup("/api").WithTags("Compare");
+        api.MapPost("/compare", async Task<Ok<CompareResponse>> (HttpRequest request, IOptions<WebOptions> options, ChannelCatalog catalog, SimulationGate gate, CancellationToken cancel) =>
+            {
+                long limit = options.Value.MaxUploadBytes;
+                var upload = MultipartForm.IsMultipart(request)
+                    ? FromForm(await MultipartForm.ReadAsync(request, limit, "The upload (expression, metadata and recorded files)", cancel))
+                    : FromJson(await BoundedUpload.ReadAsync(request.Body, request.ContentLength, limit, "The request (expression and recorded tables)", cancel));
+                return TypedResults.Ok(await Compare(catalog, gate, upload, cancel));
+            })
+            .WithName("CompareWithRecordings")
+            .WithSummary("Builds a model per recorded cell (or per group), measures it and compares every read-out the recorded table has (columns matched by "
+                + "header name and unit): per cell the difference and a z-score against the group's recorded SD, per group, and across cells Pearson and "
+                + "Spearman r, mean absolute error and bias. JSON body (tables as text) or multipart form (expression, metadata, recorded as file parts).")
+            .Accepts<CompareRequest>("application/json", "multipart/form-data")
+            .ProducesProblem(400).ProducesProblem(413).ProducesProblem(503)
+            // As the build API: no cookies or sign-in, so a cross-site request gains nothing; the form is read by hand.
+            .DisableAntiforgery();
+        return app;
+    }
+
+    private static async Task<CompareResponse> Compare(ChannelCatalog catalog, SimulationGate gate, CompareUpload upload, CancellationToken cancel)
+    {
+        var body = upload.Options;
+        var per = body.Per switch { "cell" => ModelPer.Cell, "group" => ModelPer.Group, var p => throw new UserInputException($"per: '{p}' is not cell or group.") };
+        var shrink = body.Shrink switch { "group" => ShrinkageMode.Group, "none" => ShrinkageMode.None, var s => throw new UserInputException($"shrink: '{s}' is not group or none.") };
+        if (upload.Metadata is not null && body.GroupBy is null) throw new UserInputException("groupBy: needed with metadata (its group column).");
+        if (per == ModelPer.Group && upload.Metadata is null) throw new UserInputException("per: group needs metadata and groupBy.");
+        var (recordedBytes, recordedName) = upload.Recorded is not null ? (upload.Recorded, upload.RecordedName)
+            : upload.Metadata is not null ? (upload.Metadata, upload.MetadataName)
+            : throw new UserInputException("recorded: required (per-cell recorded values with units in the headers), unless the metadata holds them.");
+
+        var session = ExpressionSession.Read(catalog, upload.Expression, upload.ExpressionName, upload.Metadata, upload.MetadataName, new ReadChoices(body.Orientation, body.Unit, body.GroupBy));
+        var report = session.Map(body.Overrides ?? []);
+        var rule = DensityRule.RelativeTo(body.ReferenceGroup) with
+        {
+            Exponent = body.Exponent,
+            ClampToPlausibleRange = body.Clamp,
+            CapacitancePf = body.CapacitancePf,
+            TemperatureC = body.TemperatureC,
+        };
+        if (rule.Problem() is { } problem) throw new UserInputException("density rule: " + problem);
+        var features = ReadRecorded(session.Dataset, recordedBytes, recordedName, body);
+        var result = await gate.RunAsync(c =>
+        {
+            try { return PredictedVersusRecorded.Run(session.Dataset, report, rule, features, per, shrink, null, c); }
+            catch (ArgumentException e) { throw new UserInputException(e.Message); }
+        }, cancel);
+        var csv = ConfrontationTable.Create(result, ConfrontationTable.Comments(result, ResearchCaution.Text, upload.ExpressionName)).ToString();
+        return new CompareResponse(features.Matches, body.Per, result.ExpressionNote, result.Agreement, result.Groups, result.Cells,
+            [.. session.Dataset.Notes, .. features.Notes], csv, ResearchCaution.Text);
+    }
+
+    /// <summary>Reads and matches the recorded table from a private temporary file (the reader works on files); errors name the upload.</summary>
+    private static RecordedFeatures ReadRecorded(ExpressionDataset data, byte[] bytes, string name, CompareRequest body)
+    {
+        var dir = Directory.CreateTempSubdirectory("exprmodel-recorded-");
+        try
+        {
+            var path = Path.Combine(dir.FullName, "recorded.csv");
+            File.WriteAllBytes(path, bytes);
+            var cells = data.Table.CellIds.ToHashSet(StringComparer.Ordinal);
+            var features = ReadoutMatcher.Match(RecordedFeatureReader.Read(path, body.RecordedCellColumn, Path.GetFileName(name)), cells.Contains, body.Map);
+            if (features.Readouts.Count == 0)
+                throw new UserInputException($"{features.Source}: no column matched a read-out ({string.Join("; ", features.Matches.Select(m => $"'{m.Header}': {m.Reason}"))}).");
+            return features;
+        }
+        catch (ExpressionFormatException e) { throw new UserInputException(e.Message); }
+        catch (ArgumentException e) { throw new UserInputException(e.Message); }
+        finally
+        {
+            try { dir.Delete(recursive: true); } catch (IOException) { }
+        }
+    }
+
+    private static CompareUpload FromJson(byte[] bytes)
+    {
+        CompareRequest? body;
+        try { body = JsonSerializer.Deserialize<CompareRequest>(bytes, SnapshotService.Json); }
+        catch (JsonException e)
+        {
+            throw new UserInputException($"request body: line {(e.LineNumber ?? 0) + 1}, position {(e.BytePositionInLine ?? 0) + 1}: not valid JSON for a compare request.");
+        }
+        if (body?.Expression is not { Length: > 0 } table) throw new UserInputException("expression: required (the table as CSV or TSV text).");
+        static byte[]? Bytes(string? text) => text is null ? null : Encoding.UTF8.GetBytes(text);
+        return new CompareUpload(body, Encoding.UTF8.GetBytes(table), body.ExpressionName, Bytes(body.Metadata), body.MetadataName, Bytes(body.Recorded), body.RecordedName);
+    }
+
+    private static CompareUpload FromForm(MultipartForm form)
+    {
+        foreach (var name in form.Names)
+            if (!FormFields.Contains(name, StringComparer.OrdinalIgnoreCase))
+                throw new UserInputException($"{name}: not a field of this endpoint (fields: {string.Join(", ", FormFields)}).");
+        if (form.Part("expression") is not { Bytes.Length: > 0 } expression)
+            throw new UserInputException("expression: required, as a file part (CSV or TSV, optionally gzip, or AnnData .h5ad).");
+        var (metadata, recorded) = (form.Part("metadata"), form.Part("recorded"));
+        var d = new CompareRequest();
+        var options = new CompareRequest
+        {
+            GroupBy = BuildApi.Text(form, "groupBy"),
+            RecordedCellColumn = BuildApi.Text(form, "recordedCellColumn"),
+            Map = Map(form),
+            Per = BuildApi.Text(form, "per") ?? d.Per,
+            Shrink = BuildApi.Text(form, "shrink") ?? d.Shrink,
+            Orientation = BuildApi.Text(form, "orientation"),
+            Unit = BuildApi.Text(form, "unit"),
+            ReferenceGroup = BuildApi.Text(form, "referenceGroup"),
+            Exponent = BuildApi.Number(form, "exponent") ?? d.Exponent,
+            Clamp = BuildApi.Flag(form, "clamp") ?? d.Clamp,
+            CapacitancePf = BuildApi.Number(form, "capacitancePf") ?? d.CapacitancePf,
+            TemperatureC = BuildApi.Number(form, "temperatureC") ?? d.TemperatureC,
+            Overrides = BuildApi.Overrides(form),
+        };
+        return new CompareUpload(options, expression.Bytes, expression.FileName ?? d.ExpressionName, metadata?.Bytes, metadata?.FileName ?? d.MetadataName,
+            recorded?.Bytes, recorded?.FileName ?? d.RecordedName);
+    }
+
+    private static Dictionary<string, string>? Map(MultipartForm form)
+    {
+        if (BuildApi.Text(form, "map") is not { } json) return null;
+        try { return JsonSerializer.Deserialize<Dictionary<string, string>>(json, SnapshotService.Json); }
+        catch (JsonException e)
+        {
+            throw new UserInputException($"map: line {(e.LineNumber ?? 0) + 1}, position {(e.BytePositionInLine ?? 0) + 1}: not a JSON object of column: read-out pairs, "
+                + "e.g. {\"Vrest (mV)\": \"resting_potential\"}.");
+        }
+    }
+}
