@@ -73,8 +73,17 @@ internal sealed class NwbAccess(string file)
         {
             H5DataTypeClass.FloatingPoint when t.Size == 4 => double.Parse(Guard(path, () => a.Read<float>()).ToString("R", CultureInfo.InvariantCulture), CultureInfo.InvariantCulture),
             H5DataTypeClass.FloatingPoint => Guard(path, () => a.Read<double>()),
-            H5DataTypeClass.FixedPoint when t.FixedPoint.IsSigned => Guard(path, () => a.Read<long>()),
-            H5DataTypeClass.FixedPoint => Guard(path, () => a.Read<ulong>()),
+            H5DataTypeClass.FixedPoint => (t.Size, t.FixedPoint.IsSigned) switch
+            {
+                (1, true) => Guard(path, () => a.Read<sbyte>()),
+                (1, false) => Guard(path, () => a.Read<byte>()),
+                (2, true) => Guard(path, () => a.Read<short>()),
+                (2, false) => Guard(path, () => a.Read<ushort>()),
+                (4, true) => Guard(path, () => a.Read<int>()),
+                (4, false) => Guard(path, () => a.Read<uint>()),
+                (8, true) => Guard(path, () => a.Read<long>()),
+                _ => Guard(path, () => a.Read<ulong>()),
+            },
             _ => throw Error(path, $"attribute '{name}' holds {t.Class} values, not a number."),
         };
     }

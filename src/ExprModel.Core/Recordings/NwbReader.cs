@@ -102,7 +102,9 @@ public static class NwbReader
         if (!double.IsFinite(offset)) throw at.Error(dataPath, $"attribute '{Offset}' is {offset}; it must be finite.");
         double dt = SampleIntervalMs(at, g, path);
         var values = at.Samples(data, dataPath);
-        for (int i = 0; i < values.Length; i++) values[i] = (values[i] * conversion + offset) * factor;
+        // One factor from stored values to mV or pA (0.001 x 1000 is exactly 1 in doubles, so mV stored as mV stay exact).
+        double scale = conversion * factor, shift = offset * factor;
+        for (int i = 0; i < values.Length; i++) values[i] = values[i] * scale + shift;
         return new Series(path, (int)number, dt, values, CellKey(at, g, path));
     }
 
