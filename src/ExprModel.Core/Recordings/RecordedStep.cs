@@ -9,8 +9,11 @@ public sealed record RecordedStep(double OnsetMs, double OffsetMs, double Amplit
 {
     public double DurationMs => OffsetMs - OnsetMs;
 
-    /// <summary>Smallest departure from the holding current that counts as a step (pA): below a digitiser's step on a 1-10 nA range.</summary>
-    public const double MinimumAmplitudePa = 0.5;
+    /// <summary>
+    /// Smallest departure from the holding current that counts as a step (pA): far below any step a protocol programs (the
+    /// smallest model cells have rheobases of a few pA), far above the rounding of a stored command.
+    /// </summary>
+    public const double MinimumAmplitudePa = 0.01;
 
     /// <summary>
     /// Finds the step in a command current sampled every <paramref name="dtMs"/>: the holding current is the mean of the
