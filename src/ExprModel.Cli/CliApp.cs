@@ -17,6 +17,7 @@ public static class CliApp
         root.Subcommands.Add(CatalogCommands.Create(ctx));
         foreach (var c in ModelCommands.Create(ctx)) root.Subcommands.Add(c);
         foreach (var c in ExpressionCommands.Create(ctx)) root.Subcommands.Add(c);
+        root.Subcommands.Add(RecordingCommands.Create(ctx));
         var parse = root.Parse(args);
         if (parse.Errors.Count > 0)
         {

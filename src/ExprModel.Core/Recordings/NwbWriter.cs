@@ -12,6 +12,13 @@ public sealed record NwbSession
     /// <summary>Session start; also written as the file's creation date so the same input gives the same bytes.</summary>
     public DateTimeOffset StartTime { get; init; } = new(2026, 1, 1, 9, 0, 0, TimeSpan.Zero);
     public required IReadOnlyList<RecordedCell> Cells { get; init; }
+    /// <summary>
+    /// Store voltage as 16-bit integers in steps of this many mV (as a 16-bit digitiser does; the conversion attribute
+    /// carries the step), instead of float32. Null keeps float32.
+    /// </summary>
+    public double? VoltageResolutionMv { get; init; }
+    /// <summary>Chunk and deflate-compress the data (a command current is mostly constant and shrinks to almost nothing).</summary>
+    public bool Compress { get; init; }
 }
 
 /// <summary>
@@ -65,8 +72,8 @@ public static class NwbWriter
             foreach (var sweep in cell.Sweeps)
             {
                 string name = session.Cells.Count == 1 ? $"sweep_{sweep.SweepNumber:D3}" : $"cell_{c}_sweep_{sweep.SweepNumber:D3}";
-                acquisition[name] = Series(NwbSchema.CurrentClampSeries, sweep.VoltageMv, "volts", 1e-3f, sweep, electrodePath, Id($"/acquisition/{name}"));
-                presentation[name] = Series(NwbSchema.CurrentClampStimulusSeries, sweep.FullCommandPa ?? sweep.CurrentPa, "amperes", 1e-12f, sweep, electrodePath, Id($"/stimulus/presentation/{name}"));
+                acquisition[name] = Series(NwbSchema.CurrentClampSeries, VoltageData(sweep.VoltageMv, session), sweep, electrodePath, Id($"/acquisition/{name}"));
+                presentation[name] = Series(NwbSchema.CurrentClampStimulusSeries, Data(Floats(sweep.FullCommandPa ?? sweep.CurrentPa), "amperes", 1e-12f, session.Compress), sweep, electrodePath, Id($"/stimulus/presentation/{name}"));
             }
         }
         var file = new H5File
@@ -93,19 +100,39 @@ public static class NwbWriter
         return file;
     }
 
-    private static H5Group Series(string type, double[] values, string unit, float conversion, RecordedSweep sweep, string electrodePath, string objectId)
+    private static H5Dataset VoltageData(double[] mv, NwbSession session)
+    {
+        if (session.VoltageResolutionMv is not { } step) return Data(Floats(mv), "volts", 1e-3f, session.Compress);
+        var counts = new short[mv.Length];
+        for (int i = 0; i < mv.Length; i++)
+        {
+            double c = Math.Round(mv[i] / step);
+            if (c is < short.MinValue or > short.MaxValue) throw new ArgumentException($"{mv[i]} mV does not fit 16 bits in steps of {step} mV.");
+            counts[i] = (short)c;
+        }
+        return Data(counts, "volts", (float)(step * 1e-3), session.Compress);
+    }
+
+    private static float[] Floats(double[] values)
     {
         var data = new float[values.Length];
         for (int i = 0; i < values.Length; i++) data[i] = (float)values[i];
+        return data;
+    }
+
+    private static H5Dataset Data<T>(T[] values, string unit, float conversion, bool compress)
+    {
+        var attributes = new Dictionary<string, object> { [NwbSchema.Unit] = unit, [NwbSchema.Conversion] = conversion, [NwbSchema.Offset] = 0f, [NwbSchema.Resolution] = -1f };
+        return compress
+            ? new H5Dataset(values, chunks: [(uint)Math.Min(values.Length, 1 << 16)], datasetCreation: new PureHDF.VOL.Native.H5DatasetCreation { Filters = [PureHDF.Filters.DeflateFilter.Id] }) { Attributes = attributes }
+            : new H5Dataset(values) { Attributes = attributes };
+    }
+
+    private static H5Group Series(string type, H5Dataset data, RecordedSweep sweep, string electrodePath, string objectId)
+    {
         return Typed(new H5Group
         {
-            [NwbSchema.Data] = new H5Dataset(data)
-            {
-                Attributes = new()
-                {
-                    [NwbSchema.Unit] = unit, [NwbSchema.Conversion] = conversion, [NwbSchema.Offset] = 0f, [NwbSchema.Resolution] = -1f,
-                },
-            },
+            [NwbSchema.Data] = data,
             [NwbSchema.StartingTime] = new H5Dataset(0.0) { Attributes = new() { [NwbSchema.Rate] = (float)sweep.SamplingRateHz, [NwbSchema.Unit] = "seconds" } },
             [NwbSchema.Electrode] = new H5SoftLink(electrodePath),
             Attributes = new()
