@@ -19,6 +19,7 @@ public static class CliApp
         foreach (var c in ExpressionCommands.Create(ctx)) root.Subcommands.Add(c);
         foreach (var c in WhatIfCommands.Create(ctx)) root.Subcommands.Add(c);
         root.Subcommands.Add(CompareCommand.Create(ctx));
+        root.Subcommands.Add(RecordingCommands.Create(ctx));
         var parse = root.Parse(args);
         if (parse.Errors.Count > 0)
         {

@@ -176,7 +176,7 @@ public static class DemoDataGenerator
     private static string F(double v) => v.ToString("F1", CultureInfo.InvariantCulture);
 
     /// <summary>Seeded draws. System.Random with a seed gives the same sequence on every run; the distributions are written out here.</summary>
-    private sealed class Draws(int seed)
+    internal sealed class Draws(int seed)
     {
         private readonly Random _random = new(seed);
 
