@@ -160,7 +160,7 @@ public static class ExpressionCommands
             var target = p.GetValue(group) is { } g ? ModelTarget.ForGroup(g) : ModelTarget.ForCell(p.GetValue(cell)!);
             var built = data.Build(report, rule, target);
             foreach (var d in built.Densities)
-                ctx.Error.WriteLine($"density {d.EntryId,-20} {d.DensityMsPerCm2,10:G4} mS/cm2 = {d.TypicalMsPerCm2:G4} x ({d.Expression:G4} / {d.Reference:G4})^{rule.Exponent:G3}{(d.Clamped ? " [clamped]" : "")}");
+                ctx.Error.WriteLine($"density {d.EntryId,-20} {rule.Formula(d)}");
             foreach (var wn in built.Warnings) ctx.Error.WriteLine($"warning: {wn}");
             var doc = built.Document with { Caution = ResearchCaution.Text };
             ctx.Emit(doc.ToJson() + "\n", p.GetValue(output));

@@ -1,3 +1,6 @@
+using System.Globalization;
+using ExprModel.Core.Kinetics;
+
 namespace ExprModel.Core.Mapping;
 
 /// <summary>What an entry's expression is divided by.</summary>
@@ -33,6 +36,53 @@ public sealed record DensityRule
         ? new DensityRule()
         : new DensityRule { Reference = DensityReference.ReferenceGroup, ReferenceGroup = referenceGroup };
 
+    /// <summary>The rule in words, as a built model's derivation records it.</summary>
+    public const string Method = "density = typical * (expression / reference)^exponent, clamped to the entry's plausible range";
+
+    /// <summary>What the expression is divided by, in words ("dataset median" or "group X").</summary>
+    public string ReferenceLabel => Reference == DensityReference.ReferenceGroup ? $"group {ReferenceGroup}" : "dataset median";
+
+    /// <summary>
+    /// The density of one entry: its expression averaged over <paramref name="targetCells"/>, divided by the reference
+    /// (the mean over <paramref name="referenceCells"/> when the rule names a group, else the median over every cell, or
+    /// the mean when the median is zero), raised to <see cref="Exponent"/>, times the entry's typical density, and
+    /// clamped to its plausible range when <see cref="ClampToPlausibleRange"/> is set.
+    /// </summary>
+    /// <param name="expressionByCell">The entry's expression in every cell of the table (weighted sum of its genes).</param>
+    /// <param name="referenceCells">The reference group's cells; required when <see cref="Reference"/> is a group.</param>
+    public EntryDensity DensityFor(ChannelEntry entry, double[] expressionByCell, int[] targetCells, int[]? referenceCells)
+    {
+        if (Reference == DensityReference.ReferenceGroup && referenceCells is null)
+            throw new ArgumentException($"The density rule refers to group '{ReferenceGroup}' but no cells of it were given.", nameof(referenceCells));
+        double expression = targetCells.Average(i => expressionByCell[i]);
+        double reference;
+        if (Reference == DensityReference.ReferenceGroup) reference = referenceCells!.Average(i => expressionByCell[i]);
+        else
+        {
+            reference = Median(expressionByCell);
+            if (reference <= 0) reference = expressionByCell.Average();
+        }
+        double ratio = reference > 0 ? expression / reference : 0;
+        double raw = entry.TypicalDensityMsPerCm2 * Math.Pow(ratio, Exponent);
+        if (!(ClampToPlausibleRange && raw > 0 && (raw < entry.MinDensityMsPerCm2 || raw > entry.MaxDensityMsPerCm2)))
+            return new EntryDensity(expression, reference, ratio, raw, raw, false, null);
+        double clamped = Math.Clamp(raw, entry.MinDensityMsPerCm2, entry.MaxDensityMsPerCm2);
+        return new EntryDensity(expression, reference, ratio, raw, clamped, true,
+            $"{entry.Id}: predicted {raw:G3} mS/cm2 lies outside the plausible range {entry.MinDensityMsPerCm2:G3}-{entry.MaxDensityMsPerCm2:G3}; clamped to {clamped:G3}.");
+    }
+
+    /// <summary>One density's derivation as a line of text: "  12.5 mS/cm2 = 10 x (4.2 / 3.1)^1 [clamped]".</summary>
+    public string Formula(DensityDerivation d) => string.Create(CultureInfo.InvariantCulture,
+        $"{d.DensityMsPerCm2,10:G4} mS/cm2 = {d.TypicalMsPerCm2:G4} x ({d.Expression:G4} / {d.Reference:G4})^{Exponent:G3}{(d.Clamped ? " [clamped]" : "")}");
+
+    private static double Median(double[] v)
+    {
+        if (v.Length == 0) return 0;
+        var s = (double[])v.Clone();
+        Array.Sort(s);
+        return s.Length % 2 == 1 ? s[s.Length / 2] : 0.5 * (s[s.Length / 2 - 1] + s[s.Length / 2]);
+    }
+
     public string? Problem()
     {
         if (!(Exponent > 0) || Exponent > 4) return "exponent must lie in (0, 4]";
@@ -42,6 +92,14 @@ public sealed record DensityRule
         return null;
     }
 }
+
+/// <summary>One entry's density under a <see cref="DensityRule"/> and how it came about.</summary>
+/// <param name="Expression">The entry's expression averaged over the target cells.</param>
+/// <param name="Reference">What the expression is divided by.</param>
+/// <param name="RawMsPerCm2">The density before clamping.</param>
+/// <param name="DensityMsPerCm2">The density after clamping (the model's).</param>
+/// <param name="ClampNote">Why the density was clamped (for the user to read), or null.</param>
+public sealed record EntryDensity(double Expression, double Reference, double Ratio, double RawMsPerCm2, double DensityMsPerCm2, bool Clamped, string? ClampNote);
 
 /// <summary>A user's change to the default mapping of one gene.</summary>
 /// <param name="Gene">Official symbol or table identifier.</param>
