@@ -25,8 +25,8 @@ public static class ExpressionCommands
         public readonly Option<string?> ReferenceGroup = new("--reference-group") { Description = "Scale densities relative to this group's mean instead of the dataset median." };
         public readonly Option<double> Exponent = new("--exponent") { Description = "Exponent of the density rule (1 = linear).", DefaultValueFactory = _ => 1.0 };
         public readonly Option<bool> NoClamp = new("--no-clamp") { Description = "Do not clamp densities to each entry's plausible range." };
-        public readonly Option<double> CapacitancePf = new("--capacitance") { Description = "Whole-cell capacitance of the model (pF).", DefaultValueFactory = _ => 50 };
-        public readonly Option<double> Temperature = new("--temperature") { Description = "Model temperature (C).", DefaultValueFactory = _ => 34 };
+        public readonly Option<double> CapacitancePf = new("--capacitance") { Description = "Whole-cell capacitance of the model (pF).", DefaultValueFactory = _ => ModelDefaults.CapacitancePf };
+        public readonly Option<double> Temperature = new("--temperature") { Description = "Model temperature (C).", DefaultValueFactory = _ => ModelDefaults.TemperatureC };
         public readonly Option<string[]> Exclude = new("--exclude") { Description = "Leave this gene out (repeatable).", AllowMultipleArgumentsPerToken = false };
         public readonly Option<string[]> Repoint = new("--repoint") { Description = "GENE=ENTRY[:WEIGHT]: feed this gene to another entry only (repeatable)." };
         public readonly Option<string[]> Weight = new("--weight") { Description = "GENE=WEIGHT: change the weight of a gene's links (repeatable)." };

@@ -23,13 +23,13 @@ public sealed record DensityRule
     public string? ReferenceGroup { get; init; }
     public double Exponent { get; init; } = 1.0;
     public bool ClampToPlausibleRange { get; init; } = true;
-    /// <summary>Cell size of the built model: whole-cell capacitance (pF). 50 pF is a small cortical neuron (from memory).</summary>
-    public double CapacitancePf { get; init; } = 50;
-    /// <summary>Temperature of the built model; 34 C is a common slice-recording temperature (common practice).</summary>
-    public double TemperatureC { get; init; } = 34;
+    /// <summary>Cell size of the built model: whole-cell capacitance (pF).</summary>
+    public double CapacitancePf { get; init; } = ModelDefaults.CapacitancePf;
+    /// <summary>Temperature of the built model (C).</summary>
+    public double TemperatureC { get; init; } = ModelDefaults.TemperatureC;
     /// <summary>Passive leak added to every model (entry "leak"), mS/cm2 and reversal mV.</summary>
-    public double LeakMsPerCm2 { get; init; } = 0.05;
-    public double LeakReversalMv { get; init; } = -70;
+    public double LeakMsPerCm2 { get; init; } = ModelDefaults.LeakMsPerCm2;
+    public double LeakReversalMv { get; init; } = ModelDefaults.LeakReversalMv;
 
     /// <summary>The rule relative to the dataset median (null), or to the mean of the named reference group.</summary>
     public static DensityRule RelativeTo(string? referenceGroup) => referenceGroup is null
