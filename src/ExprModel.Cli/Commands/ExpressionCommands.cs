@@ -19,7 +19,7 @@ public static class ExpressionCommands
         public readonly Option<string> Expression = new("--expression") { Description = "Expression table: CSV/TSV (optionally .gz), Matrix Market directory or .mtx, or .h5ad.", Required = true };
         public readonly Option<string?> Metadata = new("--metadata") { Description = "Cell metadata table (cell id column plus group labels)." };
         public readonly Option<string?> GroupBy = new("--group-by") { Description = "Metadata column holding the group labels." };
-        public readonly Option<string?> Unit = new("--unit") { Description = "Values are counts, cpm, tpm, fpkm (default: detected, with a note)." };
+        public readonly Option<string?> Unit = new("--unit") { Description = "Values are counts, cpm, tpm, fpkm (rpkm) or log-transformed (ln1p unless --log says otherwise) (default: detected, with a note)." };
         public readonly Option<string?> Log = new("--log") { Description = "Values are log-transformed: ln1p, log2p1 or log10p1 (undone before use)." };
         public readonly Option<string?> Orientation = new("--orientation") { Description = "genes-as-rows or cells-as-rows (default: detected, with a note)." };
         public readonly Option<string?> ReferenceGroup = new("--reference-group") { Description = "Scale densities relative to this group's mean instead of the dataset median." };
@@ -43,18 +43,7 @@ public static class ExpressionCommands
         {
             ctx.DatabasePath = p.GetValue(Db);
             var catalog = ctx.Catalog.ForMapping();
-            var options = new ExpressionReadOptions
-            {
-                Unit = p.GetValue(Unit) is { } u ? ParseUnit(u) : null,
-                LogTransform = p.GetValue(Log) is { } l ? ParseLog(l) : LogTransform.None,
-                Orientation = p.GetValue(Orientation) switch
-                {
-                    null => null,
-                    "genes-as-rows" => TableOrientation.GenesAsRows,
-                    "cells-as-rows" => TableOrientation.CellsAsRows,
-                    var o => throw new CliException($"--orientation: '{o}' is not genes-as-rows or cells-as-rows."),
-                },
-            };
+            var options = ReadOptionsParser.Parse(p.GetValue(Orientation), p.GetValue(Unit), p.GetValue(Log), "--");
             string? metadata = p.GetValue(Metadata), column = p.GetValue(GroupBy);
             if (metadata is not null && column is null) throw new CliException("--metadata needs --group-by COLUMN.");
             if (metadata is null && column is not null) throw new CliException("--group-by needs --metadata FILE.");
@@ -95,23 +84,6 @@ public static class ExpressionCommands
 
     private static double ParseNumber(string s, string what) =>
         double.TryParse(s, NumberStyles.Float, CultureInfo.InvariantCulture, out var v) && double.IsFinite(v) ? v : throw new CliException($"{what}: '{s}' is not a number.");
-
-    private static ExpressionUnit ParseUnit(string u) => u.ToLowerInvariant() switch
-    {
-        "counts" or "count" or "raw" => ExpressionUnit.Counts,
-        "cpm" => ExpressionUnit.Cpm,
-        "tpm" => ExpressionUnit.Tpm,
-        "fpkm" or "rpkm" => ExpressionUnit.Fpkm,
-        _ => throw new CliException($"--unit: '{u}' is not counts, cpm, tpm or fpkm (use --log for log-transformed values)."),
-    };
-
-    private static LogTransform ParseLog(string l) => l.ToLowerInvariant() switch
-    {
-        "ln1p" => LogTransform.NaturalLog1p,
-        "log2p1" => LogTransform.Log2Plus1,
-        "log10p1" => LogTransform.Log10Plus1,
-        _ => throw new CliException($"--log: '{l}' is not ln1p, log2p1 or log10p1."),
-    };
 
     public static IEnumerable<Command> Create(CliContext ctx)
     {

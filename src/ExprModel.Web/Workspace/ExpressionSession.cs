@@ -8,26 +8,12 @@ namespace ExprModel.Web.Workspace;
 /// <summary>What the user chose on the Load page; null or empty means "detect".</summary>
 public sealed record ReadChoices(string? Orientation, string? Unit, string? GroupColumn)
 {
-    public ExpressionReadOptions ToOptions() => new()
+    /// <summary>The library's reading of the choices (<see cref="ReadOptionsParser"/>); a bad one is the user's to fix.</summary>
+    public ExpressionReadOptions ToOptions()
     {
-        Orientation = Orientation switch
-        {
-            null or "" => null,
-            "genes-as-rows" => TableOrientation.GenesAsRows,
-            "cells-as-rows" => TableOrientation.CellsAsRows,
-            var o => throw new UserInputException($"orientation: '{o}' is not genes-as-rows or cells-as-rows."),
-        },
-        Unit = Unit switch
-        {
-            null or "" or "log-transformed" => null,
-            "counts" => ExpressionUnit.Counts,
-            "cpm" => ExpressionUnit.Cpm,
-            "tpm" => ExpressionUnit.Tpm,
-            "fpkm" => ExpressionUnit.Fpkm,
-            var u => throw new UserInputException($"unit: '{u}' is not counts, cpm, tpm or fpkm."),
-        },
-        LogTransform = Unit == "log-transformed" ? LogTransform.NaturalLog1p : LogTransform.None,
-    };
+        try { return ReadOptionsParser.Parse(Orientation, Unit); }
+        catch (ArgumentException e) { throw new UserInputException(e.Message); }
+    }
 }
 
 /// <summary>
