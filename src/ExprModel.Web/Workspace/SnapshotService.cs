@@ -17,11 +17,7 @@ public sealed record OpenedSnapshot(Snapshot Stored, ModelDocument Model, Snapsh
     IReadOnlyList<ReadoutRow> SavedReadouts, IReadOnlyList<ReadoutRow> RerunReadouts)
 {
     /// <summary>True when the re-run reproduces every saved read-out exactly (same bits).</summary>
-    public bool Reproduced => SavedReadouts.Count == RerunReadouts.Count &&
-        SavedReadouts.Zip(RerunReadouts).All(p => p.First.Name == p.Second.Name && Same(p.First.Value, p.Second.Value));
-
-    private static bool Same(double? a, double? b) =>
-        a is null ? b is null : b is not null && (a.Value.Equals(b.Value) || (double.IsNaN(a.Value) && double.IsNaN(b.Value)));
+    public bool Reproduced => ReadoutComparison.Identical(SavedReadouts, RerunReadouts);
 }
 
 /// <summary>Saves and opens shared snapshots: pins the model, takes its read-outs, and writes it in one transaction.</summary>
