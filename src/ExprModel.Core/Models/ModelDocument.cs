@@ -60,7 +60,7 @@ public sealed record ModelDocument
         }
         catch (JsonException e)
         {
-            throw new ModelFileException($"{fileName}: line {(e.LineNumber ?? 0) + 1}, position {(e.BytePositionInLine ?? 0) + 1}, at {e.Path}: {Clean(e.Message)}");
+            throw new ModelFileException(JsonErrorMessage.For(e, fileName));
         }
         if (doc is null) throw new ModelFileException($"{fileName}: the file holds no model (null).");
         if (doc.Format != FormatTag) throw new ModelFileException($"{fileName}: field 'format' must be \"{FormatTag}\" (got \"{doc.Format}\").");
@@ -75,12 +75,6 @@ public sealed record ModelDocument
             if (!(c.RelativeDensity >= 0) || double.IsInfinity(c.RelativeDensity)) throw new ModelFileException($"{fileName}: channels[{i}] ({c.Entry}).relativeDensity must be a number >= 0.");
         }
         return doc;
-    }
-
-    private static string Clean(string m)
-    {
-        int i = m.IndexOf(" Path:", StringComparison.Ordinal);
-        return i > 0 ? m[..i] : m;
     }
 
     public string ToJson() => JsonSerializer.Serialize(this, JsonOptions);

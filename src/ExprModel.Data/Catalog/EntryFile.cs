@@ -1,6 +1,7 @@
 using System.Text.Json;
 using System.Text.Json.Serialization;
 using ExprModel.Core.Kinetics;
+using ExprModel.Core.Models;
 
 namespace ExprModel.Data.Catalog;
 
@@ -34,10 +35,7 @@ public static class EntryFile
         }
         catch (JsonException e)
         {
-            string msg = e.Message;
-            int cut = msg.IndexOf(" Path:", StringComparison.Ordinal);
-            if (cut > 0) msg = msg[..cut];
-            throw new CatalogException($"{fileName}: line {(e.LineNumber ?? 0) + 1}, at {e.Path}: {msg}");
+            throw new CatalogException(JsonErrorMessage.For(e, fileName));
         }
         if (dto is null) throw new CatalogException($"{fileName}: empty entry file.");
         try

@@ -110,7 +110,7 @@ public static class BuildApi
         try { body = JsonSerializer.Deserialize<BuildRequest>(bytes, SnapshotService.Json); }
         catch (JsonException e)
         {
-            throw new UserInputException($"request body: line {(e.LineNumber ?? 0) + 1}, position {(e.BytePositionInLine ?? 0) + 1}: not valid JSON for a build request.");
+            throw new UserInputException(JsonErrorMessage.For(e, "request body", "not valid JSON for a build request."));
         }
         if (body?.Expression is not { Length: > 0 } table) throw new UserInputException("expression: required (the table as CSV or TSV text).");
         return new BuildUpload(body, Encoding.UTF8.GetBytes(table), body.ExpressionName, body.Metadata is null ? null : Encoding.UTF8.GetBytes(body.Metadata), body.MetadataName);
@@ -164,8 +164,8 @@ public static class BuildApi
         try { return JsonSerializer.Deserialize<List<GeneOverride>>(json, SnapshotService.Json); }
         catch (JsonException e)
         {
-            throw new UserInputException($"overrides: line {(e.LineNumber ?? 0) + 1}, position {(e.BytePositionInLine ?? 0) + 1}: not a JSON array of "
-                + "{\"gene\": ..., \"exclude\": true} / {\"gene\": ..., \"entryId\": ..., \"weight\": ...} objects.");
+            throw new UserInputException(JsonErrorMessage.For(e, "overrides",
+                "not a JSON array of {\"gene\": ..., \"exclude\": true} / {\"gene\": ..., \"entryId\": ..., \"weight\": ...} objects."));
         }
     }
 }

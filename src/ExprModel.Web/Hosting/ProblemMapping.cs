@@ -1,4 +1,5 @@
 using System.Text.Json;
+using ExprModel.Core.Models;
 using ExprModel.Web.Simulation;
 using Microsoft.AspNetCore.Diagnostics;
 using Microsoft.AspNetCore.Mvc;
@@ -16,7 +17,7 @@ public sealed class ProblemMapping(IProblemDetailsService problems) : IException
             UploadTooLargeException e => (413, "Upload too large", e.Message),
             SimulationTimeoutException e => (503, "Simulation time limit reached", e.Message),
             BadHttpRequestException { InnerException: JsonException j } => (400, "The request body is not valid JSON for this endpoint",
-                $"line {(j.LineNumber ?? 0) + 1}, position {(j.BytePositionInLine ?? 0) + 1}, at {j.Path ?? "$"}: {FirstSentence(j.Message)}"),
+                JsonErrorMessage.For(j)),
             BadHttpRequestException e => (e.StatusCode, "Bad request", e.Message),
             OperationCanceledException when http.RequestAborted.IsCancellationRequested => (499, "Request cancelled", "The client closed the request."),
             _ => (0, "", ""),
@@ -29,12 +30,6 @@ public sealed class ProblemMapping(IProblemDetailsService problems) : IException
             Exception = exception,
             ProblemDetails = new ProblemDetails { Status = status, Title = title, Detail = detail, Instance = http.Request.Path },
         });
-    }
-
-    private static string FirstSentence(string m)
-    {
-        int i = m.IndexOf(" Path:", StringComparison.Ordinal);
-        return i > 0 ? m[..i] : m;
     }
 }
 
