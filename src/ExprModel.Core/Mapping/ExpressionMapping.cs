@@ -1,3 +1,4 @@
+using ExprModel.Core.Expression.Identifiers;
 using ExprModel.Core.Expression;
 using ExprModel.Core.Kinetics;
 
@@ -81,10 +82,11 @@ public sealed class MappingReport
 /// <summary>Maps the genes of an expression table to catalog entries (DOMAIN.md, "Expression to conductance").</summary>
 public static class ExpressionMapping
 {
-    public static MappingReport Map(ExpressionTable table, MappingCatalog catalog, IReadOnlyList<GeneOverride>? overrides = null)
+    /// <param name="resolver">The resolver that filtered the table's genes while reading (its resolutions are reused); null makes one from the catalog.</param>
+    public static MappingReport Map(ExpressionTable table, MappingCatalog catalog, IReadOnlyList<GeneOverride>? overrides = null, GeneResolver? resolver = null)
     {
         overrides ??= [];
-        var resolver = new GeneResolver(catalog.Links, catalog.Statuses, catalog.Identifiers);
+        resolver ??= new GeneResolver(catalog.Links, catalog.Statuses, catalog.Identifiers);
         var problems = new List<string>();
         var resolved = new List<ResolvedGene>();
         foreach (var id in table.Genes.Keys)

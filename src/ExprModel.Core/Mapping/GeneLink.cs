@@ -1,7 +1,6 @@
-namespace ExprModel.Core.Mapping;
+using ExprModel.Core.Expression.Identifiers;
 
-/// <summary>Species whose gene symbols the catalog links (case conventions differ: human upper case, rodent capitalised).</summary>
-public enum Species { Human, Mouse, Rat }
+namespace ExprModel.Core.Mapping;
 
 /// <summary>
 /// A gene feeding a catalog entry with a weight (one gene may feed several entries, e.g. a sodium gene feeding

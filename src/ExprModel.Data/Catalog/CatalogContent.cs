@@ -1,5 +1,6 @@
 using System.Globalization;
 using System.Text.Json;
+using ExprModel.Core.Expression.Identifiers;
 using ExprModel.Core.Kinetics;
 using ExprModel.Core.Mapping;
 using ExprModel.Core.Models;

@@ -1,6 +1,7 @@
 using System.Globalization;
 using System.Text;
 using System.Text.RegularExpressions;
+using ExprModel.Core.Expression.Identifiers;
 using ExprModel.Core.Mapping;
 
 namespace ExprModel.Data.Catalog;

@@ -1,5 +1,4 @@
 using System.Text.RegularExpressions;
-using ExprModel.Core.Mapping;
 
 namespace ExprModel.Core.Expression.Identifiers;
 
