@@ -3,15 +3,6 @@ using ExprModel.Core.Kinetics;
 
 namespace ExprModel.Core.Mapping;
 
-/// <summary>What an entry's expression is divided by.</summary>
-public enum DensityReference
-{
-    /// <summary>The median over every cell of the dataset (falls back to the mean when the median is zero).</summary>
-    DatasetMedian,
-    /// <summary>The mean over the cells of a user-chosen reference group.</summary>
-    ReferenceGroup,
-}
-
 /// <summary>
 /// The explicit, adjustable rule from expression to maximal conductance (DOMAIN.md, "Expression to conductance"):
 /// density = typical published density * (expression / reference)^Exponent, clamped to the entry's plausible range.
@@ -92,18 +83,3 @@ public sealed record DensityRule
         return null;
     }
 }
-
-/// <summary>One entry's density under a <see cref="DensityRule"/> and how it came about.</summary>
-/// <param name="Expression">The entry's expression averaged over the target cells.</param>
-/// <param name="Reference">What the expression is divided by.</param>
-/// <param name="RawMsPerCm2">The density before clamping.</param>
-/// <param name="DensityMsPerCm2">The density after clamping (the model's).</param>
-/// <param name="ClampNote">Why the density was clamped (for the user to read), or null.</param>
-public sealed record EntryDensity(double Expression, double Reference, double Ratio, double RawMsPerCm2, double DensityMsPerCm2, bool Clamped, string? ClampNote);
-
-/// <summary>A user's change to the default mapping of one gene.</summary>
-/// <param name="Gene">Official symbol or table identifier.</param>
-/// <param name="Exclude">Drop the gene from every entry.</param>
-/// <param name="EntryId">Re-point the gene to this entry only (replacing its default links).</param>
-/// <param name="Weight">New weight for the gene's links (or for the re-pointed link).</param>
-public sealed record GeneOverride(string Gene, bool Exclude = false, string? EntryId = null, double? Weight = null);

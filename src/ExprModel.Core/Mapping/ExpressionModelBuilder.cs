@@ -5,23 +5,6 @@ using ExprModel.Core.Models;
 
 namespace ExprModel.Core.Mapping;
 
-/// <summary>Which cells a model stands for: one group (mean of its cells) or one cell.</summary>
-public sealed record ModelTarget(string? Group, string? CellId)
-{
-    public static ModelTarget ForGroup(string g) => new(g, null);
-    public static ModelTarget ForCell(string c) => new(null, c);
-    public string Label => Group is not null ? $"group {Group}" : $"cell {CellId}";
-}
-
-/// <summary>Why one entry's density is what it is.</summary>
-public sealed record DensityDerivation(string EntryId, int Version, double Expression, double Reference, double Ratio, double TypicalMsPerCm2,
-    double RawMsPerCm2, double DensityMsPerCm2, bool Clamped, IReadOnlyList<GeneContribution> Genes);
-
-public sealed record GeneContribution(string Gene, double Weight, double Expression);
-
-/// <summary>A model built from expression, with the derivation of every density and the warnings a user should read.</summary>
-public sealed record BuiltModel(ModelDocument Document, IReadOnlyList<DensityDerivation> Densities, IReadOnlyList<string> Warnings);
-
 /// <summary>Turns an expression table, its mapping and a density rule into a model file that records how it was made.</summary>
 public static class ExpressionModelBuilder
 {

@@ -4,9 +4,6 @@ using ExprModel.Core.Expression.Identifiers;
 
 namespace ExprModel.Core.Mapping;
 
-/// <summary>How a table identifier was matched to an official gene symbol.</summary>
-public sealed record ResolvedGene(string TableId, string Symbol, Species Species, string How);
-
 /// <summary>
 /// Resolves the identifiers of an expression table to official symbols: exact symbols with their species' case
 /// convention (HGNC upper case for human; capitalised for mouse and rat), aliases and Ensembl gene ids (version

@@ -276,6 +276,3 @@ public static class EntryFile
         public static PublishedDto From(PublishedValue p) => new() { Quantity = p.Quantity, Gate = p.Gate, Value = p.Value, AtMv = p.AtMv, Tolerance = p.Tolerance, Where = p.Where };
     }
 }
-
-/// <summary>A catalog source or database problem, naming the file and the entry or parameter at fault.</summary>
-public sealed class CatalogException(string message) : Exception(message);
