@@ -1,6 +1,7 @@
 using System.CommandLine;
 using System.Globalization;
 using ExprModel.Core.Export;
+using ExprModel.Core.Expression.Identifiers;
 using ExprModel.Core.Kinetics;
 using ExprModel.Data.Catalog;
 

@@ -24,14 +24,14 @@ public static class ExpressionCommands
         public readonly Option<string> Expression = new("--expression") { Description = "Expression table: CSV/TSV (optionally .gz), Matrix Market directory or .mtx, or .h5ad.", Required = true };
         public readonly Option<string?> Metadata = new("--metadata") { Description = "Cell metadata table (cell id column plus group labels)." };
         public readonly Option<string?> GroupBy = new("--group-by") { Description = "Metadata column holding the group labels." };
-        public readonly Option<string?> Unit = new("--unit") { Description = "Values are counts, cpm, tpm, fpkm (default: detected, with a note)." };
+        public readonly Option<string?> Unit = new("--unit") { Description = "Values are counts, cpm, tpm, fpkm (rpkm) or log-transformed (ln1p unless --log says otherwise) (default: detected, with a note)." };
         public readonly Option<string?> Log = new("--log") { Description = "Values are log-transformed: ln1p, log2p1 or log10p1 (undone before use)." };
         public readonly Option<string?> Orientation = new("--orientation") { Description = "genes-as-rows or cells-as-rows (default: detected, with a note)." };
         public readonly Option<string?> ReferenceGroup = new("--reference-group") { Description = "Scale densities relative to this group's mean instead of the dataset median." };
         public readonly Option<double> Exponent = new("--exponent") { Description = "Exponent of the density rule (1 = linear).", DefaultValueFactory = _ => 1.0 };
         public readonly Option<bool> NoClamp = new("--no-clamp") { Description = "Do not clamp densities to each entry's plausible range." };
-        public readonly Option<double> CapacitancePf = new("--capacitance") { Description = "Whole-cell capacitance of the model (pF).", DefaultValueFactory = _ => 50 };
-        public readonly Option<double> Temperature = new("--temperature") { Description = "Model temperature (C).", DefaultValueFactory = _ => 34 };
+        public readonly Option<double> CapacitancePf = new("--capacitance") { Description = "Whole-cell capacitance of the model (pF).", DefaultValueFactory = _ => ModelDefaults.CapacitancePf };
+        public readonly Option<double> Temperature = new("--temperature") { Description = "Model temperature (C).", DefaultValueFactory = _ => ModelDefaults.TemperatureC };
         public readonly Option<string[]> Exclude = new("--exclude") { Description = "Leave this gene out (repeatable).", AllowMultipleArgumentsPerToken = false };
         public readonly Option<string[]> Repoint = new("--repoint") { Description = "GENE=ENTRY[:WEIGHT]: feed this gene to another entry only (repeatable)." };
         public readonly Option<string[]> Weight = new("--weight") { Description = "GENE=WEIGHT: change the weight of a gene's links (repeatable)." };
@@ -48,18 +48,7 @@ public static class ExpressionCommands
         {
             ctx.DatabasePath = p.GetValue(Db);
             var catalog = ctx.Catalog.ForMapping();
-            var options = new ExpressionReadOptions
-            {
-                Unit = p.GetValue(Unit) is { } u ? ParseUnit(u) : null,
-                LogTransform = p.GetValue(Log) is { } l ? ParseLog(l) : LogTransform.None,
-                Orientation = p.GetValue(Orientation) switch
-                {
-                    null => null,
-                    "genes-as-rows" => TableOrientation.GenesAsRows,
-                    "cells-as-rows" => TableOrientation.CellsAsRows,
-                    var o => throw new CliException($"--orientation: '{o}' is not genes-as-rows or cells-as-rows."),
-                },
-            };
+            var options = ReadOptionsParser.Parse(p.GetValue(Orientation), p.GetValue(Unit), p.GetValue(Log), "--");
             string? metadata = p.GetValue(Metadata), column = p.GetValue(GroupBy);
             if (metadata is not null && column is null) throw new CliException("--metadata needs --group-by COLUMN.");
             if (metadata is null && column is not null) throw new CliException("--group-by needs --metadata FILE.");
@@ -117,23 +106,6 @@ public static class ExpressionCommands
     private static double ParseNumber(string s, string what) =>
         double.TryParse(s, NumberStyles.Float, CultureInfo.InvariantCulture, out var v) && double.IsFinite(v) ? v : throw new CliException($"{what}: '{s}' is not a number.");
 
-    private static ExpressionUnit ParseUnit(string u) => u.ToLowerInvariant() switch
-    {
-        "counts" or "count" or "raw" => ExpressionUnit.Counts,
-        "cpm" => ExpressionUnit.Cpm,
-        "tpm" => ExpressionUnit.Tpm,
-        "fpkm" or "rpkm" => ExpressionUnit.Fpkm,
-        _ => throw new CliException($"--unit: '{u}' is not counts, cpm, tpm or fpkm (use --log for log-transformed values)."),
-    };
-
-    private static LogTransform ParseLog(string l) => l.ToLowerInvariant() switch
-    {
-        "ln1p" => LogTransform.NaturalLog1p,
-        "log2p1" => LogTransform.Log2Plus1,
-        "log10p1" => LogTransform.Log10Plus1,
-        _ => throw new CliException($"--log: '{l}' is not ln1p, log2p1 or log10p1."),
-    };
-
     public static IEnumerable<Command> Create(CliContext ctx)
     {
         yield return Build(ctx);
@@ -181,7 +153,7 @@ public static class ExpressionCommands
             var target = p.GetValue(group) is { } g ? ModelTarget.ForGroup(g) : ModelTarget.ForCell(p.GetValue(cell)!);
             var built = data.Build(report, rule, target, target.CellId is null ? null : inputs.Shrinkage(p, ctx, data, report));
             foreach (var d in built.Densities)
-                ctx.Error.WriteLine($"density {d.EntryId,-20} {d.DensityMsPerCm2,10:G4} mS/cm2 = {d.TypicalMsPerCm2:G4} x ({d.Expression:G4} / {d.Reference:G4})^{rule.Exponent:G3}{(d.Clamped ? " [clamped]" : "")}");
+                ctx.Error.WriteLine($"density {d.EntryId,-20} {rule.Formula(d)}");
             foreach (var wn in built.Warnings) ctx.Error.WriteLine($"warning: {wn}");
             var doc = built.Document with { Caution = ResearchCaution.Text };
             ctx.Emit(doc.ToJson() + "\n", p.GetValue(output));

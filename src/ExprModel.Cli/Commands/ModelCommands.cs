@@ -60,8 +60,6 @@ public static class ModelCommands
 
     internal static readonly JsonSerializerOptions Json = new() { WriteIndented = true, Encoder = System.Text.Encodings.Web.JavaScriptEncoder.UnsafeRelaxedJsonEscaping };
 
-    private static string[] Caution(ModelDocument doc) => [ResearchCaution.Text, $"model: {doc.Name}"];
-
     private static Command Simulate(CliContext ctx)
     {
         var c = new Command("simulate", "Current-clamp simulation; writes the trace as CSV.");
@@ -101,20 +99,7 @@ public static class ModelCommands
             double t = p.GetValue(total) ?? dl + du + 100;
             bool withCurrents = p.GetValue(currents);
             var trace = Simulator.Run(cell, stim, t, new SimulationSettings { DtMs = p.GetValue(common.Dt), RecordEvery = Math.Max(1, p.GetValue(every)), RecordCurrents = withCurrents });
-            var header = new List<string> { "time_ms", "voltage_mv", "stimulus_" + CurrentUnits.Suffix(unit) };
-            if (withCurrents) header.AddRange(trace.ChannelCurrentsUaPerCm2.Keys.Select(k => $"current_{k}_ua_per_cm2"));
-            var csv = new CsvTable([.. Caution(doc), $"spikes: {trace.SpikeTimesMs.Count}"], header);
-            var cur = trace.ChannelCurrentsUaPerCm2.Values.ToArray();
-            for (int i = 0; i < trace.TimeMs.Length; i++)
-            {
-                var row = new object?[header.Count];
-                row[0] = Math.Round(trace.TimeMs[i], 6);
-                row[1] = trace.VoltageMv[i];
-                row[2] = CurrentUnits.FromDensity(trace.StimulusUaPerCm2[i], unit, g);
-                for (int k = 0; k < cur.Length; k++) row[3 + k] = cur[k][i];
-                csv.Row(row);
-            }
-            ctx.Emit(csv.ToString(), p.GetValue(common.Out));
+            ctx.Emit(TraceCsv.Write(doc.Name, trace, unit, g), p.GetValue(common.Out));
             return 0;
         });
         return c;
@@ -181,10 +166,7 @@ public static class ModelCommands
                 return 0;
             }
             if (p.GetValue(format) != "csv") throw new CliException("--format must be csv or json.");
-            var csv = new CsvTable(Caution(doc), [col, "spike_count", "whole_step_rate_hz", "first_isi_rate_hz", "late_rate_hz", "first_spike_latency_ms"]);
-            foreach (var q in curve)
-                csv.Row(CurrentUnits.FromDensity(q.CurrentUaPerCm2, unit, g), q.SpikesInStep, q.WholeStepRateHz, q.FirstIsiRateHz, q.LateRateHz, q.FirstSpikeLatencyMs);
-            ctx.Emit(csv.ToString(), p.GetValue(common.Out));
+            ctx.Emit(FiCsv.Write(doc.Name, curve, unit, g), p.GetValue(common.Out));
             return 0;
         });
         return c;
@@ -231,7 +213,7 @@ public static class ModelCommands
             string suffix = CurrentUnits.Suffix(unit);
             var header = new List<string> { "command_mv" };
             foreach (var id in ids) header.AddRange([$"peak_{id}_{suffix}", $"steady_{id}_{suffix}", $"activation_{id}"]);
-            var csv = new CsvTable(Caution(doc), header);
+            var csv = CsvTable.ForModel(doc.Name, header);
             foreach (var f in family)
             {
                 var row = new List<object?> { f.CommandMv };

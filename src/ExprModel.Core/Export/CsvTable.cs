@@ -1,5 +1,6 @@
 using System.Globalization;
 using System.Text;
+using ExprModel.Core.Models;
 
 namespace ExprModel.Core.Export;
 
@@ -19,6 +20,10 @@ public sealed class CsvTable
         _columns = header.Count;
         Row(header.Select(h => (object?)h).ToArray());
     }
+
+    /// <summary>A table about one model: its first comment lines are the research-use caution and the model's name.</summary>
+    public static CsvTable ForModel(string modelName, IReadOnlyList<string> header, params string[] moreComments) =>
+        new([ResearchCaution.Text, "model: " + modelName, .. moreComments], header);
 
     public CsvTable Row(params object?[] cells)
     {

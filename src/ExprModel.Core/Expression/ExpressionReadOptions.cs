@@ -1,31 +1,5 @@
 namespace ExprModel.Core.Expression;
 
-/// <summary>A log transform the user states was applied to the table, so the reader can undo it value by value.</summary>
-public enum LogTransform
-{
-    /// <summary>No transform stated.</summary>
-    None,
-    /// <summary>ln(1 + x); undone as exp(v) - 1.</summary>
-    NaturalLog1p,
-    /// <summary>log2(1 + x); undone as 2^v - 1.</summary>
-    Log2Plus1,
-    /// <summary>log10(1 + x); undone as 10^v - 1.</summary>
-    Log10Plus1,
-}
-
-/// <summary>
-/// What to do when one gene identifier names two or more rows (or columns) of the file. Duplicates are never merged:
-/// a duplicated gene that is not kept (the filter rejects it) is only noted, since both copies still count towards
-/// library size as written; a duplicated gene that is kept is an error unless the user chooses to keep the first copy.
-/// </summary>
-public enum DuplicateGenePolicy
-{
-    /// <summary>Refuse the file, naming the identifier and both places it occurs.</summary>
-    Error,
-    /// <summary>Keep the first occurrence, ignore later ones for the kept values, and add a note.</summary>
-    KeepFirst,
-}
-
 /// <summary>How to read an expression file. Everything is optional; whatever is detected instead is reported in the table's notes.</summary>
 public sealed record ExpressionReadOptions
 {

@@ -1,23 +1,5 @@
 namespace ExprModel.Core.Expression;
 
-/// <summary>What the numbers in an expression table mean.</summary>
-public enum ExpressionUnit
-{
-    /// <summary>Raw read or UMI counts; normalised to CPM by each cell's library size.</summary>
-    Counts,
-    /// <summary>Counts per million.</summary>
-    Cpm,
-    /// <summary>Transcripts per million (accepted as given).</summary>
-    Tpm,
-    /// <summary>FPKM or RPKM (accepted as given).</summary>
-    Fpkm,
-    /// <summary>log(1 + CPM) or log2(1 + x) style values; undone before use, or refused with a reason.</summary>
-    LogTransformed,
-}
-
-/// <summary>Which axis of the file holds genes.</summary>
-public enum TableOrientation { GenesAsRows, CellsAsRows }
-
 /// <summary>
 /// An expression table reduced to what modelling needs: the kept genes' values per cell, every cell's library
 /// size (sum over all genes in the file, kept or not), the unit and how it was determined, and the orientation.
@@ -77,6 +59,3 @@ public sealed class ExpressionTable
         return r;
     }
 }
-
-/// <summary>A bad expression or metadata file: says which file, line and column (or dataset path) and what is wrong.</summary>
-public sealed class ExpressionFormatException(string message) : Exception(message);

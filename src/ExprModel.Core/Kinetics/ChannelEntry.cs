@@ -1,51 +1,5 @@
 namespace ExprModel.Core.Kinetics;
 
-/// <summary>The permeant ion that sets a channel's reversal potential.</summary>
-public enum Ion { Sodium, Potassium, Calcium, Cation, Chloride, Nonspecific }
-
-/// <summary>How a channel's driving force is computed.</summary>
-public enum ReversalRule
-{
-    /// <summary>Nernst potential of the entry's ion from the model's concentrations.</summary>
-    Nernst,
-    /// <summary>A fixed reversal potential given by the entry (or overridden by the model).</summary>
-    Fixed,
-    /// <summary>Goldman-Hodgkin-Katz flux (calcium), scaled so gbar matches an ohmic channel far below reversal.</summary>
-    GoldmanHodgkinKatz,
-}
-
-/// <summary>Whether an entry's numbers and citation were checked against the paper or recalled.</summary>
-public enum Verification { Recalled, Checked }
-
-/// <summary>Where an entry's numbers come from.</summary>
-public sealed record Citation
-{
-    public required string Authors { get; init; }
-    public required int Year { get; init; }
-    public string Title { get; init; } = "";
-    public required string Journal { get; init; }
-    public string Volume { get; init; } = "";
-    public string Pages { get; init; } = "";
-    public string Doi { get; init; } = "";
-    /// <summary>The table, figure or equations the parameters come from.</summary>
-    public string Location { get; init; } = "";
-    public Verification Verification { get; init; } = Verification.Recalled;
-
-    public string Short => $"{Authors} {Year}, {Journal} {Volume}:{Pages}".TrimEnd(':', ' ');
-}
-
-/// <summary>A value stated in the entry's source paper that the tests compare the entry against.</summary>
-public sealed record PublishedValue
-{
-    /// <summary>"half-activation" (mV), "slope" (mV), or "tau-at" (ms at <see cref="AtMv"/>).</summary>
-    public required string Quantity { get; init; }
-    public required string Gate { get; init; }
-    public required double Value { get; init; }
-    public double AtMv { get; init; }
-    public required double Tolerance { get; init; }
-    public required string Where { get; init; }
-}
-
 /// <summary>
 /// One versioned, immutable kinetic entry of the catalog. A changed entry is a new version; saved
 /// models pin (Id, Version) so they never change under a user's feet.

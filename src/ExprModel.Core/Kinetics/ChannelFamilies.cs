@@ -1,8 +1,5 @@
 namespace ExprModel.Core.Kinetics;
 
-/// <summary>A plausibility band for the half-activation (or half-inactivation) of a family's steady-state gate.</summary>
-public sealed record FamilyBand(string Family, double ActivationLowMv, double ActivationHighMv, double? InactivationLowMv = null, double? InactivationHighMv = null);
-
 /// <summary>
 /// The channel families the catalog knows and their half-activation bands for mammalian neuronal channels
 /// (common practice, from memory; wide plausibility bands, not targets). Squid-axon and other historical

@@ -1,40 +1,5 @@
 namespace ExprModel.Core.Kinetics;
 
-/// <summary>How a gate's kinetics are written in its source paper.</summary>
-public enum GateKind
-{
-    /// <summary>dx/dt = alpha(V)(1 - x) - beta(V) x.</summary>
-    AlphaBeta,
-    /// <summary>dx/dt = (x_inf(V) - x) / tau(V).</summary>
-    SteadyStateAndTau,
-    /// <summary>
-    /// Calcium-gated, computed per step from V and calcium: either x_inf = ca^n / (ca^n + Kd^n) with constant tau
-    /// (SK-type, <see cref="GateSpec.Calcium"/>), or alpha/beta rates that depend on voltage and calcium
-    /// (BK-type, <see cref="RateShape.CalciumBoundOpening"/> and <see cref="RateShape.CalciumBoundClosing"/>).
-    /// </summary>
-    Calcium,
-}
-
-/// <summary>
-/// Calcium dependence of a calcium-gated subunit (Hill form): x_inf = ca^n / (ca^n + K^n). A negative Hill
-/// coefficient writes calcium-dependent inactivation, x_inf = K^m / (K^m + ca^m) with m = -n (for m = 1 the factor
-/// K / (K + ca) of the CA1 calcium-channel models). A time constant of zero, with the gate marked instantaneous,
-/// makes the gate follow calcium at once.
-/// </summary>
-public sealed record CalciumSensitivity(double HalfActivationMm, double HillCoefficient, double TimeConstantMs)
-{
-    /// <summary>True when the gate opens as calcium rises (positive Hill coefficient), false for calcium-dependent inactivation.</summary>
-    public bool RisesWithCalcium => HillCoefficient > 0;
-
-    /// <summary>The steady state at intracellular calcium <paramref name="calciumMm"/> (mM).</summary>
-    public double SteadyStateAt(double calciumMm)
-    {
-        double m = Math.Abs(HillCoefficient);
-        double cm = Math.Pow(Math.Max(calciumMm, 0), m), km = Math.Pow(HalfActivationMm, m);
-        return RisesWithCalcium ? cm / (cm + km) : km / (km + cm);
-    }
-}
-
 /// <summary>
 /// One gating variable raised to <see cref="Power"/>. Alpha/beta gates convert to steady state and time
 /// constant by x_inf = alpha/(alpha+beta), tau = 1/(alpha+beta) (Hodgkin &amp; Huxley 1952).

@@ -4,9 +4,6 @@ using ExprModel.Core.Simulation;
 
 namespace ExprModel.Core.Mapping;
 
-/// <summary>The main read-outs of one group or cell of a batch.</summary>
-public sealed record BatchRow(int Index, string Item, int Cells, CellReadouts? Readouts, IReadOnlyList<double> RatesAtStandardStepsHz, string Warnings);
-
 /// <summary>
 /// Builds and measures a model for every group or cell: the same builder and feature extractor as everywhere, with
 /// the batch read-out settings, in parallel over the machine's cores. Used by the CLI, the web app and the benchmark.

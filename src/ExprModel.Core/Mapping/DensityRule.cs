@@ -1,13 +1,7 @@
-namespace ExprModel.Core.Mapping;
+using System.Globalization;
+using ExprModel.Core.Kinetics;
 
-/// <summary>What an entry's expression is divided by.</summary>
-public enum DensityReference
-{
-    /// <summary>The median over every cell of the dataset (falls back to the mean when the median is zero).</summary>
-    DatasetMedian,
-    /// <summary>The mean over the cells of a user-chosen reference group.</summary>
-    ReferenceGroup,
-}
+namespace ExprModel.Core.Mapping;
 
 /// <summary>
 /// The explicit, adjustable rule from expression to maximal conductance (DOMAIN.md, "Expression to conductance"):
@@ -20,18 +14,65 @@ public sealed record DensityRule
     public string? ReferenceGroup { get; init; }
     public double Exponent { get; init; } = 1.0;
     public bool ClampToPlausibleRange { get; init; } = true;
-    /// <summary>Cell size of the built model: whole-cell capacitance (pF). 50 pF is a small cortical neuron (from memory).</summary>
-    public double CapacitancePf { get; init; } = 50;
-    /// <summary>Temperature of the built model; 34 C is a common slice-recording temperature (common practice).</summary>
-    public double TemperatureC { get; init; } = 34;
+    /// <summary>Cell size of the built model: whole-cell capacitance (pF).</summary>
+    public double CapacitancePf { get; init; } = ModelDefaults.CapacitancePf;
+    /// <summary>Temperature of the built model (C).</summary>
+    public double TemperatureC { get; init; } = ModelDefaults.TemperatureC;
     /// <summary>Passive leak added to every model (entry "leak"), mS/cm2 and reversal mV.</summary>
-    public double LeakMsPerCm2 { get; init; } = 0.05;
-    public double LeakReversalMv { get; init; } = -70;
+    public double LeakMsPerCm2 { get; init; } = ModelDefaults.LeakMsPerCm2;
+    public double LeakReversalMv { get; init; } = ModelDefaults.LeakReversalMv;
 
     /// <summary>The rule relative to the dataset median (null), or to the mean of the named reference group.</summary>
     public static DensityRule RelativeTo(string? referenceGroup) => referenceGroup is null
         ? new DensityRule()
         : new DensityRule { Reference = DensityReference.ReferenceGroup, ReferenceGroup = referenceGroup };
+
+    /// <summary>The rule in words, as a built model's derivation records it.</summary>
+    public const string Method = "density = typical * (expression / reference)^exponent, clamped to the entry's plausible range";
+
+    /// <summary>What the expression is divided by, in words ("dataset median" or "group X").</summary>
+    public string ReferenceLabel => Reference == DensityReference.ReferenceGroup ? $"group {ReferenceGroup}" : "dataset median";
+
+    /// <summary>
+    /// The density of one entry: its expression averaged over <paramref name="targetCells"/>, divided by the reference
+    /// (the mean over <paramref name="referenceCells"/> when the rule names a group, else the median over every cell, or
+    /// the mean when the median is zero), raised to <see cref="Exponent"/>, times the entry's typical density, and
+    /// clamped to its plausible range when <see cref="ClampToPlausibleRange"/> is set.
+    /// </summary>
+    /// <param name="expressionByCell">The entry's expression in every cell of the table (weighted sum of its genes).</param>
+    /// <param name="referenceCells">The reference group's cells; required when <see cref="Reference"/> is a group.</param>
+    public EntryDensity DensityFor(ChannelEntry entry, double[] expressionByCell, int[] targetCells, int[]? referenceCells)
+    {
+        if (Reference == DensityReference.ReferenceGroup && referenceCells is null)
+            throw new ArgumentException($"The density rule refers to group '{ReferenceGroup}' but no cells of it were given.", nameof(referenceCells));
+        double expression = targetCells.Average(i => expressionByCell[i]);
+        double reference;
+        if (Reference == DensityReference.ReferenceGroup) reference = referenceCells!.Average(i => expressionByCell[i]);
+        else
+        {
+            reference = Median(expressionByCell);
+            if (reference <= 0) reference = expressionByCell.Average();
+        }
+        double ratio = reference > 0 ? expression / reference : 0;
+        double raw = entry.TypicalDensityMsPerCm2 * Math.Pow(ratio, Exponent);
+        if (!(ClampToPlausibleRange && raw > 0 && (raw < entry.MinDensityMsPerCm2 || raw > entry.MaxDensityMsPerCm2)))
+            return new EntryDensity(expression, reference, ratio, raw, raw, false, null);
+        double clamped = Math.Clamp(raw, entry.MinDensityMsPerCm2, entry.MaxDensityMsPerCm2);
+        return new EntryDensity(expression, reference, ratio, raw, clamped, true,
+            $"{entry.Id}: predicted {raw:G3} mS/cm2 lies outside the plausible range {entry.MinDensityMsPerCm2:G3}-{entry.MaxDensityMsPerCm2:G3}; clamped to {clamped:G3}.");
+    }
+
+    /// <summary>One density's derivation as a line of text: "  12.5 mS/cm2 = 10 x (4.2 / 3.1)^1 [clamped]".</summary>
+    public string Formula(DensityDerivation d) => string.Create(CultureInfo.InvariantCulture,
+        $"{d.DensityMsPerCm2,10:G4} mS/cm2 = {d.TypicalMsPerCm2:G4} x ({d.Expression:G4} / {d.Reference:G4})^{Exponent:G3}{(d.Clamped ? " [clamped]" : "")}");
+
+    private static double Median(double[] v)
+    {
+        if (v.Length == 0) return 0;
+        var s = (double[])v.Clone();
+        Array.Sort(s);
+        return s.Length % 2 == 1 ? s[s.Length / 2] : 0.5 * (s[s.Length / 2 - 1] + s[s.Length / 2]);
+    }
 
     public string? Problem()
     {
@@ -42,10 +83,3 @@ public sealed record DensityRule
         return null;
     }
 }
-
-/// <summary>A user's change to the default mapping of one gene.</summary>
-/// <param name="Gene">Official symbol or table identifier.</param>
-/// <param name="Exclude">Drop the gene from every entry.</param>
-/// <param name="EntryId">Re-point the gene to this entry only (replacing its default links).</param>
-/// <param name="Weight">New weight for the gene's links (or for the re-pointed link).</param>
-public sealed record GeneOverride(string Gene, bool Exclude = false, string? EntryId = null, double? Weight = null);

@@ -18,6 +18,8 @@ public sealed class ExpressionDataset
     /// <summary>The table's cells by label of the group column, when metadata was given.</summary>
     public CellGroups? Groups { get; init; }
     public required MappingCatalog Catalog { get; init; }
+    /// <summary>The resolver that chose the table's genes while reading; mapping reuses its resolutions.</summary>
+    public required GeneResolver Resolver { get; init; }
     /// <summary>Things the user should know about the reading that are not problems (e.g. cells without a label).</summary>
     public IReadOnlyList<string> Notes { get; init; } = [];
 
@@ -37,7 +39,7 @@ public sealed class ExpressionDataset
         var resolver = new GeneResolver(catalog.Links, catalog.Statuses, catalog.Identifiers);
         var table = ExpressionReader.Read(tablePath, options with { KeepGene = resolver.Knows });
         if (sourceName is not null) table = table.WithSource(sourceName);
-        if (metadataPath is null) return new ExpressionDataset { Table = table, Catalog = catalog };
+        if (metadataPath is null) return new ExpressionDataset { Table = table, Catalog = catalog, Resolver = resolver };
 
         var column = groupColumn!;
         var metadataName = Path.GetFileName(metadataPath);
@@ -50,11 +52,11 @@ public sealed class ExpressionDataset
         var notes = new List<string>();
         int unlabelled = table.CellIds.Count - labels.Count;
         if (unlabelled > 0) notes.Add($"{unlabelled} cell(s) of the table have no '{column}' label in {metadataName}.");
-        return new ExpressionDataset { Table = table, Metadata = metadata, Groups = new CellGroups(table.CellIds, labels, column), Catalog = catalog, Notes = notes };
+        return new ExpressionDataset { Table = table, Metadata = metadata, Groups = new CellGroups(table.CellIds, labels, column), Catalog = catalog, Resolver = resolver, Notes = notes };
     }
 
     /// <summary>Maps the table's genes onto the catalog with the user's overrides.</summary>
-    public MappingReport Map(IReadOnlyList<GeneOverride>? overrides = null) => ExpressionMapping.Map(Table, Catalog, overrides);
+    public MappingReport Map(IReadOnlyList<GeneOverride>? overrides = null) => ExpressionMapping.Map(Table, Catalog, overrides, Resolver);
 
     /// <summary>Builds the model of one group (the mean of its cells) or one cell.</summary>
     /// <param name="shrinkage">Per-cell estimates from <see cref="Shrink"/> for a cell's model; null builds from the cell's raw values.</param>

@@ -1,90 +1,16 @@
+using ExprModel.Core.Expression.Identifiers;
 using ExprModel.Core.Expression;
-using ExprModel.Core.Kinetics;
 
 namespace ExprModel.Core.Mapping;
-
-/// <summary>What the mapping needs from the catalog: latest entries, gene links, statuses and identifiers.</summary>
-public sealed record MappingCatalog(IReadOnlyList<ChannelEntry> Entries, IReadOnlyList<GeneLink> Links, IReadOnlyList<GeneStatus> Statuses, IReadOnlyList<GeneIdentifier> Identifiers)
-{
-    public ChannelEntry? Entry(string id) => Entries.FirstOrDefault(e => e.Id == id);
-}
-
-/// <summary>A gene of the table feeding one entry with a weight.</summary>
-public sealed record EntryWeight(string EntryId, double Weight);
-
-/// <summary>A channel gene of the table linked to catalog entries, with its normalised expression per cell.</summary>
-public sealed record GeneMapping(string TableId, string Symbol, Species Species, string How, IReadOnlyList<EntryWeight> Entries, double[] ExpressionByCell, bool Excluded, string? Note);
-
-/// <summary>A channel gene present in the table that maps to no entry, with the catalog's reason.</summary>
-public sealed record UnmappedChannelGene(string TableId, string Symbol, string Status, string Reason);
-
-/// <summary>Expression of one gene or entry in one group of cells.</summary>
-public sealed record GroupStatistic(string Group, int Cells, double Mean, double StandardDeviation, double FractionExpressing);
-
-/// <summary>Cells grouped by a metadata label (e.g. transcriptomic type).</summary>
-public sealed class CellGroups
-{
-    public IReadOnlyDictionary<string, int[]> Members { get; }
-    public string Column { get; }
-
-    public CellGroups(IReadOnlyList<string> cellIds, IReadOnlyDictionary<string, string> labelByCell, string column)
-    {
-        Column = column;
-        var m = new SortedDictionary<string, List<int>>(StringComparer.Ordinal);
-        for (int i = 0; i < cellIds.Count; i++)
-            if (labelByCell.TryGetValue(cellIds[i], out var g) && !string.IsNullOrWhiteSpace(g))
-            {
-                if (!m.TryGetValue(g, out var list)) m[g] = list = [];
-                list.Add(i);
-            }
-        Members = m.ToDictionary(p => p.Key, p => p.Value.ToArray(), StringComparer.Ordinal);
-    }
-
-    public static GroupStatistic Statistic(string group, int[] members, double[] values)
-    {
-        if (members.Length == 0) return new(group, 0, 0, 0, 0);
-        double mean = members.Average(i => values[i]);
-        double sd = members.Length > 1 ? Math.Sqrt(members.Sum(i => (values[i] - mean) * (values[i] - mean)) / (members.Length - 1)) : 0;
-        double frac = members.Count(i => values[i] > 0) / (double)members.Length;
-        return new(group, members.Length, mean, sd, frac);
-    }
-}
-
-/// <summary>The mapping report: what maps, what does not and why, and what the user changed.</summary>
-public sealed class MappingReport
-{
-    public required string Source { get; init; }
-    public required IReadOnlyList<GeneMapping> Genes { get; init; }
-    public required IReadOnlyList<UnmappedChannelGene> Unmapped { get; init; }
-    /// <summary>Entries linked from the table's species whose genes are absent or never expressed.</summary>
-    public required IReadOnlyList<string> EntriesWithoutExpressedGene { get; init; }
-    /// <summary>Ambiguous or duplicate identifiers, and overrides that could not be applied.</summary>
-    public required IReadOnlyList<string> Problems { get; init; }
-    public required Species? Species { get; init; }
-    public required IReadOnlyList<GeneOverride> Overrides { get; init; }
-    public required int CellCount { get; init; }
-
-    /// <summary>Expression of each entry per cell: the weighted sum of its genes' normalised expression.</summary>
-    public IReadOnlyDictionary<string, double[]> EntryExpression()
-    {
-        var result = new SortedDictionary<string, double[]>(StringComparer.Ordinal);
-        foreach (var g in Genes.Where(g => !g.Excluded))
-            foreach (var w in g.Entries)
-            {
-                if (!result.TryGetValue(w.EntryId, out var sum)) result[w.EntryId] = sum = new double[CellCount];
-                for (int i = 0; i < CellCount; i++) sum[i] += w.Weight * g.ExpressionByCell[i];
-            }
-        return result;
-    }
-}
 
 /// <summary>Maps the genes of an expression table to catalog entries (DOMAIN.md, "Expression to conductance").</summary>
 public static class ExpressionMapping
 {
-    public static MappingReport Map(ExpressionTable table, MappingCatalog catalog, IReadOnlyList<GeneOverride>? overrides = null)
+    /// <param name="resolver">The resolver that filtered the table's genes while reading (its resolutions are reused); null makes one from the catalog.</param>
+    public static MappingReport Map(ExpressionTable table, MappingCatalog catalog, IReadOnlyList<GeneOverride>? overrides = null, GeneResolver? resolver = null)
     {
         overrides ??= [];
-        var resolver = new GeneResolver(catalog.Links, catalog.Statuses, catalog.Identifiers);
+        resolver ??= new GeneResolver(catalog.Links, catalog.Statuses, catalog.Identifiers);
         var problems = new List<string>();
         var resolved = new List<ResolvedGene>();
         foreach (var id in table.Genes.Keys)

@@ -1,27 +1,9 @@
-using System.Globalization;
 using System.Text.Json.Nodes;
 using ExprModel.Core.Cell;
 using ExprModel.Core.Expression;
 using ExprModel.Core.Models;
 
 namespace ExprModel.Core.Mapping;
-
-/// <summary>Which cells a model stands for: one group (mean of its cells) or one cell.</summary>
-public sealed record ModelTarget(string? Group, string? CellId)
-{
-    public static ModelTarget ForGroup(string g) => new(g, null);
-    public static ModelTarget ForCell(string c) => new(null, c);
-    public string Label => Group is not null ? $"group {Group}" : $"cell {CellId}";
-}
-
-/// <summary>Why one entry's density is what it is.</summary>
-public sealed record DensityDerivation(string EntryId, int Version, double Expression, double Reference, double Ratio, double TypicalMsPerCm2,
-    double RawMsPerCm2, double DensityMsPerCm2, bool Clamped, IReadOnlyList<GeneContribution> Genes);
-
-public sealed record GeneContribution(string Gene, double Weight, double Expression);
-
-/// <summary>A model built from expression, with the derivation of every density and the warnings a user should read.</summary>
-public sealed record BuiltModel(ModelDocument Document, IReadOnlyList<DensityDerivation> Densities, IReadOnlyList<string> Warnings);
 
 /// <summary>Turns an expression table, its mapping and a density rule into a model file that records how it was made.</summary>
 public static class ExpressionModelBuilder
@@ -46,30 +28,15 @@ public static class ExpressionModelBuilder
         foreach (var (entryId, perCell) in entryExpression)
         {
             var entry = catalog.Entry(entryId)!;
-            double expr = targetCells.Average(i => perCell[i]);
-            double reference;
-            if (referenceCells is not null) reference = referenceCells.Average(i => perCell[i]);
-            else
-            {
-                reference = Median(perCell);
-                if (reference <= 0) reference = perCell.Average();
-            }
-            double ratio = reference > 0 ? expr / reference : 0;
-            double raw = entry.TypicalDensityMsPerCm2 * Math.Pow(ratio, rule.Exponent);
-            double final = raw;
-            bool clamped = false;
-            if (rule.ClampToPlausibleRange && raw > 0 && (raw < entry.MinDensityMsPerCm2 || raw > entry.MaxDensityMsPerCm2))
-            {
-                final = Math.Clamp(raw, entry.MinDensityMsPerCm2, entry.MaxDensityMsPerCm2);
-                clamped = true;
-                warnings.Add($"{entryId}: predicted {raw:G3} mS/cm2 lies outside the plausible range {entry.MinDensityMsPerCm2:G3}-{entry.MaxDensityMsPerCm2:G3}; clamped to {final:G3}.");
-            }
+            var density = rule.DensityFor(entry, perCell, targetCells, referenceCells);
+            if (density.ClampNote is { } note) warnings.Add(note);
             var contributions = report.Genes.Where(g => !g.Excluded)
                 .SelectMany(g => g.Entries.Where(e => e.EntryId == entryId).Select(e => new GeneContribution(g.Symbol, e.Weight, targetCells.Average(i => g.ExpressionByCell[i]))))
                 .ToArray();
-            derivations.Add(new DensityDerivation(entryId, entry.Version, expr, reference, ratio, entry.TypicalDensityMsPerCm2, raw, final, clamped, contributions));
-            if (final <= 0) continue;
-            channels.Add(new ChannelDocument { Entry = entryId, Version = entry.Version, DensityMsPerCm2 = final });
+            derivations.Add(new DensityDerivation(entryId, entry.Version, density.Expression, density.Reference, density.Ratio, entry.TypicalDensityMsPerCm2,
+                density.RawMsPerCm2, density.DensityMsPerCm2, density.Clamped, contributions));
+            if (density.DensityMsPerCm2 <= 0) continue;
+            channels.Add(new ChannelDocument { Entry = entryId, Version = entry.Version, DensityMsPerCm2 = density.DensityMsPerCm2 });
             if (entry.Gates.Any(g => g.Kind == Kinetics.GateKind.Calcium) || entry.Ion == Kinetics.Ion.Calcium) needsShell = true;
         }
         var leak = catalog.Entry("leak") ?? throw new ArgumentException("The catalog has no 'leak' entry.");
@@ -79,13 +46,13 @@ public static class ExpressionModelBuilder
 
         var derivation = new JsonObject
         {
-            ["method"] = "density = typical * (expression / reference)^exponent, clamped to the entry's plausible range",
+            ["method"] = DensityRule.Method,
             ["source"] = table.Source,
             ["unit"] = table.Unit.ToString(),
             ["unitNote"] = table.UnitNote,
             ["target"] = target.Label,
             ["targetCells"] = targetCells.Length,
-            ["reference"] = rule.Reference == DensityReference.ReferenceGroup ? $"group {rule.ReferenceGroup}" : "dataset median",
+            ["reference"] = rule.ReferenceLabel,
             ["exponent"] = rule.Exponent,
             ["clamp"] = rule.ClampToPlausibleRange,
             ["overrides"] = new JsonArray(report.Overrides.Select(o => (JsonNode)new JsonObject
@@ -136,14 +103,4 @@ public static class ExpressionModelBuilder
         }
         throw new ArgumentException("Choose a group or a cell to model.");
     }
-
-    private static double Median(double[] v)
-    {
-        if (v.Length == 0) return 0;
-        var s = (double[])v.Clone();
-        Array.Sort(s);
-        return s.Length % 2 == 1 ? s[s.Length / 2] : 0.5 * (s[s.Length / 2 - 1] + s[s.Length / 2]);
-    }
-
-    internal static string F(double x) => x.ToString("G4", CultureInfo.InvariantCulture);
 }

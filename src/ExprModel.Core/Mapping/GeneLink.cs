@@ -1,16 +1,9 @@
-namespace ExprModel.Core.Mapping;
+using ExprModel.Core.Expression.Identifiers;
 
-/// <summary>Species whose gene symbols the catalog links (case conventions differ: human upper case, rodent capitalised).</summary>
-public enum Species { Human, Mouse, Rat }
+namespace ExprModel.Core.Mapping;
 
 /// <summary>
 /// A gene feeding a catalog entry with a weight (one gene may feed several entries, e.g. a sodium gene feeding
 /// the transient and a small persistent component). Role: "pore" for pore-forming subunits, others as documented.
 /// </summary>
 public sealed record GeneLink(Species Species, string Symbol, string EntryId, double Weight, string Role);
-
-/// <summary>Why a channel gene is or is not linked: linked, auxiliary, non-neuronal, not-modelled.</summary>
-public sealed record GeneStatus(Species Species, string Symbol, string Status, string Reason);
-
-/// <summary>An identifier that names a gene: an alias, an Ensembl gene id or an Entrez id (from org.Hs.eg.db).</summary>
-public sealed record GeneIdentifier(string Identifier, string Kind, string Symbol, Species Species);

@@ -1,21 +1,24 @@
+using System.Collections.Concurrent;
 using System.Text.RegularExpressions;
+using ExprModel.Core.Expression.Identifiers;
 
 namespace ExprModel.Core.Mapping;
-
-/// <summary>How a table identifier was matched to an official gene symbol.</summary>
-public sealed record ResolvedGene(string TableId, string Symbol, Species Species, string How);
 
 /// <summary>
 /// Resolves the identifiers of an expression table to official symbols: exact symbols with their species' case
 /// convention (HGNC upper case for human; capitalised for mouse and rat), aliases and Ensembl gene ids (version
 /// suffix ignored) from the catalog's identifier table, and symbols written in another case (reported).
-/// Ambiguous identifiers (an alias of two genes) are reported, never guessed.
+/// Ambiguous identifiers (an alias of two genes) are reported, never guessed. Each identifier that names a gene (or is
+/// ambiguous) is resolved once and remembered, so the reader's gene filter and the mapping share one resolution.
 /// </summary>
 public sealed partial class GeneResolver
 {
     private readonly Dictionary<string, (string Symbol, Species Species)> _symbols = new(StringComparer.Ordinal);
     private readonly Dictionary<string, List<(string Symbol, Species Species, string Kind)>> _ids = new(StringComparer.OrdinalIgnoreCase);
     private readonly Dictionary<string, (string Symbol, Species Species)> _folded = new(StringComparer.OrdinalIgnoreCase);
+    // Only identifiers that resolve or are ambiguous are kept: the rest of a table's genes (and the cell ids seen while
+    // detecting orientation) would fill memory for nothing.
+    private readonly ConcurrentDictionary<string, (ResolvedGene? Gene, string? Problem)> _resolved = new(StringComparer.Ordinal);
 
     public GeneResolver(IEnumerable<GeneLink> links, IEnumerable<GeneStatus> statuses, IEnumerable<GeneIdentifier> identifiers)
     {
@@ -38,6 +41,18 @@ public sealed partial class GeneResolver
 
     /// <summary>Resolves one identifier; returns null when it names no channel gene. Ambiguity goes to <paramref name="problem"/>.</summary>
     public ResolvedGene? Resolve(string tableId, out string? problem)
+    {
+        if (_resolved.TryGetValue(tableId, out var known))
+        {
+            problem = known.Problem;
+            return known.Gene;
+        }
+        var gene = ResolveOnce(tableId, out problem);
+        if (gene is not null || problem is not null) _resolved.TryAdd(tableId, (gene, problem));
+        return gene;
+    }
+
+    private ResolvedGene? ResolveOnce(string tableId, out string? problem)
     {
         problem = null;
         string id = tableId.Trim();

@@ -60,7 +60,7 @@ public sealed record ModelDocument
         }
         catch (JsonException e)
         {
-            throw new ModelFileException($"{fileName}: line {(e.LineNumber ?? 0) + 1}, position {(e.BytePositionInLine ?? 0) + 1}, at {e.Path}: {Clean(e.Message)}");
+            throw new ModelFileException(JsonErrorMessage.For(e, fileName));
         }
         if (doc is null) throw new ModelFileException($"{fileName}: the file holds no model (null).");
         if (doc.Format != FormatTag) throw new ModelFileException($"{fileName}: field 'format' must be \"{FormatTag}\" (got \"{doc.Format}\").");
@@ -75,12 +75,6 @@ public sealed record ModelDocument
             if (!(c.RelativeDensity >= 0) || double.IsInfinity(c.RelativeDensity)) throw new ModelFileException($"{fileName}: channels[{i}] ({c.Entry}).relativeDensity must be a number >= 0.");
         }
         return doc;
-    }
-
-    private static string Clean(string m)
-    {
-        int i = m.IndexOf(" Path:", StringComparison.Ordinal);
-        return i > 0 ? m[..i] : m;
     }
 
     public string ToJson() => JsonSerializer.Serialize(this, JsonOptions);
@@ -121,47 +115,4 @@ public sealed record ModelDocument
     /// <summary>The same document with relative densities set from a map of entry id to relative density (1 = as predicted).</summary>
     public ModelDocument WithRelativeDensities(IReadOnlyDictionary<string, double> relative) =>
         this with { Channels = Channels.Select(c => relative.TryGetValue(c.Entry, out var r) ? c with { RelativeDensity = r } : c).ToArray() };
-}
-
-/// <summary>Geometry as written in a model file: exactly one of area, diameter or whole-cell capacitance.</summary>
-public sealed record CellGeometryDocument
-{
-    public double? AreaUm2 { get; init; }
-    public double? DiameterUm { get; init; }
-    public double? CapacitancePf { get; init; }
-    public double CapacitanceUfPerCm2 { get; init; } = 1.0;
-
-    public Geometry ToGeometry()
-    {
-        int given = (AreaUm2 is null ? 0 : 1) + (DiameterUm is null ? 0 : 1) + (CapacitancePf is null ? 0 : 1);
-        if (given != 1) throw new ModelFileException("cell: give exactly one of areaUm2, diameterUm or capacitancePf.");
-        if (!(CapacitanceUfPerCm2 > 0)) throw new ModelFileException("cell.capacitanceUfPerCm2 must be positive.");
-        if (AreaUm2 is { } a) return a > 0 ? new Geometry { AreaUm2 = a, CapacitanceUfPerCm2 = CapacitanceUfPerCm2 } : throw new ModelFileException("cell.areaUm2 must be positive.");
-        if (DiameterUm is { } d) return d > 0 ? Geometry.FromDiameter(d, CapacitanceUfPerCm2) : throw new ModelFileException("cell.diameterUm must be positive.");
-        return CapacitancePf > 0 ? Geometry.FromCapacitance(CapacitancePf!.Value, CapacitanceUfPerCm2) : throw new ModelFileException("cell.capacitancePf must be positive.");
-    }
-}
-
-/// <summary>One channel of a model file.</summary>
-public sealed record ChannelDocument
-{
-    public required string Entry { get; init; }
-    /// <summary>The pinned catalog version; absent means "latest", and saving pins it.</summary>
-    public int? Version { get; init; }
-    public required double DensityMsPerCm2 { get; init; }
-    public double RelativeDensity { get; init; } = 1;
-    public double? ReversalMv { get; init; }
-    public double ShiftMv { get; init; }
-    public double TauScale { get; init; } = 1;
-}
-
-/// <summary>A model file that cannot be read, with file, line and field.</summary>
-public sealed class ModelFileException(string message) : Exception(message);
-
-/// <summary>The research-use caution shown with every prediction and written into every export.</summary>
-public static class ResearchCaution
-{
-    public const string Text =
-        "Research tool. Predictions are hypotheses about a simplified single-compartment cell from mRNA, not measurements, " +
-        "and are not for clinical or diagnostic use (for example, judging a patient's channel variant).";
 }

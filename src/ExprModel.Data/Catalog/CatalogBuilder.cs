@@ -1,4 +1,5 @@
 using System.Globalization;
+using ExprModel.Core.Expression.Identifiers;
 using ExprModel.Core.Kinetics;
 using ExprModel.Core.Mapping;
 using ExprModel.Core.Models;

@@ -1,5 +1,6 @@
 using System.Globalization;
 using System.Text.Json;
+using ExprModel.Core.Expression.Identifiers;
 using ExprModel.Core.Kinetics;
 using ExprModel.Core.Mapping;
 using ExprModel.Core.Models;
@@ -59,8 +60,15 @@ public sealed class CatalogContent
         var provenance = new Dictionary<string, string>(StringComparer.Ordinal);
         if (sources.Files.TryGetValue("genes/identifiers.provenance.json", out var prov))
         {
-            using var doc = JsonDocument.Parse(prov);
-            foreach (var p in doc.RootElement.EnumerateObject()) provenance[p.Name] = p.Value.ToString();
+            const string provenanceFile = "catalog/genes/identifiers.provenance.json";
+            JsonDocument doc;
+            try { doc = JsonDocument.Parse(prov); }
+            catch (JsonException e) { throw new CatalogException(JsonErrorMessage.For(e, provenanceFile)); }
+            using (doc)
+            {
+                if (doc.RootElement.ValueKind != JsonValueKind.Object) throw new CatalogException($"{provenanceFile}: must be a JSON object of names to values.");
+                foreach (var p in doc.RootElement.EnumerateObject()) provenance[p.Name] = p.Value.ToString();
+            }
         }
 
         var presets = new Dictionary<string, ModelDocument>(StringComparer.Ordinal);

@@ -1,3 +1,4 @@
+using ExprModel.Core.Expression.Identifiers;
 using ExprModel.Core.Kinetics;
 using ExprModel.Core.Mapping;
 using ExprModel.Core.Models;

@@ -1,6 +1,7 @@
 using System.Text.Json;
 using System.Text.Json.Serialization;
 using ExprModel.Core.Kinetics;
+using ExprModel.Core.Models;
 
 namespace ExprModel.Data.Catalog;
 
@@ -34,10 +35,7 @@ public static class EntryFile
         }
         catch (JsonException e)
         {
-            string msg = e.Message;
-            int cut = msg.IndexOf(" Path:", StringComparison.Ordinal);
-            if (cut > 0) msg = msg[..cut];
-            throw new CatalogException($"{fileName}: line {(e.LineNumber ?? 0) + 1}, at {e.Path}: {msg}");
+            throw new CatalogException(JsonErrorMessage.For(e, fileName));
         }
         if (dto is null) throw new CatalogException($"{fileName}: empty entry file.");
         try
@@ -278,6 +276,3 @@ public static class EntryFile
         public static PublishedDto From(PublishedValue p) => new() { Quantity = p.Quantity, Gate = p.Gate, Value = p.Value, AtMv = p.AtMv, Tolerance = p.Tolerance, Where = p.Where };
     }
 }
-
-/// <summary>A catalog source or database problem, naming the file and the entry or parameter at fault.</summary>
-public sealed class CatalogException(string message) : Exception(message);

@@ -1,19 +1,10 @@
 using System.Globalization;
 using System.Text;
 using System.Text.RegularExpressions;
+using ExprModel.Core.Expression.Identifiers;
 using ExprModel.Core.Mapping;
 
 namespace ExprModel.Data.Catalog;
-
-/// <summary>One gene of the catalog's gene tables: its status and the entries its expression feeds.</summary>
-/// <param name="Entries">Linked entry ids, with the weight after a colon when it is not 1 (e.g. "nap-ca1-golomb2006:0.5").</param>
-public sealed record GeneCoverageRow(string Symbol, Species Species, string Status, IReadOnlyList<string> Entries, string Reason);
-
-/// <summary>Coverage of one gene group: how many of its genes are linked to entries.</summary>
-public sealed record CoverageFigure(string Group, int Linked, int Total, IReadOnlyList<string> Unlinked)
-{
-    public double Fraction => Total == 0 ? 1 : (double)Linked / Total;
-}
 
 /// <summary>
 /// The gene side of the catalog as rows a user or reviewer reads (symbol, species, status, entries), e.g. for

@@ -12,32 +12,6 @@ using Microsoft.Extensions.Options;
 
 namespace ExprModel.Web.Apis;
 
-/// <summary>A build request: the table (and optional metadata) as text, the target, the read choices, overrides and rule.</summary>
-public sealed record BuildRequest
-{
-    /// <summary>The expression table as CSV or TSV text (genes x cells or cells x genes).</summary>
-    public string? Expression { get; init; }
-    public string ExpressionName { get; init; } = "expression.csv";
-    public string? Metadata { get; init; }
-    public string MetadataName { get; init; } = "metadata.csv";
-    public string? GroupBy { get; init; }
-    public string? Group { get; init; }
-    public string? Cell { get; init; }
-    /// <summary>genes-as-rows or cells-as-rows; absent = detect.</summary>
-    public string? Orientation { get; init; }
-    /// <summary>counts, cpm, tpm, fpkm or log-transformed; absent = detect.</summary>
-    public string? Unit { get; init; }
-    public IReadOnlyList<GeneOverride>? Overrides { get; init; }
-    public string? ReferenceGroup { get; init; }
-    public double Exponent { get; init; } = 1;
-    public bool Clamp { get; init; } = true;
-    public double CapacitancePf { get; init; } = 50;
-    public double TemperatureC { get; init; } = 34;
-}
-
-public sealed record BuildResponse(JsonElement Model, IReadOnlyList<DensityDerivation> Densities, IReadOnlyList<string> Warnings,
-    IReadOnlyList<UnmappedChannelGene> Unmapped, IReadOnlyList<string> Problems, string Caution);
-
 /// <summary>
 /// Expression table to model: the library's readers, mapping and density rule (through <see cref="ExpressionSession"/>),
 /// as the command line's build command uses them. The table comes as text in a JSON body or as a file part of a
@@ -110,7 +84,7 @@ public static class BuildApi
         try { body = JsonSerializer.Deserialize<BuildRequest>(bytes, SnapshotService.Json); }
         catch (JsonException e)
         {
-            throw new UserInputException($"request body: line {(e.LineNumber ?? 0) + 1}, position {(e.BytePositionInLine ?? 0) + 1}: not valid JSON for a build request.");
+            throw new UserInputException(JsonErrorMessage.For(e, "request body", "not valid JSON for a build request."));
         }
         if (body?.Expression is not { Length: > 0 } table) throw new UserInputException("expression: required (the table as CSV or TSV text).");
         return new BuildUpload(body, Encoding.UTF8.GetBytes(table), body.ExpressionName, body.Metadata is null ? null : Encoding.UTF8.GetBytes(body.Metadata), body.MetadataName);
@@ -164,29 +138,8 @@ public static class BuildApi
         try { return JsonSerializer.Deserialize<List<GeneOverride>>(json, SnapshotService.Json); }
         catch (JsonException e)
         {
-            throw new UserInputException($"overrides: line {(e.LineNumber ?? 0) + 1}, position {(e.BytePositionInLine ?? 0) + 1}: not a JSON array of "
-                + "{\"gene\": ..., \"exclude\": true} / {\"gene\": ..., \"entryId\": ..., \"weight\": ...} objects.");
+            throw new UserInputException(JsonErrorMessage.For(e, "overrides",
+                "not a JSON array of {\"gene\": ..., \"exclude\": true} / {\"gene\": ..., \"entryId\": ..., \"weight\": ...} objects."));
         }
     }
-}
-
-/// <summary>The multipart form of a build request, as the OpenAPI document describes it (the endpoint reads the parts itself).</summary>
-public sealed record BuildForm
-{
-    /// <summary>The expression table file: CSV or TSV (optionally gzip) or AnnData .h5ad.</summary>
-    public required IFormFile Expression { get; init; }
-    /// <summary>Cell metadata file (cell id column plus label columns), needed with group.</summary>
-    public IFormFile? Metadata { get; init; }
-    public string? GroupBy { get; init; }
-    public string? Group { get; init; }
-    public string? Cell { get; init; }
-    public string? Orientation { get; init; }
-    public string? Unit { get; init; }
-    public string? ReferenceGroup { get; init; }
-    public double? Exponent { get; init; }
-    public bool? Clamp { get; init; }
-    public double? CapacitancePf { get; init; }
-    public double? TemperatureC { get; init; }
-    /// <summary>A JSON array of overrides, as in the JSON body.</summary>
-    public string? Overrides { get; init; }
 }

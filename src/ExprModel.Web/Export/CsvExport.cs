@@ -1,3 +1,4 @@
+using ExprModel.Core.Analysis;
 using ExprModel.Core.Export;
 using ExprModel.Core.Models;
 using ExprModel.Web.Simulation;
@@ -5,32 +6,27 @@ using ExprModel.Web.Simulation;
 namespace ExprModel.Web.Export;
 
 /// <summary>
-/// The CSV files the app hands out, written with the library's one CSV writer (<see cref="CsvTable"/>: formula
-/// neutralisation of text cells, invariant numbers). Each starts with comment lines carrying the research-use caution
-/// and the model's name.
+/// The CSV files the app hands out, written by the library's writers (<see cref="CsvTable"/>: formula neutralisation
+/// of text cells, invariant numbers; <see cref="TraceCsv"/> and <see cref="FiCsv"/> shared with the command line).
+/// Each starts with comment lines carrying the research-use caution and the model's name.
 /// </summary>
 public static class CsvExport
 {
-    private static string[] Comments(string modelName) => [ResearchCaution.Text, "model: " + modelName];
+    /// <summary>The step's full-resolution trace, as the command line's simulate command writes it (<see cref="TraceCsv"/>).</summary>
+    public static string Trace(string modelName, StepView view) =>
+        TraceCsv.Write(modelName, view.FullTimeMs, view.FullVoltageMv, view.FullStimulusUaPerCm2, view.SpikeTimesMs.Count);
 
-    public static string Trace(string modelName, StepView view)
-    {
-        var t = new CsvTable(Comments(modelName), ["time_ms", "voltage_mv", "stimulus_ua_per_cm2"]);
-        for (int i = 0; i < view.FullTimeMs.Length; i++) t.Row(view.FullTimeMs[i], view.FullVoltageMv[i], view.FullStimulusUaPerCm2[i]);
-        return t.ToString();
-    }
-
-    public static string Fi(string modelName, IReadOnlyList<FiRow> rows)
-    {
-        var t = new CsvTable(Comments(modelName), ["current_ua_per_cm2", "spike_count", "whole_step_rate_hz", "first_isi_rate_hz", "late_rate_hz"]);
-        foreach (var r in rows) t.Row(r.CurrentUaPerCm2, r.SpikesInStep, r.WholeStepRateHz, r.FirstIsiRateHz, r.LateRateHz);
-        return t.ToString();
-    }
+    /// <summary>
+    /// The f-I sweep, as the command line's fi command writes it (<see cref="FiCsv"/>); the rows carry no first-spike
+    /// latency, so that column is blank.
+    /// </summary>
+    public static string Fi(string modelName, IReadOnlyList<FiRow> rows) =>
+        FiCsv.Write(modelName, rows.Select(r => new FiPoint(r.CurrentUaPerCm2, r.SpikesInStep, r.WholeStepRateHz, r.FirstIsiRateHz, r.LateRateHz, null)));
 
     /// <summary>Read-outs of one or more variants side by side (one column per variant, named by the user's variant name).</summary>
     public static string Readouts(IReadOnlyList<(string Variant, IReadOnlyList<ReadoutRow> Rows)> variants)
     {
-        var t = new CsvTable(Comments(string.Join(" | ", variants.Select(v => v.Variant))), ["readout", "unit", .. variants.Select(v => v.Variant)]);
+        var t = CsvTable.ForModel(string.Join(" | ", variants.Select(v => v.Variant)), ["readout", "unit", .. variants.Select(v => v.Variant)]);
         foreach (var (name, unit) in variants.SelectMany(v => v.Rows.Select(r => (r.Name, r.Unit))).Distinct())
             t.Row([name, unit, .. variants.Select(v => (object?)v.Rows.FirstOrDefault(r => r.Name == name)?.Value)]);
         return t.ToString();

@@ -4,12 +4,6 @@ using Microsoft.Net.Http.Headers;
 
 namespace ExprModel.Web.Hosting;
 
-/// <summary>A part of a multipart/form-data body: its bytes and the file name the client sent (null for a plain field).</summary>
-public sealed record FormPart(string Name, string? FileName, byte[] Bytes)
-{
-    public string Text => System.Text.Encoding.UTF8.GetString(Bytes);
-}
-
 /// <summary>
 /// A multipart/form-data body read part by part with one byte budget for all parts together, so the upload limit means
 /// the same for a form as for a JSON body (<see cref="BoundedUpload"/>). The framework's form binding is not used: it

@@ -1,4 +1,5 @@
 using System.Text.Json;
+using ExprModel.Core.Models;
 using ExprModel.Web.Simulation;
 using Microsoft.AspNetCore.Diagnostics;
 using Microsoft.AspNetCore.Mvc;
@@ -16,7 +17,7 @@ public sealed class ProblemMapping(IProblemDetailsService problems) : IException
             UploadTooLargeException e => (413, "Upload too large", e.Message),
             SimulationTimeoutException e => (503, "Simulation time limit reached", e.Message),
             BadHttpRequestException { InnerException: JsonException j } => (400, "The request body is not valid JSON for this endpoint",
-                $"line {(j.LineNumber ?? 0) + 1}, position {(j.BytePositionInLine ?? 0) + 1}, at {j.Path ?? "$"}: {FirstSentence(j.Message)}"),
+                JsonErrorMessage.For(j)),
             BadHttpRequestException e => (e.StatusCode, "Bad request", e.Message),
             OperationCanceledException when http.RequestAborted.IsCancellationRequested => (499, "Request cancelled", "The client closed the request."),
             _ => (0, "", ""),
@@ -29,35 +30,5 @@ public sealed class ProblemMapping(IProblemDetailsService problems) : IException
             Exception = exception,
             ProblemDetails = new ProblemDetails { Status = status, Title = title, Detail = detail, Instance = http.Request.Path },
         });
-    }
-
-    private static string FirstSentence(string m)
-    {
-        int i = m.IndexOf(" Path:", StringComparison.Ordinal);
-        return i > 0 ? m[..i] : m;
-    }
-}
-
-/// <summary>An upload larger than <see cref="WebOptions.MaxUploadMegabytes"/>.</summary>
-public sealed class UploadTooLargeException(string message) : Exception(message);
-
-/// <summary>Reads an upload into memory, stopping with a clear message as soon as it passes the configured limit.</summary>
-public static class BoundedUpload
-{
-    public static string LimitMessage(long limitBytes, string what) =>
-        $"{what} is larger than this server's upload limit of {limitBytes / (1024.0 * 1024.0):0.##} MB. Split the table, keep only the needed genes, or raise ExprModel:MaxUploadMegabytes.";
-
-    public static async Task<byte[]> ReadAsync(Stream body, long? declaredLength, long limitBytes, string what, CancellationToken cancel)
-    {
-        if (declaredLength > limitBytes) throw new UploadTooLargeException(LimitMessage(limitBytes, what));
-        using var buffer = new MemoryStream();
-        var chunk = new byte[81920];
-        int n;
-        while ((n = await body.ReadAsync(chunk, cancel)) > 0)
-        {
-            if (buffer.Length + n > limitBytes) throw new UploadTooLargeException(LimitMessage(limitBytes, what));
-            buffer.Write(chunk, 0, n);
-        }
-        return buffer.ToArray();
     }
 }

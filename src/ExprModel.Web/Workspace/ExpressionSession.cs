@@ -5,31 +5,6 @@ using ExprModel.Web.Simulation;
 
 namespace ExprModel.Web.Workspace;
 
-/// <summary>What the user chose on the Load page; null or empty means "detect".</summary>
-public sealed record ReadChoices(string? Orientation, string? Unit, string? GroupColumn)
-{
-    public ExpressionReadOptions ToOptions() => new()
-    {
-        Orientation = Orientation switch
-        {
-            null or "" => null,
-            "genes-as-rows" => TableOrientation.GenesAsRows,
-            "cells-as-rows" => TableOrientation.CellsAsRows,
-            var o => throw new UserInputException($"orientation: '{o}' is not genes-as-rows or cells-as-rows."),
-        },
-        Unit = Unit switch
-        {
-            null or "" or "log-transformed" => null,
-            "counts" => ExpressionUnit.Counts,
-            "cpm" => ExpressionUnit.Cpm,
-            "tpm" => ExpressionUnit.Tpm,
-            "fpkm" => ExpressionUnit.Fpkm,
-            var u => throw new UserInputException($"unit: '{u}' is not counts, cpm, tpm or fpkm."),
-        },
-        LogTransform = Unit == "log-transformed" ? LogTransform.NaturalLog1p : LogTransform.None,
-    };
-}
-
 /// <summary>
 /// The web's hold on an <see cref="ExpressionDataset"/> (the library's read / group / map / build orchestration, shared
 /// with the command line): what it adds is web-only. Uploaded bytes go to a private temporary folder because the

@@ -5,25 +5,6 @@ using ExprModel.Web.Simulation;
 
 namespace ExprModel.Web.Workspace;
 
-/// <summary>The protocol a snapshot's read-outs were taken with.</summary>
-public sealed record SnapshotProtocol
-{
-    public StepProtocol Step { get; init; } = new();
-    public FiProtocol Fi { get; init; } = new();
-}
-
-/// <summary>A stored snapshot opened again: its model, and its read-outs as saved and as re-run now.</summary>
-public sealed record OpenedSnapshot(Snapshot Stored, ModelDocument Model, SnapshotProtocol Protocol,
-    IReadOnlyList<ReadoutRow> SavedReadouts, IReadOnlyList<ReadoutRow> RerunReadouts)
-{
-    /// <summary>True when the re-run reproduces every saved read-out exactly (same bits).</summary>
-    public bool Reproduced => SavedReadouts.Count == RerunReadouts.Count &&
-        SavedReadouts.Zip(RerunReadouts).All(p => p.First.Name == p.Second.Name && Same(p.First.Value, p.Second.Value));
-
-    private static bool Same(double? a, double? b) =>
-        a is null ? b is null : b is not null && (a.Value.Equals(b.Value) || (double.IsNaN(a.Value) && double.IsNaN(b.Value)));
-}
-
 /// <summary>Saves and opens shared snapshots: pins the model, takes its read-outs, and writes it in one transaction.</summary>
 public sealed class SnapshotService(SnapshotStore store, ModelRunner runner)
 {

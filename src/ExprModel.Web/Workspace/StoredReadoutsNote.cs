@@ -1,3 +1,4 @@
+using ExprModel.Core.Export;
 using ExprModel.Web.Components.Panels;
 using ExprModel.Web.Simulation;
 

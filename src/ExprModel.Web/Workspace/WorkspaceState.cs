@@ -49,11 +49,3 @@ public sealed class WorkspaceState
         Changed?.Invoke();
     }
 }
-
-/// <summary>Orientation, unit and grouping as confirmed on the Load page; empty strings mean "detect" or "none".</summary>
-public sealed class IntakeChoices
-{
-    public string Orientation { get; set; } = "";
-    public string Unit { get; set; } = "";
-    public string GroupColumn { get; set; } = "";
-}

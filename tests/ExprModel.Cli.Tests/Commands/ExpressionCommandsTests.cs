@@ -30,6 +30,16 @@ public class ExpressionCommandsTests
     }
 
     [Fact]
+    public void ReadOptionsAreRefusedInTheLibrarysWordsNamingTheOption()
+    {
+        var (exit, _, err) = CliRunner.Run(["build", .. Inputs, "--group", "T1-fast", "--unit", "umi"]);
+        Assert.Equal(1, exit);
+        Assert.Contains("error: --unit: 'umi' is not counts, cpm, tpm, fpkm or log-transformed.", err);
+        var o = CliRunner.Run(["build", .. Inputs, "--group", "T1-fast", "--orientation", "rows"]);
+        Assert.Contains("error: --orientation: 'rows' is not genes-as-rows or cells-as-rows.", o.Err);
+    }
+
+    [Fact]
     public void BuildOfOneCellShrinksItsCountsTowardsItsGroupOnlyWhenAsked()
     {
         var plain = CliRunner.Run(["build", .. Inputs, "--cell", "FH1001"]);

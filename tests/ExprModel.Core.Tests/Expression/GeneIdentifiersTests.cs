@@ -1,5 +1,4 @@
 using ExprModel.Core.Expression.Identifiers;
-using ExprModel.Core.Mapping;
 
 namespace ExprModel.Core.Tests.Expression;
 

@@ -1,3 +1,4 @@
+using ExprModel.Core.Expression.Identifiers;
 using ExprModel.Core.Expression;
 using ExprModel.Core.Mapping;
 

@@ -53,7 +53,7 @@ public sealed class PerCellShrinkageTests : IDisposable
         Assert.True(row["fromZeroCounts"]!.GetValue<bool>());
         Assert.Contains(shrunk.Document.Derivation!["warnings"]!.AsArray(), w => w!.GetValue<string>().StartsWith(entry + ":"));
         // The model file with its derivation still reads back.
-        Assert.Equal(shrunk.Document.Channels.Count, Models.ModelDocument.Parse(shrunk.Document.ToJson(), "shrunk").Channels.Count);
+        Assert.Equal(shrunk.Document.Channels.Count, ExprModel.Core.Models.ModelDocument.Parse(shrunk.Document.ToJson(), "shrunk").Channels.Count);
     }
 
     [Fact]

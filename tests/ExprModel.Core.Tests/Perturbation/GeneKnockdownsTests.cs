@@ -7,7 +7,7 @@ namespace ExprModel.Core.Tests.Perturbation;
 public class GeneKnockdownsTests
 {
     // traub-na fed by Scn1a (weight 1, 60 CPM) and Scn8a (weight 0.5, 80 CPM): expression 100, reference 50, exponent 1.5.
-    private static Models.ModelDocument Doc(double exponent = 1.5, bool clamp = false) => TestCatalog.Catalog.Preset("cortex-rs2008") with
+    private static ExprModel.Core.Models.ModelDocument Doc(double exponent = 1.5, bool clamp = false) => TestCatalog.Catalog.Preset("cortex-rs2008") with
     {
         Derivation = new JsonObject
         {

@@ -1,4 +1,5 @@
 using ExprModel.Core.Cell;
+using ExprModel.Core.Expression.Identifiers;
 using ExprModel.Core.Kinetics;
 using ExprModel.Core.Mapping;
 using ExprModel.Core.Simulation;

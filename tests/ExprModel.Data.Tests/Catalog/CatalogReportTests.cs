@@ -1,3 +1,4 @@
+using ExprModel.Core.Expression.Identifiers;
 using ExprModel.Core.Mapping;
 using ExprModel.Data.Catalog;
 

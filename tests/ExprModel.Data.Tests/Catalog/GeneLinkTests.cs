@@ -1,4 +1,5 @@
 using System.Text.RegularExpressions;
+using ExprModel.Core.Expression.Identifiers;
 using ExprModel.Core.Mapping;
 using ExprModel.Data.Catalog;
 

@@ -128,6 +128,19 @@ public sealed class BuildApiTests(AppFactory factory) : ApiTestBase(factory)
     }
 
     [Fact]
+    public async Task Read_options_take_the_same_spellings_as_the_command_line()
+    {
+        // "rpkm" and upper case are the library's spellings (ReadOptionsParser), which the command line accepts too.
+        var ok = await Client.PostAsJsonAsync("/api/build", new { expression = Demo("counts.csv"), metadata = Demo("metadata.csv"), groupBy = "group", group = "T1-fast", unit = "RPKM" });
+        Assert.Equal(200, (int)ok.StatusCode);
+        Assert.Equal("Fpkm", (await Json(ok)).GetProperty("model").GetProperty("derivation").GetProperty("unit").GetString());
+        await AssertProblem(await Client.PostAsJsonAsync("/api/build", new { expression = Demo("counts.csv"), cell = "FH1001", unit = "umi" }), 400,
+            "unit: 'umi' is not counts, cpm, tpm, fpkm or log-transformed.");
+        await AssertProblem(await Client.PostAsJsonAsync("/api/build", new { expression = Demo("counts.csv"), cell = "FH1001", orientation = "rows" }), 400,
+            "orientation: 'rows' is not genes-as-rows or cells-as-rows.");
+    }
+
+    [Fact]
     public async Task Form_problems_name_the_part_or_field()
     {
         var noTable = new MultipartFormDataContent { { new StringContent("c1"), "cell" } };

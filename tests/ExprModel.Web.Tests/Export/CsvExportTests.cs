@@ -12,8 +12,9 @@ public sealed class CsvExportTests
         var csv = CsvExport.Fi("m", [new FiRow(0, 0, 0, 0, 0), new FiRow(1, 3, 6, 10, 5)]);
         var lines = csv.Split('\n');
         Assert.Equal("# " + ResearchCaution.Text, lines[0]);
-        Assert.Equal("current_ua_per_cm2,spike_count,whole_step_rate_hz,first_isi_rate_hz,late_rate_hz", lines[2]);
-        Assert.Equal("1,3,6,10,5", lines[4]);
+        // The command line's f-I layout (FiCsv); the web's rows carry no latency, so its column is blank.
+        Assert.Equal("amplitude_ua_per_cm2,spike_count,whole_step_rate_hz,first_isi_rate_hz,late_rate_hz,first_spike_latency_ms", lines[2]);
+        Assert.Equal("1,3,6,10,5,", lines[4]);
     }
 
     [Theory]

@@ -1,3 +1,4 @@
+using ExprModel.Core.Export;
 using ExprModel.Web.Simulation;
 
 namespace ExprModel.Web.Tests.Simulation;

@@ -1,24 +1,6 @@
 using System.Text.RegularExpressions;
-using ExprModel.Core.Mapping;
 
 namespace ExprModel.Core.Expression.Identifiers;
-
-/// <summary>What kind of identifier a string is.</summary>
-public enum IdentifierKind { EnsemblGene, Symbol, Other }
-
-/// <summary>How a symbol is written: HGNC human symbols are upper case; mouse and rat symbols are capitalised.</summary>
-public enum SymbolCase { HumanUpper, RodentCapitalised, Other }
-
-/// <summary>A parsed gene identifier.</summary>
-/// <param name="Text">As written in the file.</param>
-/// <param name="Kind">Ensembl gene id, symbol or other.</param>
-/// <param name="Key">Comparison key: an Ensembl id without its version suffix; a symbol as written.</param>
-/// <param name="Species">From the Ensembl prefix, or null when the identifier does not tell.</param>
-/// <param name="EnsemblVersion">Version suffix of an Ensembl id (".5" gives 5), if any.</param>
-public sealed record ParsedGeneId(string Text, IdentifierKind Kind, string Key, Species? Species, int? EnsemblVersion);
-
-/// <summary>A problem with a set of identifiers: duplicates, case collisions, the same Ensembl gene in two versions.</summary>
-public sealed record IdentifierIssue(string Kind, IReadOnlyList<string> Identifiers, string Message);
 
 /// <summary>
 /// Parsing of gene identifiers: Ensembl gene ids (ENSG human, ENSMUSG mouse, ENSRNOG rat; 11 digits; optional

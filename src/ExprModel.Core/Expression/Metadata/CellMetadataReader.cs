@@ -4,18 +4,6 @@ using ExprModel.Core.Expression.Text;
 
 namespace ExprModel.Core.Expression.Metadata;
 
-/// <summary>How to read a cell metadata table.</summary>
-public sealed record CellMetadataOptions
-{
-    /// <summary>Header of the cell id column; null picks a column named like "cell", "cell_id", "barcode", "id" or else the first.</summary>
-    public string? CellIdColumn { get; init; }
-    /// <summary>Headers of the label columns; null takes every non-numeric column.</summary>
-    public IReadOnlyList<string>? GroupColumns { get; init; }
-    public int MaxRecordChars { get; init; } = 1 << 20;
-    public int MaxColumns { get; init; } = 10_000;
-    public long MaxDecompressedBytes { get; init; } = 4L << 30;
-}
-
 /// <summary>
 /// Reads a cell metadata table (delimited text as for expression tables): one row per cell, a cell id column, label
 /// columns, and numeric columns kept as recorded read-outs with the name and unit from their header.

@@ -1,0 +1,3 @@
+namespace ExprModel.Web.Apis;
+
+public sealed record ReadoutsRequest : ModelRequest;

@@ -1,0 +1,8 @@
+using ExprModel.Web.Simulation;
+
+namespace ExprModel.Web.Apis;
+
+public sealed record SimulateRequest : ModelRequest
+{
+    public StepProtocol? Step { get; init; }
+}

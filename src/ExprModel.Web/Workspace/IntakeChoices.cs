@@ -1,0 +1,9 @@
+namespace ExprModel.Web.Workspace;
+
+/// <summary>Orientation, unit and grouping as confirmed on the Load page; empty strings mean "detect" or "none".</summary>
+public sealed class IntakeChoices
+{
+    public string Orientation { get; set; } = "";
+    public string Unit { get; set; } = "";
+    public string GroupColumn { get; set; } = "";
+}
