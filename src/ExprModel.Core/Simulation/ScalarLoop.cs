@@ -37,6 +37,9 @@ internal static class ScalarLoop
         var erev = plan.ErevMv;
         var mode = plan.Mode;
         var update = plan.Update;
+        var gateStart = plan.GateStart;
+        var gateEnd = plan.GateEnd;
+        var power = plan.GatePower;
         var carriesCalcium = plan.CarriesCalcium;
         var calciumRateExponent = Enumerable.Range(0, gateCount).Select(k => plan.CalciumRateExponent(k, dt)).ToArray();
         bool anyNernstCalcium = plan.AnyNernstCalcium, anyGhkCalcium = plan.AnyGhkCalcium, anySpecial = plan.AnyNonOhmic;
@@ -130,7 +133,7 @@ internal static class ScalarLoop
             double ghk = anyGhkCalcium ? cell.CalciumDrivingMv(DriveMode.GhkCalcium, v, ca, eCa) : 0;
             for (int c = 0; c < channelCount; c++)
             {
-                double gc = plan.Conductance<ScalarLanes, double>(c, gbar[c], x);
+                double gc = StepPlan.Conductance<ScalarLanes, double>(gbar[c], x, gateStart[c], gateEnd[c], power);
                 g[c] = gc;
                 if (!anySpecial || mode[c] == DriveMode.Ohmic)
                 {

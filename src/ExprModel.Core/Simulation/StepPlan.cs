@@ -100,11 +100,18 @@ internal sealed class StepPlan
 
     /// <summary>Conductance (mS/cm2) of channel c: its density times each gate raised to its power (by multiplication).</summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    public T Conductance<TMath, T>(int c, T densityMsPerCm2, ReadOnlySpan<T> gates) where TMath : ILaneMath<T> where T : struct
+    public T Conductance<TMath, T>(int c, T densityMsPerCm2, ReadOnlySpan<T> gates) where TMath : ILaneMath<T> where T : struct =>
+        Conductance<TMath, T>(densityMsPerCm2, gates, GateStart[c], GateEnd[c], GatePower);
+
+    /// <summary>
+    /// The conductance product over gates [first, end) with their powers, for hot loops that keep the plan's arrays in
+    /// locals (an instance call would reload them per channel).
+    /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    public static T Conductance<TMath, T>(T densityMsPerCm2, ReadOnlySpan<T> gates, int first, int end, int[] power) where TMath : ILaneMath<T> where T : struct
     {
         var g = densityMsPerCm2;
-        int[] power = GatePower;
-        for (int k = GateStart[c]; k < GateEnd[c]; k++)
+        for (int k = first; k < end; k++)
         {
             var x = gates[k];
             var p = x;

@@ -9,7 +9,8 @@ public sealed record SweepLane(IReadOnlyList<double> SpikeTimesMs, ResumePoint? 
 /// <summary>
 /// The sweep hot loop with four stimuli as SIMD lanes (AVX2 gathers from the rate tables, FMA, vector exp). Same staggered scheme and the same spike rule as the scalar
 /// loop, so results agree with it to rounding. Handles voltage gates from tables, calcium-gated (Hill) gates, calcium
-/// channels with a Nernst or GHK driving force and the calcium shell, exactly as the scalar loop orders them.
+/// channels with a Nernst or GHK driving force and the calcium shell, exactly as the scalar loop orders them. What each
+/// gate and channel needs comes from the cell's <see cref="StepPlan"/>; the shared formulas run here on <see cref="VectorLanes"/>.
 /// </summary>
 internal static unsafe class SweepKernel
 {
@@ -70,6 +71,9 @@ internal static unsafe class SweepKernel
         var gbar = cell.Gbar.Select(Vector256.Create).ToArray();
         var erev = plan.ErevMv.Select(Vector256.Create).ToArray();
         var update = plan.Update;
+        var gateStart = plan.GateStart;
+        var gateEnd = plan.GateEnd;
+        var power = plan.GatePower;
         bool anyInstant = plan.AnyInstantaneous;
         var boundOpening = plan.BoundOpening;
         var boundClosing = plan.BoundClosing;
@@ -218,7 +222,7 @@ internal static unsafe class SweepKernel
                 var drivingGhk = anyGhk ? Ghk(v, ca, caOut, vt2v, invVt2) : zero;
                 for (int c = 0; c < channels; c++)
                 {
-                    var gc = plan.Conductance<VectorLanes, Vector256<double>>(c, gbar[c], x);
+                    var gc = StepPlan.Conductance<VectorLanes, Vector256<double>>(gbar[c], x, gateStart[c], gateEnd[c], power);
                     gcs[c] = gc;
                     if (!anySpecial || mode[c] == DriveMode.Ohmic)
                     {
