@@ -17,16 +17,18 @@ internal readonly record struct CalciumBoundRate(bool Opens, double MaxRatePerMs
         _ => null,
     };
 
-    /// <summary>The rate (1/ms) at V (mV, shifted) and calcium (mM) in four lanes.</summary>
+    /// <summary>
+    /// The rate (1/ms) at V (mV, shifted) and calcium (mM) in four lanes, from the constants broadcast once by the
+    /// caller (<see cref="MaxRatePerMs"/>, <see cref="DissociationAtZeroMm"/>, <see cref="MinusInverseKPerMv"/>).
+    /// </summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    public Vector256<double> Evaluate(Vector256<double> vMv, Vector256<double> calciumMm)
+    public static Vector256<double> Evaluate(bool opens, Vector256<double> maxRatePerMs, Vector256<double> dissociationAtZeroMm, Vector256<double> minusInverseKPerMv,
+        Vector256<double> vMv, Vector256<double> calciumMm)
     {
-        var e = InlineExp.Exp(vMv * Vector256.Create(MinusInverseKPerMv));
+        var e = InlineExp.Exp(vMv * minusInverseKPerMv);
         var one = Vector256.Create(1.0);
-        var a = Vector256.Create(MaxRatePerMs);
-        var c1 = Vector256.Create(DissociationAtZeroMm);
-        return Opens
-            ? a / (one + c1 * e / Vector256.Max(calciumMm, Vector256.Create(1e-12)))
-            : a / (one + Vector256.Max(calciumMm, Vector256.Create(0.0)) / (c1 * e));
+        return opens
+            ? maxRatePerMs / (one + dissociationAtZeroMm * e / Vector256.Max(calciumMm, Vector256.Create(1e-12)))
+            : maxRatePerMs / (one + Vector256.Max(calciumMm, Vector256.Create(0.0)) / (dissociationAtZeroMm * e));
     }
 }

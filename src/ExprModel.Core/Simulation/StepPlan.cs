@@ -123,19 +123,25 @@ internal sealed class StepPlan
 
     /// <summary>Steady state of Hill gate g at shell calcium (mM): whole coefficients by multiplication, others by a power.</summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    public T HillSteadyState<TMath, T>(int g, T calciumMm) where TMath : ILaneMath<T> where T : struct
+    public T HillSteadyState<TMath, T>(int g, T calciumMm) where TMath : ILaneMath<T> where T : struct =>
+        HillSteadyState<TMath, T>(calciumMm, HillWholePower[g], TMath.Broadcast(HillMagnitude[g]), TMath.Broadcast(HillHalfPower[g]), HillRises[g]);
+
+    /// <summary>
+    /// The Hill steady state from a gate's constants (<see cref="HillWholePower"/>, <see cref="HillMagnitude"/>,
+    /// <see cref="HillHalfPower"/>, <see cref="HillRises"/>), for hot loops that keep them broadcast in locals.
+    /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    public static T HillSteadyState<TMath, T>(T calciumMm, int wholePower, T magnitude, T halfPower, bool rises) where TMath : ILaneMath<T> where T : struct
     {
         var c0 = TMath.Max(calciumMm, TMath.Broadcast(0));
         T cn;
-        int whole = HillWholePower[g];
-        if (whole > 0)
+        if (wholePower > 0)
         {
             cn = c0;
-            for (int h = 1; h < whole; h++) cn = TMath.Multiply(cn, c0);
+            for (int h = 1; h < wholePower; h++) cn = TMath.Multiply(cn, c0);
         }
-        else cn = TMath.Power(c0, TMath.Broadcast(HillMagnitude[g]));
-        var halfPower = TMath.Broadcast(HillHalfPower[g]);
-        return TMath.Divide(HillRises[g] ? cn : halfPower, TMath.Add(cn, halfPower));
+        else cn = TMath.Power(c0, magnitude);
+        return TMath.Divide(rises ? cn : halfPower, TMath.Add(cn, halfPower));
     }
 
     /// <summary>Multiplier of the rate sum in the exponent of a calcium-rate gate's decay over a step: -dt x rate factor x temperature factor.</summary>

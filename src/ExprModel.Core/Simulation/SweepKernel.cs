@@ -75,8 +75,19 @@ internal static unsafe class SweepKernel
         var gateEnd = plan.GateEnd;
         var power = plan.GatePower;
         bool anyInstant = plan.AnyInstantaneous;
-        var boundOpening = plan.BoundOpening;
-        var boundClosing = plan.BoundClosing;
+        // Calcium-bound (BK-type) rates and Hill constants, broadcast once from the plan.
+        var opens = plan.BoundOpening.Select(r => r.Opens).ToArray();
+        var openA = plan.BoundOpening.Select(r => Vector256.Create(r.MaxRatePerMs)).ToArray();
+        var openC1 = plan.BoundOpening.Select(r => Vector256.Create(r.DissociationAtZeroMm)).ToArray();
+        var openK = plan.BoundOpening.Select(r => Vector256.Create(r.MinusInverseKPerMv)).ToArray();
+        var closes = plan.BoundClosing.Select(r => r.Opens).ToArray();
+        var closeA = plan.BoundClosing.Select(r => Vector256.Create(r.MaxRatePerMs)).ToArray();
+        var closeC1 = plan.BoundClosing.Select(r => Vector256.Create(r.DissociationAtZeroMm)).ToArray();
+        var closeK = plan.BoundClosing.Select(r => Vector256.Create(r.MinusInverseKPerMv)).ToArray();
+        var hillWhole = plan.HillWholePower;
+        var hillV = plan.HillMagnitude.Select(Vector256.Create).ToArray();
+        var hillHalfPower = plan.HillHalfPower.Select(Vector256.Create).ToArray();
+        var hillRises = plan.HillRises;
         var shiftV = plan.GateShiftMv.Select(Vector256.Create).ToArray();
         // exp(-dt * (alpha + beta) * rateFactor * temperature factor): the same tau the scalar loop takes.
         var rateMult = Enumerable.Range(0, gates).Select(g => Vector256.Create(plan.CalciumRateExponent(g, dt))).ToArray();
@@ -174,8 +185,8 @@ internal static unsafe class SweepKernel
                     {
                         // BK-type: rates depend on V (with the channel's shift) and calcium; exact update for the step.
                         var vs = v - shiftV[g];
-                        var opening = boundOpening[g].Evaluate(vs, ca);
-                        var closing = boundClosing[g].Evaluate(vs, ca);
+                        var opening = CalciumBoundRate.Evaluate(opens[g], openA[g], openC1[g], openK[g], vs, ca);
+                        var closing = CalciumBoundRate.Evaluate(closes[g], closeA[g], closeC1[g], closeK[g], vs, ca);
                         var sum = opening + closing;
                         var inf = opening / sum;
                         x[g] = Fma.MultiplyAdd(x[g] - inf, InlineExp.Exp(sum * rateMult[g]), inf);
@@ -184,7 +195,7 @@ internal static unsafe class SweepKernel
                     if (kind == GateUpdate.CalciumHill)
                     {
                         // Hill steady state of a calcium-gated subunit; constant time constant.
-                        var inf = plan.HillSteadyState<VectorLanes, Vector256<double>>(g, ca);
+                        var inf = StepPlan.HillSteadyState<VectorLanes, Vector256<double>>(ca, hillWhole[g], hillV[g], hillHalfPower[g], hillRises[g]);
                         x[g] = Fma.MultiplyAdd(x[g] - inf, caDecay[g], inf);
                         continue;
                     }
