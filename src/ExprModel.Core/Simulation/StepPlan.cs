@@ -9,6 +9,8 @@ namespace ExprModel.Core.Simulation;
 /// (<see cref="GateUpdate"/>), holds the constants of calcium-gated subunits, and writes the two formulas every loop
 /// shares (the conductance product and the Hill steady state) once for any lane type (<see cref="ILaneMath{T}"/>).
 /// A new gate type gets a <see cref="GateUpdate"/> value, its constants here, and its case in each loop's gate switch.
+/// Hot loops copy the arrays (or, in the SIMD kernel, broadcast the constants) into locals before the loop and call the
+/// static forms of the formulas: with the plan itself live in the loop the JIT ran out of registers and spilled.
 /// </summary>
 internal sealed class StepPlan
 {
