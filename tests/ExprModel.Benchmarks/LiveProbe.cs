@@ -36,7 +36,51 @@ internal static class LiveProbe
                 Simulator.Resume(cell, step, from, Math.Min(700, t.SpikeTimesMs[0] + 9), settings with { RecordCurrents = false, RecordGateStates = true });
             });
             Console.WriteLine($"{name,-24} {cell.GateCount,3} gates  all {read,7:F1} | first cold {cold,6:F1} | first seeded {warm,6:F1} | second {second,6:F1} | step with currents {trace,6:F1}, as the Workbench runs it {workbench,5:F1}");
+            Moves(catalog, doc, hint);
         }
+    }
+
+    /// <summary>
+    /// One relative-density move as the web runner serves it: the moved document compiled for the trace and for the
+    /// read-outs, the trace as the Workbench runs it, the seeded first stage. Compiled afresh each time, or through a
+    /// <see cref="KineticsCache"/> (kinetics and rate tables reused).
+    /// </summary>
+    private static void Moves(ChannelCatalog catalog, ModelDocument doc, RheobaseHint? hint)
+    {
+        var rel = new[] { 0.7, 1.3, 0.85, 1.15, 0.6, 1.45, 0.95 };
+        var moved = rel.Select((r, i) => doc.WithRelativeDensities(new Dictionary<string, double> { [doc.Channels[i % doc.Channels.Count].Entry] = r })).ToArray();
+        var cache = new KineticsCache();
+        cache.Compile(catalog.BuildCell(doc));
+        var step = new StepCurrent(100, 500, 10);
+        var settings = SimulationSettings.Default with { RecordEvery = 1, KeepResumePoints = true };
+        int m = 0;
+        double Move(Func<ModelDocument, CompiledCell> compile, bool simulate)
+        {
+            var d = moved[m++ % moved.Length];
+            var sw = Stopwatch.StartNew();
+            var forTrace = compile(d);
+            var forReadouts = compile(d);
+            if (simulate)
+            {
+                Simulator.Run(forTrace, step, 700, settings);
+                Features.MeasureFirst(forReadouts, ReadoutSettings.Live, default, hint);
+            }
+            return sw.Elapsed.TotalMilliseconds;
+        }
+        CompiledCell Fresh(ModelDocument d) => new(catalog.BuildCell(d));
+        CompiledCell Cached(ModelDocument d) => cache.Compile(catalog.BuildCell(d));
+        double MedianOf(Func<double> run) => Enumerable.Range(0, 7).Select(_ => run()).Order().ElementAt(3);
+        // Compilation alone includes the first simulation's rate-table set-up, so each compiled cell runs 1 ms.
+        double CompileOnly(Func<ModelDocument, CompiledCell> compile) => MedianOf(() =>
+        {
+            var sw = Stopwatch.StartNew();
+            var c = compile(moved[m++ % moved.Length]);
+            Simulator.Run(c, new NoCurrent(), 1, SimulationSettings.SpikesOnly);
+            return sw.Elapsed.TotalMilliseconds;
+        });
+        double freshCompile = CompileOnly(Fresh), cachedCompile = CompileOnly(Cached);
+        double freshMove = MedianOf(() => Move(Fresh, true)), cachedMove = MedianOf(() => Move(Cached, true));
+        Console.WriteLine($"{"",-24} density move: compile + 1 ms run {freshCompile:F3} ms fresh, {cachedCompile:F3} ms via kinetics cache | whole move (2 compiles, Workbench trace, seeded first stage) {freshMove:F1} ms fresh, {cachedMove:F1} ms cached");
     }
 
     /// <summary>

@@ -3,123 +3,74 @@ using ExprModel.Core.Kinetics;
 
 namespace ExprModel.Core.Simulation;
 
-/// <summary>How a channel's current is computed in the hot loop.</summary>
-internal enum DriveMode : byte
-{
-    /// <summary>g (V - E) with a constant E.</summary>
-    Ohmic,
-    /// <summary>g (V - E_Ca) with E_Ca from the Nernst equation and the shell's current calcium.</summary>
-    NernstCalcium,
-    /// <summary>g * GHK(V, ca_in, ca_out).</summary>
-    GhkCalcium,
-}
-
-/// <summary>The full state of a cell at one instant: membrane potential, every gate, shell calcium.</summary>
-public sealed record CellState(double VoltageMv, double[] Gates, double CalciumMm);
-
 /// <summary>
-/// A <see cref="CellModel"/> flattened into arrays for the integrators: densities, reversal potentials,
-/// gate powers and temperature factors. Built once per model and shared by every lane of a sweep.
+/// A <see cref="CellModel"/> ready for the integrators: its <see cref="CellKinetics"/> (gates, reversal potentials,
+/// shell, step plan, rate tables) and its channel densities. Built once per model and shared by every lane of a sweep;
+/// a model that differs only in densities reuses the kinetics (<see cref="WithDensities"/>).
 /// </summary>
 public sealed class CompiledCell
 {
     public CellModel Model { get; }
+    /// <summary>Everything but the densities; shared by cells that differ only in densities.</summary>
+    public CellKinetics Kinetics { get; }
     public int ChannelCount { get; }
     public int GateCount { get; }
+    /// <summary>Maximal conductance density of each channel (mS/cm2), relative density applied.</summary>
     internal readonly double[] Gbar;
-    internal readonly double[] Erev;
-    internal readonly DriveMode[] Mode;
-    internal readonly int[] GateStart;
-    internal readonly int[] GateEnd;
-    internal readonly int[] GatePower;
-    internal readonly int[] GateChannel;
-    internal readonly GateSpec[] Gates;
-    internal readonly double[] GateShiftMv;
-    internal readonly double[] GateTemperatureFactor;
-    internal readonly bool[] GateIsCalcium;
-    internal readonly bool[] GateIsInstantaneous;
-    internal readonly double CapacitanceUfPerCm2;
-    internal readonly bool HasShell;
-    /// <summary>mM/ms of free calcium per uA/cm2 of inward calcium current: 10 / (2 F d[um] (1 + kappa)) (see <see cref="CalciumShell"/>).</summary>
-    internal readonly double ShellInflowPerCurrent;
-    internal readonly double ShellDecayMs;
-    internal readonly double ShellRestMm;
-    internal readonly double CalciumOutsideMm;
-    internal readonly double TemperatureC;
+    internal readonly StepPlan Plan;
+    internal double[] Erev => Kinetics.Erev;
+    internal DriveMode[] Mode => Kinetics.Mode;
+    internal bool[] GateIsInstantaneous => Kinetics.GateIsInstantaneous;
+    internal double CapacitanceUfPerCm2 => Kinetics.CapacitanceUfPerCm2;
+    internal bool HasShell => Kinetics.HasShell;
+    internal double ShellInflowPerCurrent => Kinetics.ShellInflowPerCurrent;
+    internal double ShellDecayMs => Kinetics.ShellDecayMs;
+    internal double ShellRestMm => Kinetics.ShellRestMm;
+    internal double CalciumOutsideMm => Kinetics.CalciumOutsideMm;
+    internal double TemperatureC => Kinetics.TemperatureC;
 
-    public CompiledCell(CellModel model)
+    public CompiledCell(CellModel model) : this(Checked(model), null) { }
+
+    private CompiledCell(CellModel model, CellKinetics? kinetics)
     {
-        if (model.Problem() is { } problem) throw new ModelException(problem);
         Model = model;
-        ChannelCount = model.Channels.Count;
-        Gbar = new double[ChannelCount];
-        Erev = new double[ChannelCount];
-        Mode = new DriveMode[ChannelCount];
-        GateStart = new int[ChannelCount];
-        GateEnd = new int[ChannelCount];
-        var powers = new List<int>();
-        var gateChannel = new List<int>();
-        var gates = new List<GateSpec>();
-        var shifts = new List<double>();
-        var factors = new List<double>();
-        TemperatureC = model.TemperatureC;
-        for (int c = 0; c < ChannelCount; c++)
-        {
-            var ch = model.Channels[c];
-            Gbar[c] = ch.EffectiveDensityMsPerCm2;
-            Erev[c] = model.ReversalPotentialMv(ch);
-            Mode[c] = ch.ReversalMv is null && ch.Entry.Ion == Ion.Calcium && model.CalciumShell is not null
-                ? ch.Entry.Reversal == ReversalRule.GoldmanHodgkinKatz ? DriveMode.GhkCalcium : ch.Entry.Reversal == ReversalRule.Nernst ? DriveMode.NernstCalcium : DriveMode.Ohmic
-                : ch.ReversalMv is null && ch.Entry.Reversal == ReversalRule.GoldmanHodgkinKatz ? DriveMode.GhkCalcium : DriveMode.Ohmic;
-            GateStart[c] = gates.Count;
-            double factor = ch.Entry.TemperatureFactor(model.TemperatureC) / ch.TauScale;
-            foreach (var g in ch.Entry.Gates)
-            {
-                gates.Add(g);
-                powers.Add(g.Power);
-                gateChannel.Add(c);
-                shifts.Add(ch.ShiftMv);
-                factors.Add(factor);
-            }
-            GateEnd[c] = gates.Count;
-        }
-        GateCount = gates.Count;
-        Gates = [.. gates];
-        GatePower = [.. powers];
-        GateChannel = [.. gateChannel];
-        GateShiftMv = [.. shifts];
-        GateTemperatureFactor = [.. factors];
-        GateIsCalcium = Gates.Select(g => g.Kind == GateKind.Calcium).ToArray();
-        GateIsInstantaneous = Gates.Select(g => g.Instantaneous).ToArray();
-        CapacitanceUfPerCm2 = model.Geometry.CapacitanceUfPerCm2;
-        CalciumOutsideMm = model.Ions.CalciumOutsideMm;
-        if (model.CalciumShell is { } shell)
-        {
-            HasShell = true;
-            ShellInflowPerCurrent = 10.0 / (2 * PhysicalConstants.Faraday * shell.DepthUm * (1 + shell.BufferCapacity));
-            ShellDecayMs = shell.DecayMs;
-            ShellRestMm = shell.RestMm;
-        }
-        else
-        {
-            ShellRestMm = model.Ions.CalciumInsideMm;
-        }
+        Kinetics = kinetics ?? new CellKinetics(model);
+        ChannelCount = Kinetics.ChannelCount;
+        GateCount = Kinetics.GateCount;
+        Gbar = model.Channels.Select(c => c.EffectiveDensityMsPerCm2).ToArray();
+        Plan = Kinetics.Plan;
     }
+
+    /// <summary>
+    /// The cell of <paramref name="model"/> on these kinetics, when the model differs from this cell's only in channel
+    /// densities (<see cref="CellKinetics.Matches"/>); rate tables and step plan are shared, not built again.
+    /// </summary>
+    /// <exception cref="ArgumentException">The model differs in more than densities (compile it instead).</exception>
+    public CompiledCell WithDensities(CellModel model)
+    {
+        if (!Kinetics.Matches(model)) throw new ArgumentException("the model differs from the compiled cell in more than channel densities; compile it instead", nameof(model));
+        return On(Kinetics, Checked(model));
+    }
+
+    /// <summary>A cell of <paramref name="model"/> (already checked, kinetics matching) on existing kinetics.</summary>
+    internal static CompiledCell On(CellKinetics kinetics, CellModel model) => new(model, kinetics);
+
+    internal static CellModel Checked(CellModel model) => model.Problem() is { } problem ? throw new ModelException(problem) : model;
+
+    /// <summary>Identifies what this cell simulates: cells with equal keys give the same results.</summary>
+    public CellKey Key => new(Kinetics.Id, Gbar);
 
     /// <summary>Channel names in model order, as "entry-id" (used to label recorded currents).</summary>
     public IReadOnlyList<string> ChannelIds => Model.Channels.Select(c => c.Entry.Id).ToArray();
 
     /// <summary>Steady state of gate g at V (mV) and calcium (mM), with the channel's voltage shift.</summary>
-    public double GateSteadyState(int g, double vMv, double calciumMm) => Gates[g].SteadyStateAt(vMv - GateShiftMv[g], calciumMm);
+    public double GateSteadyState(int g, double vMv, double calciumMm) => Kinetics.GateSteadyState(g, vMv, calciumMm);
 
     /// <summary>Time constant (ms) of gate g at V, scaled for temperature by Q10.</summary>
-    public double GateTimeConstantMs(int g, double vMv) => Gates[g].TimeConstantAt(vMv - GateShiftMv[g]) / GateTemperatureFactor[g];
+    public double GateTimeConstantMs(int g, double vMv) => Kinetics.GateTimeConstantMs(g, vMv);
 
     /// <summary>Time constant (ms) of gate g at V and intracellular calcium (BK-type gates depend on both).</summary>
-    public double GateTimeConstantMs(int g, double vMv, double calciumMm) => Gates[g].TimeConstantAt(vMv - GateShiftMv[g], calciumMm) / GateTemperatureFactor[g];
-
-    /// <summary>True for calcium gates written as voltage- and calcium-dependent rates (BK-type): tau varies every step.</summary>
-    internal bool GateHasCalciumRates(int g) => Gates[g].Kind == GateKind.Calcium && Gates[g].Calcium is null;
+    public double GateTimeConstantMs(int g, double vMv, double calciumMm) => Kinetics.GateTimeConstantMs(g, vMv, calciumMm);
 
     /// <summary>The state with V at <paramref name="vMv"/> and every gate at its steady state there.</summary>
     public CellState SteadyState(double vMv)
@@ -132,18 +83,7 @@ public sealed class CompiledCell
     public CellState InitialState() => SteadyState(Model.InitialVoltageMv);
 
     /// <summary>Conductance (mS/cm2) of channel c for the given gate values.</summary>
-    internal double Conductance(int c, ReadOnlySpan<double> gates)
-    {
-        double g = Gbar[c];
-        for (int k = GateStart[c]; k < GateEnd[c]; k++)
-        {
-            double x = gates[k];
-            double p = x;
-            for (int j = 1; j < GatePower[k]; j++) p *= x;
-            g *= p;
-        }
-        return g;
-    }
+    internal double Conductance(int c, ReadOnlySpan<double> gates) => Plan.Conductance<ScalarLanes, double>(c, Gbar[c], gates);
 
     /// <summary>Membrane current of channel c (uA/cm2, outward positive).</summary>
     internal double ChannelCurrent(int c, double vMv, ReadOnlySpan<double> gates, double calciumMm)
@@ -166,7 +106,7 @@ public sealed class CompiledCell
     {
         double sum = 0;
         for (int c = 0; c < ChannelCount; c++)
-            if (Model.Channels[c].Entry.Ion == Ion.Calcium) sum += ChannelCurrent(c, vMv, gates, calciumMm);
+            if (Plan.CarriesCalcium[c]) sum += ChannelCurrent(c, vMv, gates, calciumMm);
         return sum;
     }
 
@@ -213,19 +153,5 @@ public sealed class CompiledCell
         new(y[0], y.Slice(1, GateCount).ToArray(), HasShell ? y[GateCount + 1] : ShellRestMm);
 
     /// <summary>Names each gate as "entry-id.gate" for error messages.</summary>
-    public string GateLabel(int g) => $"{Model.Channels[GateChannel[g]].Entry.Id}.{Gates[g].Name}";
-}
-
-/// <summary>A model that cannot be simulated, with the parameter at fault.</summary>
-public sealed class ModelException(string message) : Exception(message);
-
-/// <summary>
-/// A simulation whose state left the physical range: names the time, the protocol step, the state and the
-/// channel carrying the largest current, so the user can see which parameter to fix.
-/// </summary>
-public sealed class SimulationBlowUpException(string message, double timeMs, string channel, CellState state) : Exception(message)
-{
-    public double TimeMs { get; } = timeMs;
-    public string Channel { get; } = channel;
-    public CellState State { get; } = state;
+    public string GateLabel(int g) => Kinetics.GateLabel(g);
 }

@@ -50,7 +50,7 @@ internal sealed unsafe class RateTable
         return q;
     }
 
-    public RateTable(CompiledCell cell, double dtMs)
+    public RateTable(CellKinetics cell, double dtMs)
     {
         DtMs = dtMs;
         Points = (int)Math.Round((MaxMv - MinMv) / ResolutionMv) + 1;
@@ -74,7 +74,7 @@ internal sealed unsafe class RateTable
     /// </summary>
     private static readonly System.Collections.Concurrent.ConcurrentDictionary<(Kinetics.GateSpec, double, double, double), double[]> Shared = new();
 
-    private static double[] Build(CompiledCell cell, int g, double dtMs, int points)
+    private static double[] Build(CellKinetics cell, int g, double dtMs, int points)
     {
         // Pinned (never moved by the GC), so the SIMD kernel can address tables by pointer without fixing them.
         var t = GC.AllocateUninitializedArray<double>(2 * points, pinned: true);

@@ -9,7 +9,8 @@ public sealed record SweepLane(IReadOnlyList<double> SpikeTimesMs, ResumePoint? 
 /// <summary>
 /// The sweep hot loop with four stimuli as SIMD lanes (AVX2 gathers from the rate tables, FMA, vector exp). Same staggered scheme and the same spike rule as the scalar
 /// loop, so results agree with it to rounding. Handles voltage gates from tables, calcium-gated (Hill) gates, calcium
-/// channels with a Nernst or GHK driving force and the calcium shell, exactly as the scalar loop orders them.
+/// channels with a Nernst or GHK driving force and the calcium shell, exactly as the scalar loop orders them. What each
+/// gate and channel needs comes from the cell's <see cref="StepPlan"/>; the shared formulas run here on <see cref="VectorLanes"/>.
 /// </summary>
 internal static unsafe class SweepKernel
 {
@@ -18,22 +19,8 @@ internal static unsafe class SweepKernel
     /// <summary>Integration steps between the snapshots kept for resume points.</summary>
     public const int CheckpointEverySteps = SimulationSettings.ResumePointEverySteps;
 
-    public static bool CanRun(CompiledCell cell) =>
-        Avx2.IsSupported && Fma.IsSupported
-        && Enumerable.Range(0, cell.GateCount).All(g => !cell.GateHasCalciumRates(g) || (IsCalciumRate(cell.Gates[g].Alpha) && IsCalciumRate(cell.Gates[g].Beta)));
-
-    private static bool IsCalciumRate(Kinetics.GateRate? r) => r is { Shape: Kinetics.RateShape.CalciumBoundOpening or Kinetics.RateShape.CalciumBoundClosing };
-
-    /// <summary>A calcium-bound rate (Moczydlowski &amp; Latorre 1983), as GateRate.Evaluate(v, ca) computes it.</summary>
-    [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    private static Vector256<double> CalciumRate(Kinetics.RateShape shape, Vector256<double> a, Vector256<double> c1, Vector256<double> minusInvK, Vector256<double> v, Vector256<double> ca)
-    {
-        var e = InlineExp.Exp(v * minusInvK);
-        var one = Vector256.Create(1.0);
-        return shape == Kinetics.RateShape.CalciumBoundOpening
-            ? a / (one + c1 * e / Vector256.Max(ca, Vector256.Create(1e-12)))
-            : a / (one + Vector256.Max(ca, Vector256.Create(0.0)) / (c1 * e));
-    }
+    /// <summary>True when the CPU has AVX2 and FMA and every calcium-rate gate uses the calcium-bound shapes evaluated here.</summary>
+    public static bool CanRun(CompiledCell cell) => Avx2.IsSupported && Fma.IsSupported && cell.Plan.CalciumRatesAreBound;
 
     /// <summary>
     /// Runs up to <c>Vector256<double>.Count</c> stimuli (each a step, or sampled per step) from the same initial state; returns each
@@ -79,41 +66,36 @@ internal static unsafe class SweepKernel
         var quads = table.QuadPointers();
         var x = new Vector256<double>[gates];
         for (int g = 0; g < gates; g++) x[g] = Vector256.Create(init.Gates[g]);
+        // Everything per gate and channel comes from the cell's step plan; only the broadcasts are made here.
+        var plan = cell.Plan;
         var gbar = cell.Gbar.Select(Vector256.Create).ToArray();
-        var erev = cell.Erev.Select(Vector256.Create).ToArray();
-        var power = cell.GatePower;
-        var instant = cell.GateIsInstantaneous;
-        bool anyInstant = instant.Any(b => b);
-        var gateStart = cell.GateStart;
-        var gateEnd = cell.GateEnd;
-        var isCaGate = cell.GateIsCalcium;
-        var caRates = Enumerable.Range(0, gates).Select(cell.GateHasCalciumRates).ToArray();
-        // Calcium-bound (BK-type) rates, broadcast once: shape, A, C1 and -1/K of the opening and the closing rate.
-        var openShape = new Kinetics.RateShape[gates];
-        var closeShape = new Kinetics.RateShape[gates];
-        var openA = new Vector256<double>[gates]; var openC1 = new Vector256<double>[gates]; var openK = new Vector256<double>[gates];
-        var closeA = new Vector256<double>[gates]; var closeC1 = new Vector256<double>[gates]; var closeK = new Vector256<double>[gates];
-        for (int g = 0; g < gates; g++)
-        {
-            if (!caRates[g]) continue;
-            var (o, c) = (cell.Gates[g].Alpha!, cell.Gates[g].Beta!);
-            (openShape[g], openA[g], openC1[g], openK[g]) = (o.Shape, Vector256.Create(o.A), Vector256.Create(o.C1), Vector256.Create(-1 / o.K));
-            (closeShape[g], closeA[g], closeC1[g], closeK[g]) = (c.Shape, Vector256.Create(c.A), Vector256.Create(c.C1), Vector256.Create(-1 / c.K));
-        }
-        var shiftV = cell.GateShiftMv.Select(Vector256.Create).ToArray();
+        var erev = plan.ErevMv.Select(Vector256.Create).ToArray();
+        var update = plan.Update;
+        var gateStart = plan.GateStart;
+        var gateEnd = plan.GateEnd;
+        var power = plan.GatePower;
+        bool anyInstant = plan.AnyInstantaneous;
+        // Calcium-bound (BK-type) rates and Hill constants, broadcast once from the plan.
+        var opens = plan.BoundOpening.Select(r => r.Opens).ToArray();
+        var openA = plan.BoundOpening.Select(r => Vector256.Create(r.MaxRatePerMs)).ToArray();
+        var openC1 = plan.BoundOpening.Select(r => Vector256.Create(r.DissociationAtZeroMm)).ToArray();
+        var openK = plan.BoundOpening.Select(r => Vector256.Create(r.MinusInverseKPerMv)).ToArray();
+        var closes = plan.BoundClosing.Select(r => r.Opens).ToArray();
+        var closeA = plan.BoundClosing.Select(r => Vector256.Create(r.MaxRatePerMs)).ToArray();
+        var closeC1 = plan.BoundClosing.Select(r => Vector256.Create(r.DissociationAtZeroMm)).ToArray();
+        var closeK = plan.BoundClosing.Select(r => Vector256.Create(r.MinusInverseKPerMv)).ToArray();
+        var hillWhole = plan.HillWholePower;
+        var hillV = plan.HillMagnitude.Select(Vector256.Create).ToArray();
+        var hillHalfPower = plan.HillHalfPower.Select(Vector256.Create).ToArray();
+        var hillRises = plan.HillRises;
+        var shiftV = plan.GateShiftMv.Select(Vector256.Create).ToArray();
         // exp(-dt * (alpha + beta) * rateFactor * temperature factor): the same tau the scalar loop takes.
-        var rateMult = Enumerable.Range(0, gates).Select(g => Vector256.Create(-dt * cell.Gates[g].RateFactor * cell.GateTemperatureFactor[g])).ToArray();
-        // Hill exponent magnitude and K^|n|; a negative coefficient (calcium-dependent inactivation) takes K^m / (K^m + ca^m).
-        var hill = cell.Gates.Select(gs => Math.Abs(gs.Calcium?.HillCoefficient ?? 1)).ToArray();
-        var hillV = hill.Select(Vector256.Create).ToArray();
-        var hillInteger = hill.Select(h => h == Math.Floor(h) && h is >= 1 and <= 8 ? (int)h : 0).ToArray();
-        var rises = cell.Gates.Select(gs => gs.Calcium?.RisesWithCalcium ?? true).ToArray();
-        var kdPow = cell.Gates.Select(gs => gs.Calcium is { } ca ? Vector256.Create(Math.Pow(ca.HalfActivationMm, Math.Abs(ca.HillCoefficient))) : default).ToArray();
+        var rateMult = Enumerable.Range(0, gates).Select(g => Vector256.Create(plan.CalciumRateExponent(g, dt))).ToArray();
         var caDecay = table.CalciumDecay.Select(Vector256.Create).ToArray();
-        var mode = cell.Mode;
-        bool anySpecial = mode.Any(m => m != DriveMode.Ohmic);
-        bool anyNernst = mode.Any(m => m == DriveMode.NernstCalcium), anyGhk = mode.Any(m => m == DriveMode.GhkCalcium);
-        var carriesCalcium = cell.Model.Channels.Select(ch => ch.Entry.Ion == Kinetics.Ion.Calcium).ToArray();
+        var mode = plan.Mode;
+        bool anySpecial = plan.AnyNonOhmic;
+        bool anyNernst = plan.AnyNernstCalcium, anyGhk = plan.AnyGhkCalcium;
+        var carriesCalcium = plan.CarriesCalcium;
         bool hasShell = cell.HasShell;
         var caOut = Vector256.Create(cell.CalciumOutsideMm);
         double vt2 = Kinetics.Nernst.ThermalVoltageMv(cell.TemperatureC, 2);
@@ -130,7 +112,6 @@ internal static unsafe class SweepKernel
         var vMin = Vector256.Create(RateTable.MinMv);
         var invRes = Vector256.Create(1.0 / RateTable.ResolutionMv);
         var zero = Vector256.Create(0.0);
-        var hillFloor = Vector256.Create(1e-300);
         var maxPos = Vector256.Create((double)(table.Points - 2));
         var half = Vector256.Create(0.5);
         var minusDtOverC = Vector256.Create(-dt / cell.CapacitanceUfPerCm2);
@@ -199,35 +180,27 @@ internal static unsafe class SweepKernel
                 }
                 for (int g = 0; g < gates; g++)
                 {
-                    if (caRates[g])
+                    var kind = update[g];
+                    if (kind == GateUpdate.CalciumRates)
                     {
                         // BK-type: rates depend on V (with the channel's shift) and calcium; exact update for the step.
                         var vs = v - shiftV[g];
-                        var opening = CalciumRate(openShape[g], openA[g], openC1[g], openK[g], vs, ca);
-                        var closing = CalciumRate(closeShape[g], closeA[g], closeC1[g], closeK[g], vs, ca);
+                        var opening = CalciumBoundRate.Evaluate(opens[g], openA[g], openC1[g], openK[g], vs, ca);
+                        var closing = CalciumBoundRate.Evaluate(closes[g], closeA[g], closeC1[g], closeK[g], vs, ca);
                         var sum = opening + closing;
                         var inf = opening / sum;
                         x[g] = Fma.MultiplyAdd(x[g] - inf, InlineExp.Exp(sum * rateMult[g]), inf);
                         continue;
                     }
-                    if (isCaGate[g])
+                    if (kind == GateUpdate.CalciumHill)
                     {
-                        // Hill steady state of a calcium-gated subunit (rising, or falling for calcium-dependent inactivation); constant time constant.
-                        Vector256<double> cn;
-                        if (hillInteger[g] > 0)
-                        {
-                            // Whole Hill coefficients (the usual case) by repeated multiplication.
-                            var c0 = Vector256.Max(ca, zero);
-                            cn = c0;
-                            for (int h = 1; h < hillInteger[g]; h++) cn *= c0;
-                        }
-                        else cn = InlineExp.Exp(hillV[g] * InlineLog.Log(Vector256.Max(ca, hillFloor)));
-                        var inf = (rises[g] ? cn : kdPow[g]) / (cn + kdPow[g]);
+                        // Hill steady state of a calcium-gated subunit; constant time constant.
+                        var inf = StepPlan.HillSteadyState<VectorLanes, Vector256<double>>(ca, hillWhole[g], hillV[g], hillHalfPower[g], hillRises[g]);
                         x[g] = Fma.MultiplyAdd(x[g] - inf, caDecay[g], inf);
                         continue;
                     }
                     double* q = quads[g];
-                    bool mid = instant[g];
+                    bool mid = kind == GateUpdate.TableInstantaneous;
                     var r0 = Avx.LoadVector256(q + (mid ? m0 : i0));
                     var r1 = Avx.LoadVector256(q + (mid ? m1 : i1));
                     var r2 = Avx.LoadVector256(q + (mid ? m2 : i2));
@@ -260,14 +233,7 @@ internal static unsafe class SweepKernel
                 var drivingGhk = anyGhk ? Ghk(v, ca, caOut, vt2v, invVt2) : zero;
                 for (int c = 0; c < channels; c++)
                 {
-                    var gc = gbar[c];
-                    for (int k = gateStart[c]; k < gateEnd[c]; k++)
-                    {
-                        var xv = x[k];
-                        var p = xv;
-                        for (int q = 1; q < power[k]; q++) p *= xv;
-                        gc *= p;
-                    }
+                    var gc = StepPlan.Conductance<VectorLanes, Vector256<double>>(gbar[c], x, gateStart[c], gateEnd[c], power);
                     gcs[c] = gc;
                     if (!anySpecial || mode[c] == DriveMode.Ohmic)
                     {

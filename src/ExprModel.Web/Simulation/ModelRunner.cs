@@ -21,12 +21,15 @@ public sealed class ModelRunner(ChannelCatalog catalog, SimulationGate gate)
 
     public ChannelCatalog Catalog => catalog;
 
-    /// <summary>Resolves the document's entries and compiles the cell; user errors come back as <see cref="UserInputException"/>.</summary>
+    /// <summary>
+    /// Resolves the document's entries and compiles the cell; user errors come back as <see cref="UserInputException"/>.
+    /// A document that differs from a recent one only in densities (a relative-density move) reuses its kinetics.
+    /// </summary>
     public CompiledCell Compile(ModelDocument doc)
     {
         try
         {
-            return new CompiledCell(doc.ToCellModel(catalog.Resolve));
+            return _kinetics.Compile(doc.ToCellModel(catalog.Resolve));
         }
         catch (Exception e) when (e is CatalogException or ModelFileException or ModelException or ArgumentException)
         {
@@ -75,17 +78,17 @@ public sealed class ModelRunner(ChannelCatalog catalog, SimulationGate gate)
     }
 
     /// <summary>
-    /// Read-outs of a model. Results are kept for the last <see cref="CacheSize"/> distinct models (keyed by the model
-    /// file's exact text, so any change is a new key): returning to an earlier slider position or to 100% is immediate.
+    /// Read-outs of a model. Results are kept for the last <see cref="CacheSize"/> distinct cells (keyed by what the cell
+    /// simulates, <see cref="CompiledCell.Key"/>: its kinetics and densities): returning to an earlier slider position or
+    /// to 100% is immediate.
     /// </summary>
     /// <remarks>Only the Workbench's live loop uses the cache; the API and the shared-model check always measure afresh.</remarks>
     public async Task<ReadoutSet> ReadoutsAsync(ModelDocument doc, CancellationToken cancel, bool useCache = false)
     {
         var cell = Compile(doc);
-        var key = doc.ToJson();
-        if (useCache && _cache.TryGetValue(key, out var hit)) return hit;
+        if (useCache && _cache.TryGetValue(cell.Key, out var hit)) return hit;
         var set = await gate.RunAsync(token => Readouts(cell, token), cancel);
-        Remember(key, set);
+        Remember(cell.Key, set);
         return set;
     }
 
@@ -97,7 +100,7 @@ public sealed class ModelRunner(ChannelCatalog catalog, SimulationGate gate)
     public async Task<ReadoutSet> FirstReadoutsAsync(ModelDocument doc, RheobaseHint? rheobaseHint, CancellationToken cancel)
     {
         var cell = Compile(doc);
-        if (_cache.TryGetValue(doc.ToJson(), out var hit)) return hit;
+        if (_cache.TryGetValue(cell.Key, out var hit)) return hit;
         return await gate.RunAsync(token =>
         {
             var first = Guard(() => Features.MeasureFirst(cell, ReadoutSettings.Live, token, rheobaseHint));
@@ -110,7 +113,7 @@ public sealed class ModelRunner(ChannelCatalog catalog, SimulationGate gate)
     {
         if (first.IsComplete || first.Continuation is not { } c) return first;
         var set = await gate.RunAsync(token => ToSet(Guard(() => Features.Complete(c.Cell, c.Stage, ReadoutSettings.Live, token))), cancel);
-        Remember(doc.ToJson(), set);
+        Remember(c.Cell.Key, set);
         return set;
     }
 
@@ -120,7 +123,7 @@ public sealed class ModelRunner(ChannelCatalog catalog, SimulationGate gate)
     /// </summary>
     public void Adopt(ModelDocument doc, ReadoutSet set)
     {
-        if (set.IsComplete) Remember(doc.ToJson(), set);
+        if (set.IsComplete) Remember(Compile(doc).Key, set);
     }
 
     /// <summary>Cells per request of a per-cell batch: each chunk is one bounded request (time cap, a gate slot).</summary>
@@ -148,14 +151,18 @@ public sealed class ModelRunner(ChannelCatalog catalog, SimulationGate gate)
         return done;
     }
 
-    private void Remember(string key, ReadoutSet set)
+    private void Remember(CellKey key, ReadoutSet set)
     {
         if (_cache.Count >= CacheSize) _cache.Clear();
         _cache[key] = set;
     }
 
     public const int CacheSize = 512;
-    private readonly System.Collections.Concurrent.ConcurrentDictionary<string, ReadoutSet> _cache = new(StringComparer.Ordinal);
+    private readonly System.Collections.Concurrent.ConcurrentDictionary<CellKey, ReadoutSet> _cache = new();
+    private readonly KineticsCache _kinetics = new();
+
+    /// <summary>Kinetics compiled so far: a relative-density move adds none (test hook).</summary>
+    internal int KineticsBuilt => _kinetics.KineticsBuilt;
 
     /// <summary>The trace of one step with channel currents, shaped for the plots.</summary>
     public static StepView Step(CompiledCell cell, StepProtocol step, CancellationToken cancel)

@@ -10,7 +10,7 @@ namespace ExprModel.Core.Tests.Simulation;
 /// </summary>
 public class ResumePointTests
 {
-    [Theory]
+    [SimdTheory]
     [InlineData("cortex-rs2008", 1.2)]  // first spike late in the step (slow ramp near rheobase)
     [InlineData("cortex-rs2008", 4.0)]
     [InlineData("wb1996", 0.5)]
@@ -39,7 +39,7 @@ public class ResumePointTests
             Assert.True(Math.Abs(whole.VoltageMv[offset + i] - resumed.VoltageMv[i]) < 1e-6, $"sample {i}: whole {whole.VoltageMv[offset + i]}, resumed {resumed.VoltageMv[i]}");
     }
 
-    [Fact]
+    [SimdFact]
     public void No_resume_point_is_kept_unless_asked_for_or_when_no_spike_comes()
     {
         var cell = TestCatalog.Preset("wb1996");
@@ -50,7 +50,7 @@ public class ResumePointTests
         Assert.All(Simulator.Sweep(cell, [Protocols.Step(3, 100, 500)], 620, SimulationSettings.SpikesOnly, rest), l => Assert.Null(l.BeforeFirstSpike));
     }
 
-    [Fact]
+    [SimdFact]
     public void Spike_shape_at_rheobase_is_the_same_whether_or_not_the_search_kept_a_resume_point()
     {
         // The scalar loop keeps no resume points, so MeasureFirst records the rheobase step from onset there.

@@ -8,7 +8,7 @@ namespace ExprModel.Core.Tests.Simulation;
 /// <summary>The SIMD sweep must give the scalar loop's spikes (same scheme; only rounding may differ).</summary>
 public class SweepKernelTests
 {
-    [Theory]
+    [SimdTheory]
     [InlineData("hh1952", 19.375)]
     [InlineData("wb1996", 2.0)]
     [InlineData("cortex-rs2008", 4.0)]
@@ -20,7 +20,7 @@ public class SweepKernelTests
         Assert.True(scalar.Sum(p => p.SpikesInStep) > 20);
     }
 
-    [Theory]
+    [SimdTheory]
     [InlineData(ReversalRule.Nernst)]
     [InlineData(ReversalRule.GoldmanHodgkinKatz)]
     public void SimdSweepMatchesScalarLoopWithCalciumShellAndCalciumGatedPotassium(ReversalRule rule)
@@ -52,19 +52,5 @@ public class SweepKernelTests
         // Calcium-activated potassium current slows firing compared with the cell without it.
         var plain = FiCurve.Measure(new CompiledCell(preset), amps, 500);
         Assert.True(plain[^1].SpikesInStep > scalar[^1].SpikesInStep, $"with SK {scalar[^1].SpikesInStep}, without {plain[^1].SpikesInStep}");
-    }
-}
-
-public class StimulusSamplingTests
-{
-    [Theory]
-    [InlineData(100, 1000, 0.025, 44800)]
-    [InlineData(0.0125, 3.3, 0.025, 500)]
-    [InlineData(7, 2000, 0.01, 1000)]
-    public void StepFillMatchesTheMidpointRule(double delay, double duration, double dt, int steps)
-    {
-        var step = new StepCurrent(delay, duration, 2.5, 0.5);
-        var filled = step.Sample(dt, steps);
-        for (int i = 0; i < steps; i++) Assert.Equal(step.DensityAt((i + 0.5) * dt), filled[i]);
     }
 }
