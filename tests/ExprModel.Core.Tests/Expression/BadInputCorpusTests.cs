@@ -4,6 +4,7 @@ using ExprModel.Core.Expression;
 using ExprModel.Core.Expression.AnnData;
 using ExprModel.Core.Expression.Metadata;
 using PureHDF;
+using ExprModel.Core.Tests.Expression.AnnData;
 using Xunit.Abstractions;
 
 namespace ExprModel.Core.Tests.Expression;

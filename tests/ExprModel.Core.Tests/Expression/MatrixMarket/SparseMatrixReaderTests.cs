@@ -1,7 +1,7 @@
 using ExprModel.Core.Expression;
 using ExprModel.Core.Expression.MatrixMarket;
 
-namespace ExprModel.Core.Tests.Expression;
+namespace ExprModel.Core.Tests.Expression.MatrixMarket;
 
 public sealed class SparseMatrixReaderTests : IDisposable
 {

@@ -9,14 +9,14 @@ using Microsoft.AspNetCore.Components;
 using Microsoft.Extensions.DependencyInjection;
 using Microsoft.Extensions.Options;
 
-namespace ExprModel.Web.Tests.Components;
+namespace ExprModel.Web.Tests.Components.Pages;
 
 /// <summary>The Workbench page with the real catalog, simulator and read-outs (no browser; plots are not drawn).</summary>
-public sealed class WorkbenchPageTests : BunitContext
+public sealed class WorkbenchTests : BunitContext
 {
     private readonly string _dir = Path.Combine(Path.GetTempPath(), "exprmodel-bunit-" + Guid.NewGuid().ToString("N"));
 
-    public WorkbenchPageTests()
+    public WorkbenchTests()
     {
         JSInterop.Mode = JSRuntimeMode.Loose;
         Directory.CreateDirectory(_dir);

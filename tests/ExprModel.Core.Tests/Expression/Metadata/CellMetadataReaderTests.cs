@@ -1,7 +1,7 @@
 using ExprModel.Core.Expression;
 using ExprModel.Core.Expression.Metadata;
 
-namespace ExprModel.Core.Tests.Expression;
+namespace ExprModel.Core.Tests.Expression.Metadata;
 
 public sealed class CellMetadataReaderTests : IDisposable
 {

@@ -1,6 +1,6 @@
 using ExprModel.Web.Simulation;
 
-namespace ExprModel.Web.Tests.Components;
+namespace ExprModel.Web.Tests.Simulation;
 
 public sealed class StepViewTests
 {

@@ -4,7 +4,7 @@ using PureHDF;
 using PureHDF.Filters;
 using PureHDF.VOL.Native;
 
-namespace ExprModel.Core.Tests.Expression;
+namespace ExprModel.Core.Tests.Expression.AnnData;
 
 /// <summary>
 /// h5ad files are written here with PureHDF following the AnnData on-disk layout (anndata documentation, "On-disk

@@ -1,7 +1,7 @@
 using ExprModel.Core.Expression;
 using ExprModel.Core.Expression.Delimited;
 
-namespace ExprModel.Core.Tests.Expression;
+namespace ExprModel.Core.Tests.Expression.Delimited;
 
 public sealed class DelimitedTableReaderTests : IDisposable
 {

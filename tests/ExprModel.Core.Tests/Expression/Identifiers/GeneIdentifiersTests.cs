@@ -1,6 +1,6 @@
 using ExprModel.Core.Expression.Identifiers;
 
-namespace ExprModel.Core.Tests.Expression;
+namespace ExprModel.Core.Tests.Expression.Identifiers;
 
 public sealed class GeneIdentifiersTests
 {

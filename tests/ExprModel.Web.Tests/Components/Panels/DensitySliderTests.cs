@@ -2,7 +2,7 @@ using Bunit;
 using ExprModel.Web.Components.Panels;
 using Microsoft.AspNetCore.Components;
 
-namespace ExprModel.Web.Tests.Components;
+namespace ExprModel.Web.Tests.Components.Panels;
 
 public sealed class DensitySliderTests : BunitContext
 {
