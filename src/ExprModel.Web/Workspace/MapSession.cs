@@ -154,14 +154,18 @@ public sealed class MapSession : IDisposable
     }
 
     /// <summary>Makes the built model <paramref name="label"/> the Workbench's model.</summary>
-    public void OpenBuilt(string label) =>
-        _workspace.Open(_workspace.GroupModels[label], "built from " + (Expression?.Dataset.Groups is null ? "cell " : "group ") + label);
+    public void OpenBuilt(string label)
+    {
+        bool perCell = Expression?.Dataset.Groups is null;
+        _workspace.Open(_workspace.GroupModels[label], "built from " + (perCell ? "cell " : "group ") + label, null,
+            perCell ? ModelTarget.ForCell(label) : ModelTarget.ForGroup(label));
+    }
 
     /// <summary>Makes the first group's model the Workbench's model, for a comparison of the groups there.</summary>
     public void OpenFirstGroup()
     {
         var first = _workspace.GroupModels.First();
-        _workspace.Open(first.Value, "built from group " + first.Key);
+        _workspace.Open(first.Value, "built from group " + first.Key, null, ModelTarget.ForGroup(first.Key));
     }
 
     /// <summary>Read-outs of every built model, one after another, with progress; cancellable between and within models.</summary>
