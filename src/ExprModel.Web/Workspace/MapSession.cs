@@ -26,6 +26,7 @@ public sealed class MapSession : IDisposable
         ReferenceGroup = r.ReferenceGroup ?? "";
         Exponent = r.Exponent; Clamp = r.ClampToPlausibleRange; CapacitancePf = r.CapacitancePf; TemperatureC = r.TemperatureC;
         CellBatch = new CellBatchJob(workspace, runner, changed);
+        Confrontation = new ConfrontationView(workspace, CellBatch);
         Remap();
     }
 
@@ -51,6 +52,9 @@ public sealed class MapSession : IDisposable
     public int BatchTotal { get; private set; }
 
     public CellBatchJob CellBatch { get; }
+    /// <summary>The every-cell read-outs against the recorded values, when some are loaded.</summary>
+    public ConfrontationView Confrontation { get; }
+    public bool HasRecorded => _workspace.Recorded.Features is { Readouts.Count: > 0 };
 
     /// <summary>Shows <paramref name="message"/> to the user (a download that failed, say).</summary>
     public void Refuse(string message)

@@ -16,6 +16,9 @@ public sealed record SnapshotProtocol
 public sealed record OpenedSnapshot(Snapshot Stored, ModelDocument Model, SnapshotProtocol Protocol,
     IReadOnlyList<ReadoutRow> SavedReadouts, IReadOnlyList<ReadoutRow> RerunReadouts)
 {
+    /// <summary>The recorded values stored with the snapshot (null when the model's cell or group had none, or it predates them).</summary>
+    public SnapshotRecorded? Recorded { get; init; }
+
     /// <summary>True when the re-run reproduces every saved read-out exactly (same bits).</summary>
     public bool Reproduced => SavedReadouts.Count == RerunReadouts.Count &&
         SavedReadouts.Zip(RerunReadouts).All(p => p.First.Name == p.Second.Name && Same(p.First.Value, p.Second.Value));
@@ -31,8 +34,9 @@ public sealed class SnapshotService(SnapshotStore store, ModelRunner runner)
 
     public SnapshotStore Store => store;
 
+    /// <param name="recorded">What was recorded from the model's cell or group, stored beside its read-outs.</param>
     public async Task<(Snapshot Snapshot, ReadoutSet Readouts)> SaveAsync(ModelDocument model, SnapshotProtocol protocol, string notes,
-        string? parentId, byte[]? expression, string? expressionName, CancellationToken cancel)
+        string? parentId, byte[]? expression, string? expressionName, CancellationToken cancel, SnapshotRecorded? recorded = null)
     {
         if (parentId is not null && store.Find(parentId) is null) throw new UserInputException($"parentId: no shared model '{parentId}' exists.");
         var pinned = runner.Pin(model) with { Caution = ResearchCaution.Text };
@@ -50,6 +54,7 @@ public sealed class SnapshotService(SnapshotStore store, ModelRunner runner)
                 Notes = notes,
                 Expression = expression,
                 ExpressionName = expressionName,
+                RecordedJson = recorded is null ? null : JsonSerializer.Serialize(recorded, Json),
             });
             return (snap, readouts);
         }
@@ -68,6 +73,7 @@ public sealed class SnapshotService(SnapshotStore store, ModelRunner runner)
         var protocol = JsonSerializer.Deserialize<SnapshotProtocol>(snap.ProtocolJson, Json) ?? new SnapshotProtocol();
         var saved = JsonSerializer.Deserialize<List<ReadoutRow>>(snap.ReadoutsJson, Json) ?? [];
         var rerun = await runner.ReadoutsAsync(model, cancel);
-        return new OpenedSnapshot(snap, model, protocol, saved, rerun.Rows);
+        var recorded = snap.RecordedJson is { } r ? JsonSerializer.Deserialize<SnapshotRecorded>(r, Json) : null;
+        return new OpenedSnapshot(snap, model, protocol, saved, rerun.Rows) { Recorded = recorded };
     }
 }

@@ -310,7 +310,7 @@ public sealed class WorkbenchSession(ModelRunner runner, WorkspaceState workspac
             // The live table, if it is complete and belongs to the model being shared.
             var live = !Busy && Table.Pending.Count == 0 ? Table.Rows : null;
             var (snap, stored) = await snapshots.SaveAsync(model, new SnapshotProtocol { Step = Protocol, Fi = Fi }, notes, workspace.ParentSnapshotId,
-                expression, storeExpression ? workspace.ExpressionName : null, CancellationToken.None);
+                expression, storeExpression ? workspace.ExpressionName : null, CancellationToken.None, SnapshotRecorded.Of(workspace));
             SharedSnapshotId = snap.Id;
             ShareNote = null;
             Error = null;
