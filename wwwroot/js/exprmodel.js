@@ -42,11 +42,15 @@ window.exprModel.downloadFigure = function (id, format, fileName, height) {
       return;
     }
     const data = entry.traces.map(function (t) {
-      return {
+      const trace = {
         type: 'scatter', name: t.name, x: t.x, y: t.y,
-        mode: t.markers ? 'lines+markers' : 'lines',
+        mode: t.pointsOnly ? 'markers' : t.markers ? 'lines+markers' : 'lines',
         line: { color: t.color, width: 1.6, dash: t.dashed ? 'dash' : 'solid' }
       };
+      // Only scatters carry these keys: the plot library reads a present key as an object.
+      if (t.pointsOnly) trace.marker = { color: t.color, size: 7 };
+      if (t.labels) trace.text = t.labels;
+      return trace;
     });
     // A legend for one line says nothing and costs a redraw: shown only when lines are compared.
     el.layout.showlegend = data.length > 1;

@@ -11,4 +11,5 @@ public sealed record NewSnapshot
     public string Notes { get; init; } = "";
     public byte[]? Expression { get; init; }
     public string? ExpressionName { get; init; }
+    public string? RecordedJson { get; init; }
 }

@@ -22,4 +22,7 @@ public sealed record Snapshot
     /// <summary>The raw expression table, stored only when the user asked for it.</summary>
     public byte[]? Expression { get; init; }
     public string? ExpressionName { get; init; }
+    /// <summary>What was recorded from the cell or group the model was built for (JSON, the app's own shape); null when
+    /// nothing was, and in snapshots made before schema 2.</summary>
+    public string? RecordedJson { get; init; }
 }

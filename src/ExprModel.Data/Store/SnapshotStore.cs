@@ -11,7 +11,8 @@ namespace ExprModel.Data.Store;
 /// </summary>
 public sealed class SnapshotStore
 {
-    public const int SchemaVersion = 1;
+    /// <summary>2 added <c>recorded_json</c>; a schema-1 database is migrated on opening (the column is added, old rows read it as null).</summary>
+    public const int SchemaVersion = 2;
     public const int IdBytes = 16;
     public const int MaxNotesLength = 20_000;
 
@@ -27,7 +28,8 @@ public sealed class SnapshotStore
             readouts_json TEXT NOT NULL,
             notes TEXT NOT NULL,
             expression BLOB,
-            expression_name TEXT);
+            expression_name TEXT,
+            recorded_json TEXT);
         CREATE INDEX IF NOT EXISTS snapshots_by_parent ON snapshots(parent_id);
         CREATE TRIGGER IF NOT EXISTS snapshots_immutable_update BEFORE UPDATE ON snapshots
             BEGIN SELECT RAISE(ABORT, 'snapshots are immutable'); END;
@@ -57,6 +59,14 @@ public sealed class SnapshotStore
             if (found is null)
             {
                 cmd.CommandText = "INSERT INTO store_meta VALUES ('schema_version', $v)";
+                cmd.Parameters.AddWithValue("$v", SchemaVersion.ToString(CultureInfo.InvariantCulture));
+                cmd.ExecuteNonQuery();
+            }
+            else if (found == "1")
+            {
+                // Adding a nullable column rewrites no row (the immutability triggers guard UPDATE and DELETE, not ALTER), so
+                // every snapshot already shared reads back as it was, with no recorded values; done in the opening transaction.
+                cmd.CommandText = "ALTER TABLE snapshots ADD COLUMN recorded_json TEXT; UPDATE store_meta SET value = $v WHERE key = 'schema_version'";
                 cmd.Parameters.AddWithValue("$v", SchemaVersion.ToString(CultureInfo.InvariantCulture));
                 cmd.ExecuteNonQuery();
             }
@@ -103,6 +113,7 @@ public sealed class SnapshotStore
             Notes = s.Notes,
             Expression = s.Expression,
             ExpressionName = s.Expression is null ? null : s.ExpressionName ?? "expression",
+            RecordedJson = s.RecordedJson,
         };
         using var conn = Connect();
         using var tx = conn.BeginTransaction();
@@ -116,7 +127,8 @@ public sealed class SnapshotStore
                 throw new SnapshotException($"parentId: no snapshot '{snap.ParentId}' exists.");
             cmd.Parameters.Clear();
         }
-        cmd.CommandText = "INSERT INTO snapshots VALUES ($id, $parent, $created, $model, $versions, $protocol, $readouts, $notes, $expr, $exprName)";
+        cmd.CommandText = "INSERT INTO snapshots (snapshot_id, parent_id, created_utc, model_json, catalog_versions, protocol_json, readouts_json, notes, expression, "
+            + "expression_name, recorded_json) VALUES ($id, $parent, $created, $model, $versions, $protocol, $readouts, $notes, $expr, $exprName, $recorded)";
         cmd.Parameters.AddWithValue("$id", snap.Id);
         cmd.Parameters.AddWithValue("$parent", (object?)snap.ParentId ?? DBNull.Value);
         cmd.Parameters.AddWithValue("$created", snap.CreatedUtc.ToString("O", CultureInfo.InvariantCulture));
@@ -127,6 +139,7 @@ public sealed class SnapshotStore
         cmd.Parameters.AddWithValue("$notes", snap.Notes);
         cmd.Parameters.AddWithValue("$expr", (object?)snap.Expression ?? DBNull.Value);
         cmd.Parameters.AddWithValue("$exprName", (object?)snap.ExpressionName ?? DBNull.Value);
+        cmd.Parameters.AddWithValue("$recorded", (object?)snap.RecordedJson ?? DBNull.Value);
         cmd.ExecuteNonQuery();
         tx.Commit();
         return snap;
@@ -138,7 +151,7 @@ public sealed class SnapshotStore
         if (!IsWellFormedId(id)) return null;
         using var conn = Connect();
         using var cmd = conn.CreateCommand();
-        cmd.CommandText = "SELECT snapshot_id, parent_id, created_utc, model_json, catalog_versions, protocol_json, readouts_json, notes, expression, expression_name FROM snapshots WHERE snapshot_id = $id";
+        cmd.CommandText = "SELECT snapshot_id, parent_id, created_utc, model_json, catalog_versions, protocol_json, readouts_json, notes, expression, expression_name, recorded_json FROM snapshots WHERE snapshot_id = $id";
         cmd.Parameters.AddWithValue("$id", id);
         using var r = cmd.ExecuteReader();
         if (!r.Read()) return null;
@@ -155,6 +168,7 @@ public sealed class SnapshotStore
             Notes = r.GetString(7),
             Expression = r.IsDBNull(8) ? null : (byte[])r[8],
             ExpressionName = r.IsDBNull(9) ? null : r.GetString(9),
+            RecordedJson = r.IsDBNull(10) ? null : r.GetString(10),
         };
     }
 

@@ -135,15 +135,16 @@ public sealed class ModelRunner(ChannelCatalog catalog, SimulationGate gate)
     /// the job can be cancelled between and within chunks. <paramref name="progress"/> gets the number of cells done.
     /// </summary>
     /// <param name="chunkDone">Gets each chunk's rows as soon as they are measured, so a cancelled job keeps what it has.</param>
+    /// <param name="shrinkage">Per-cell expression estimates (<see cref="ExpressionDataset.Shrink"/>); null builds each cell from its raw values.</param>
     public async Task<int> CellBatchAsync(ExpressionDataset data, MappingReport report, DensityRule rule, Action<int> progress, CancellationToken cancel,
-        Action<IReadOnlyList<BatchRow>> chunkDone)
+        Action<IReadOnlyList<BatchRow>> chunkDone, PerCellShrinkage? shrinkage = null)
     {
         var targets = data.CellTargets;
         int done = 0;
         for (int from = 0; from < targets.Count; from += CellBatchChunk)
         {
             int start = from, to = Math.Min(targets.Count, from + CellBatchChunk);
-            var rows = await gate.RunAsync(token => BatchReadouts.Run(data.Table, report, data.Catalog, rule, targets, data.Groups, start, to, null, token), cancel);
+            var rows = await gate.RunAsync(token => BatchReadouts.Run(data.Table, report, data.Catalog, rule, targets, data.Groups, start, to, null, token, shrinkage), cancel);
             chunkDone(rows);
             done += rows.Count;
             progress(done);

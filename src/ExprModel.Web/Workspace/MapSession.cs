@@ -26,6 +26,7 @@ public sealed class MapSession : IDisposable
         ReferenceGroup = r.ReferenceGroup ?? "";
         Exponent = r.Exponent; Clamp = r.ClampToPlausibleRange; CapacitancePf = r.CapacitancePf; TemperatureC = r.TemperatureC;
         CellBatch = new CellBatchJob(workspace, runner, changed);
+        Confrontation = new ConfrontationView(workspace, CellBatch);
         Remap();
     }
 
@@ -51,6 +52,9 @@ public sealed class MapSession : IDisposable
     public int BatchTotal { get; private set; }
 
     public CellBatchJob CellBatch { get; }
+    /// <summary>The every-cell read-outs against the recorded values, when some are loaded.</summary>
+    public ConfrontationView Confrontation { get; }
+    public bool HasRecorded => _workspace.Recorded.Features is { Readouts.Count: > 0 };
 
     /// <summary>Shows <paramref name="message"/> to the user (a download that failed, say).</summary>
     public void Refuse(string message)
@@ -154,14 +158,18 @@ public sealed class MapSession : IDisposable
     }
 
     /// <summary>Makes the built model <paramref name="label"/> the Workbench's model.</summary>
-    public void OpenBuilt(string label) =>
-        _workspace.Open(_workspace.GroupModels[label], "built from " + (Expression?.Dataset.Groups is null ? "cell " : "group ") + label);
+    public void OpenBuilt(string label)
+    {
+        bool perCell = Expression?.Dataset.Groups is null;
+        _workspace.Open(_workspace.GroupModels[label], "built from " + (perCell ? "cell " : "group ") + label, null,
+            perCell ? ModelTarget.ForCell(label) : ModelTarget.ForGroup(label));
+    }
 
     /// <summary>Makes the first group's model the Workbench's model, for a comparison of the groups there.</summary>
     public void OpenFirstGroup()
     {
         var first = _workspace.GroupModels.First();
-        _workspace.Open(first.Value, "built from group " + first.Key);
+        _workspace.Open(first.Value, "built from group " + first.Key, null, ModelTarget.ForGroup(first.Key));
     }
 
     /// <summary>Read-outs of every built model, one after another, with progress; cancellable between and within models.</summary>

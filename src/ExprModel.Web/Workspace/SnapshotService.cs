@@ -12,8 +12,9 @@ public sealed class SnapshotService(SnapshotStore store, ModelRunner runner)
 
     public SnapshotStore Store => store;
 
+    /// <param name="recorded">What was recorded from the model's cell or group, stored beside its read-outs.</param>
     public async Task<(Snapshot Snapshot, ReadoutSet Readouts)> SaveAsync(ModelDocument model, SnapshotProtocol protocol, string notes,
-        string? parentId, byte[]? expression, string? expressionName, CancellationToken cancel)
+        string? parentId, byte[]? expression, string? expressionName, CancellationToken cancel, SnapshotRecorded? recorded = null)
     {
         if (parentId is not null && store.Find(parentId) is null) throw new UserInputException($"parentId: no shared model '{parentId}' exists.");
         var pinned = runner.Pin(model) with { Caution = ResearchCaution.Text };
@@ -31,6 +32,7 @@ public sealed class SnapshotService(SnapshotStore store, ModelRunner runner)
                 Notes = notes,
                 Expression = expression,
                 ExpressionName = expressionName,
+                RecordedJson = recorded is null ? null : JsonSerializer.Serialize(recorded, Json),
             });
             return (snap, readouts);
         }
@@ -49,6 +51,7 @@ public sealed class SnapshotService(SnapshotStore store, ModelRunner runner)
         var protocol = JsonSerializer.Deserialize<SnapshotProtocol>(snap.ProtocolJson, Json) ?? new SnapshotProtocol();
         var saved = JsonSerializer.Deserialize<List<ReadoutRow>>(snap.ReadoutsJson, Json) ?? [];
         var rerun = await runner.ReadoutsAsync(model, cancel);
-        return new OpenedSnapshot(snap, model, protocol, saved, rerun.Rows);
+        var recorded = snap.RecordedJson is { } r ? JsonSerializer.Deserialize<SnapshotRecorded>(r, Json) : null;
+        return new OpenedSnapshot(snap, model, protocol, saved, rerun.Rows) { Recorded = recorded };
     }
 }

@@ -1,6 +1,7 @@
 using System.Globalization;
 using ExprModel.Core.Analysis;
 using ExprModel.Core.Cell;
+using ExprModel.Core.Mapping;
 using ExprModel.Core.Models;
 using ExprModel.Data.Catalog;
 using ExprModel.Web.Simulation;
@@ -64,7 +65,7 @@ public sealed class WorkbenchSession(ModelRunner runner, WorkspaceState workspac
     public void OpenInitial(string? presetId)
     {
         if (presetId is { Length: > 0 } id && catalog.Presets.TryGetValue(id, out var p)) Open(p, "published model " + id, null);
-        else if (workspace.Model is { } m) Open(m, workspace.ModelOrigin, workspace.ParentSnapshotId);
+        else if (workspace.Model is { } m) Open(m, workspace.ModelOrigin, workspace.ParentSnapshotId, workspace.ModelTarget);
         else Open(catalog.Preset("wb1996"), "published model wb1996", null);
     }
 
@@ -73,7 +74,8 @@ public sealed class WorkbenchSession(ModelRunner runner, WorkspaceState workspac
     {
         Variants.Clear();
         if (choice.StartsWith("preset:", StringComparison.Ordinal)) Open(catalog.Preset(choice[7..]), "published model " + choice[7..], null);
-        else if (choice.StartsWith("group:", StringComparison.Ordinal) && workspace.GroupModels.TryGetValue(choice[6..], out var g)) Open(g, "built from group " + choice[6..], null);
+        else if (choice.StartsWith("group:", StringComparison.Ordinal) && workspace.GroupModels.TryGetValue(choice[6..], out var g))
+            Open(g, "built from group " + choice[6..], null, workspace.Session?.Dataset.Groups is null ? ModelTarget.ForCell(choice[6..]) : ModelTarget.ForGroup(choice[6..]));
     }
 
     /// <summary>Opens a model file's text; a bad file leaves the open model and sets <see cref="Error"/>.</summary>
@@ -91,7 +93,8 @@ public sealed class WorkbenchSession(ModelRunner runner, WorkspaceState workspac
         _ = changed();
     }
 
-    public void Open(ModelDocument model, string from, string? parent)
+    /// <param name="target">The cell or group the model was built for (its recorded values are shown beside it).</param>
+    public void Open(ModelDocument model, string from, string? parent, ModelTarget? target = null)
     {
         Model = model;
         Origin = from;
@@ -99,7 +102,7 @@ public sealed class WorkbenchSession(ModelRunner runner, WorkspaceState workspac
         TemperatureC = model.TemperatureC;
         Ions = model.Ions ?? IonConcentrations.Mammalian;
         try { AreaUm2 = model.Cell.ToGeometry().AreaUm2; } catch (ModelFileException e) { Error = e.Message; AreaUm2 = 1000; }
-        if (!ReferenceEquals(workspace.Model, model)) workspace.Open(model, from, parent);
+        if (!ReferenceEquals(workspace.Model, model) || workspace.ModelTarget != target) workspace.Open(model, from, parent, target);
         SharedSnapshotId = null;
         Table.ForgetHint();
         _autoProtocol = true;
@@ -307,7 +310,7 @@ public sealed class WorkbenchSession(ModelRunner runner, WorkspaceState workspac
             // The live table, if it is complete and belongs to the model being shared.
             var live = !Busy && Table.Pending.Count == 0 ? Table.Rows : null;
             var (snap, stored) = await snapshots.SaveAsync(model, new SnapshotProtocol { Step = Protocol, Fi = Fi }, notes, workspace.ParentSnapshotId,
-                expression, storeExpression ? workspace.ExpressionName : null, CancellationToken.None);
+                expression, storeExpression ? workspace.ExpressionName : null, CancellationToken.None, SnapshotRecorded.Of(workspace));
             SharedSnapshotId = snap.Id;
             ShareNote = null;
             Error = null;

@@ -10,6 +10,8 @@ public sealed class WorkspaceState
     public string ModelOrigin { get; private set; } = "";
     /// <summary>The shared snapshot the Workbench model was opened from; saving an edit records it as the parent.</summary>
     public string? ParentSnapshotId { get; private set; }
+    /// <summary>The cell or group the Workbench model was built for (null for a published, imported or shared model): what its recorded values belong to.</summary>
+    public ExprModel.Core.Mapping.ModelTarget? ModelTarget { get; private set; }
 
     /// <summary>The uploaded expression table as received (kept only in this tab unless the user stores it with a snapshot).</summary>
     public byte[]? ExpressionBytes { get; set; }
@@ -30,6 +32,9 @@ public sealed class WorkspaceState
     /// <summary>Built models with their derivations and warnings, by target label.</summary>
     public Dictionary<string, ExprModel.Core.Mapping.BuiltModel> Built { get; } = new(StringComparer.Ordinal);
 
+    /// <summary>Recorded features and sweeps loaded on the Load page; <see cref="RecordedData.ValuesFor"/> gives a target's recorded values.</summary>
+    public RecordedData Recorded { get; } = new();
+
     /// <summary>Forgets everything derived from the loaded table (a new table or new read choices).</summary>
     public void ResetDerived()
     {
@@ -41,11 +46,13 @@ public sealed class WorkspaceState
 
     public event Action? Changed;
 
-    public void Open(ModelDocument model, string origin, string? parentSnapshotId = null)
+    /// <param name="target">The cell or group the model was built for, when it was built from the loaded table.</param>
+    public void Open(ModelDocument model, string origin, string? parentSnapshotId = null, ExprModel.Core.Mapping.ModelTarget? target = null)
     {
         Model = model;
         ModelOrigin = origin;
         ParentSnapshotId = parentSnapshotId;
+        ModelTarget = target;
         Changed?.Invoke();
     }
 }

@@ -122,6 +122,49 @@ public sealed class SnapshotStoreTests : IDisposable
         Assert.Null(store.Find(id));
     }
 
+    [Fact]
+    public void Recorded_values_are_stored_with_the_snapshot_and_absent_unless_given()
+    {
+        var store = SnapshotStore.Open(DbPath);
+        var with = store.Save(Sample() with { RecordedJson = """{"target":"cell FH1001"}""" });
+        Assert.Equal("""{"target":"cell FH1001"}""", store.Find(with.Id)!.RecordedJson);
+        Assert.Null(store.Find(store.Save(Sample()).Id)!.RecordedJson);
+    }
+
+    [Fact]
+    public void A_schema_1_database_opens_with_its_snapshots_unchanged_and_stays_immutable()
+    {
+        // The schema-1 table as it was shipped, with one row written the way that version wrote it.
+        Directory.CreateDirectory(Path.GetDirectoryName(DbPath)!);
+        using (var conn = new SqliteConnection($"Data Source={DbPath};Pooling=False"))
+        {
+            conn.Open();
+            using var cmd = conn.CreateCommand();
+            cmd.CommandText = """
+                CREATE TABLE store_meta (key TEXT PRIMARY KEY, value TEXT NOT NULL);
+                INSERT INTO store_meta VALUES ('schema_version', '1');
+                CREATE TABLE snapshots (snapshot_id TEXT PRIMARY KEY, parent_id TEXT REFERENCES snapshots(snapshot_id), created_utc TEXT NOT NULL,
+                    model_json TEXT NOT NULL, catalog_versions TEXT NOT NULL, protocol_json TEXT NOT NULL, readouts_json TEXT NOT NULL, notes TEXT NOT NULL,
+                    expression BLOB, expression_name TEXT);
+                CREATE TRIGGER snapshots_immutable_update BEFORE UPDATE ON snapshots BEGIN SELECT RAISE(ABORT, 'snapshots are immutable'); END;
+                CREATE TRIGGER snapshots_immutable_delete BEFORE DELETE ON snapshots BEGIN SELECT RAISE(ABORT, 'snapshots are immutable'); END;
+                INSERT INTO snapshots VALUES ('AAAAAAAAAAAAAAAAAAAAAA', NULL, '2026-01-02T03:04:05.0000000+00:00', '{}', 'leak@1', '{}', '[]', 'old one', NULL, NULL);
+                """;
+            cmd.ExecuteNonQuery();
+        }
+        var store = SnapshotStore.Open(DbPath);
+        var old = store.Find("AAAAAAAAAAAAAAAAAAAAAA")!;
+        Assert.Equal(("old one", "[]", (string?)null), (old.Notes, old.ReadoutsJson, old.RecordedJson));
+        var child = store.Save(Sample(parent: old.Id) with { RecordedJson = "{}" });
+        Assert.Equal("{}", store.Find(child.Id)!.RecordedJson);
+        SnapshotStore.Open(DbPath); // migrated once; opening again finds schema 2
+        using var check = new SqliteConnection($"Data Source={DbPath};Pooling=False");
+        check.Open();
+        using var update = check.CreateCommand();
+        update.CommandText = "UPDATE snapshots SET recorded_json = 'x'";
+        Assert.Throws<SqliteException>(() => update.ExecuteNonQuery());
+    }
+
     private long CountRows()
     {
         using var conn = new SqliteConnection($"Data Source={DbPath};Pooling=False");

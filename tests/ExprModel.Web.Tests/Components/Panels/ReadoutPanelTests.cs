@@ -1,6 +1,7 @@
 using Bunit;
 using ExprModel.Web.Components.Panels;
 using ExprModel.Web.Simulation;
+using ExprModel.Web.Workspace;
 
 namespace ExprModel.Web.Tests.Components.Panels;
 
@@ -67,4 +68,31 @@ public sealed class ErrorNoteTests : BunitContext
 
     [Fact]
     public void No_message_renders_nothing() => Assert.Equal("", Render<ErrorNote>().Markup.Trim());
+
+    [Fact]
+    public void A_recorded_column_shows_a_cells_value_or_a_groups_mean_sd_and_n_with_the_difference_from_now()
+    {
+        ReadoutRow[] now = [new("rheobase_absolute", "pA", 150), new("resting_potential", "mV", -70), new("spike_half_width", "ms", 0.4)];
+        var recorded = new Dictionary<string, RecordedValue>
+        {
+            ["rheobase_absolute"] = new("rheobase_absolute", "pA", 160, 12.5, 5, "'rheobase (pA)'"),
+            ["resting_potential"] = new("resting_potential", "mV", -68, null, 2, "sweeps"),
+        };
+        var column = new ReadoutPanel.Column("now", "#1d2a36", now);
+        var cut = Render<ReadoutPanel>(p => p.Add(x => x.Columns, [column]).Add(x => x.Recorded, recorded).Add(x => x.RecordedLabel, "group T1-fast").Add(x => x.Against, column));
+        Assert.Equal(["Read-out", "now", "recorded (group T1-fast)", "now − recorded", "Unit"], cut.FindAll("thead th").Select(t => t.TextContent));
+        var rheo = cut.Find("tr[data-readout=rheobase_absolute]").QuerySelectorAll("td").Select(t => t.TextContent).ToArray();
+        Assert.Equal(["rheobase absolute", "150", "160 ± 12.5 (n 5)", "-10", "pA"], rheo);
+        // Below three cells there is no SD (as the z-scores use it); a read-out nobody recorded is a dash, with no difference.
+        Assert.Equal("-68 (n 2)", cut.Find("tr[data-readout=resting_potential] [data-testid=recorded-value]").TextContent);
+        var width = cut.Find("tr[data-readout=spike_half_width]").QuerySelectorAll("td").Select(t => t.TextContent).ToArray();
+        Assert.Equal(["—", "—"], width[2..4]);
+    }
+
+    [Fact]
+    public void Without_recorded_values_the_table_has_no_recorded_column()
+    {
+        var cut = Render<ReadoutPanel>(p => p.Add(x => x.Columns, [new ReadoutPanel.Column("now", "#1d2a36", [new("rheobase", "uA/cm2", 1.0)])]));
+        Assert.Empty(cut.FindAll("[data-testid=recorded-head]"));
+    }
 }
