@@ -53,22 +53,15 @@ public sealed class RecordedTargetOptions
         catch (RecordingFormatException e) { throw new CliException(e.Message); }
         try
         {
-            RecordedTargets targets;
-            if (cell is not null)
-            {
-                double? spacing = measured.FirstOrDefault(m => m.CellId == cell)?.RheobaseStepSpacingPa;
-                targets = RecordedFitTargets.ForCell(features, cell, areaUm2, spacing, readouts);
-            }
-            else
+            IReadOnlyList<string>? members = null;
+            if (group is not null)
             {
                 string metadataPath = p.GetValue(_metadata) ?? tablePath ?? throw new CliException("--group needs --metadata FILE with the group column (the recordings carry no groups).");
                 var metadata = CellMetadataReader.Read(metadataPath, new CellMetadataOptions { GroupColumns = [p.GetValue(_groupBy)!] });
-                var members = metadata.CellsIn(p.GetValue(_groupBy)!, group!);
+                members = metadata.CellsIn(p.GetValue(_groupBy)!, group);
                 if (members.Count == 0) throw new CliException($"{Path.GetFileName(metadataPath)}: no cell in group '{group}' (groups: {string.Join(", ", metadata.Groups(p.GetValue(_groupBy)!))}).");
-                targets = RecordedFitTargets.ForGroup(features, group!, members, areaUm2, readouts);
             }
-            var used = cell is null ? measured : measured.Where(m => m.CellId == cell).ToArray();
-            return used.Count > 0 ? targets with { StepDurationMs = RecordedFitTargets.StepDurationMs(used) } : targets;
+            return RecordedFitTargets.For(features, measured, cell, group, members, areaUm2, readouts);
         }
         catch (ArgumentException e) { throw new CliException(e.Message); }
         catch (KeyNotFoundException e) { throw new CliException(e.Message); }

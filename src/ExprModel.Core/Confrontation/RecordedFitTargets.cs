@@ -30,6 +30,26 @@ public static class RecordedFitTargets
     /// </summary>
     public const double MinimumSagScale = 0.02;
 
+    /// <summary>
+    /// Targets for one cell (<paramref name="cellId"/>) or one group's mean (<paramref name="group"/> with its
+    /// <paramref name="groupMembers"/>), exactly one of the two. With read-outs measured from sweeps
+    /// (<paramref name="measured"/>), the cell's rheobase step spacing and the sweeps' step duration are used.
+    /// </summary>
+    public static RecordedTargets For(RecordedFeatures recorded, IReadOnlyList<RecordedReadouts> measured, string? cellId, string? group,
+        IReadOnlyCollection<string>? groupMembers, double? areaUm2, IReadOnlyCollection<string>? readouts = null)
+    {
+        if ((cellId is null) == (group is null)) throw new ArgumentException("Give a cell or a group to fit (one of the two).");
+        if (cellId is not null)
+        {
+            var own = measured.Where(m => m.CellId == cellId).ToArray();
+            var t = ForCell(recorded, cellId, areaUm2, own.FirstOrDefault()?.RheobaseStepSpacingPa, readouts);
+            return t with { StepDurationMs = StepDurationMs(own) };
+        }
+        if (groupMembers is not { Count: > 0 }) throw new ArgumentException($"group '{group}': no member cells.");
+        var g = ForGroup(recorded, group!, groupMembers, areaUm2, readouts);
+        return g with { StepDurationMs = StepDurationMs(measured.Where(m => groupMembers.Contains(m.CellId))) };
+    }
+
     /// <summary>One cell's recorded values as targets, each with the read-out's default scale.</summary>
     /// <param name="areaUm2">The model's membrane area, to convert a current recorded per area (or the reverse) to the read-out's unit.</param>
     /// <param name="rheobaseStepSpacingPa">The recorded family's step spacing below the rheobase step (from sweeps): the true
