@@ -176,7 +176,8 @@ public static class CompareApi
         var recordings = form.Names.Where(IsRecordingPart).Order(StringComparer.OrdinalIgnoreCase).Select(n => form.Part(n)!)
             .Select(p => (p.FileName ?? throw new UserInputException($"{p.Name}: send recorded sweeps as a file part with its file name (.nwb, .csv, .tsv or .txt)."), p.Bytes)).ToArray();
         return new CompareUpload(options, expression.Bytes, expression.FileName ?? d.ExpressionName, metadata?.Bytes, metadata?.FileName ?? d.MetadataName,
-            recorded?.Bytes, recorded?.FileName ?? d.RecordedName) { Recordings = recordings };
+            recorded?.Bytes, recorded?.FileName ?? d.RecordedName)
+        { Recordings = recordings };
     }
 
     private static Dictionary<string, string>? Map(MultipartForm form)
