@@ -1,7 +1,10 @@
 using System.CommandLine;
 using System.Text.Json;
 using System.Text.Json.Nodes;
+using ExprModel.Core.Confrontation;
 using ExprModel.Core.Export;
+using ExprModel.Core.Models;
+using ExprModel.Core.Simulation;
 using ExprModel.Core.Recordings;
 
 namespace ExprModel.Cli.Commands;
@@ -37,7 +40,50 @@ public static class RecordingCommands
             return 0;
         });
         recording.Subcommands.Add(features);
+        recording.Subcommands.Add(OverlayCommand(ctx));
         return recording;
+    }
+
+    private static Command OverlayCommand(CliContext ctx)
+    {
+        var c = new Command("overlay", "A recorded sweep and a model's response to the same step (same onset, duration and holding current; pA converted with the model's area) on one time base, as CSV.");
+        var path = new Argument<string>("path") { Description = "An NWB file, a trace table or a directory of them." };
+        var model = new Option<string?>("--model") { Description = "Model file (exprmodel JSON), e.g. from exprmodel build --cell ID." };
+        var preset = new Option<string?>("--preset") { Description = "A published preset instead of a model file." };
+        var cell = new Option<string?>("--cell") { Description = "The recorded cell (default: the only one in the path)." };
+        var sweep = new Option<int?>("--sweep") { Description = "Sweep number (default: the recorded rheobase sweep, else the largest step)." };
+        var output = new Option<string?>("--out") { Description = "CSV file to write (default: standard output)." };
+        var db = new Option<string?>("--db") { Description = "Catalog database file." };
+        c.Arguments.Add(path);
+        foreach (var o in new Option[] { model, preset, cell, sweep, output, db }) c.Options.Add(o);
+        c.SetAction(p =>
+        {
+            ctx.DatabasePath = p.GetValue(db);
+            var (file, presetId) = (p.GetValue(model), p.GetValue(preset));
+            if ((file is null) == (presetId is null)) throw new CliException("Give the model with --model FILE or --preset ID (exactly one).");
+            if (file is not null && !File.Exists(file)) throw new CliException($"{file}: no such model file.");
+            IReadOnlyList<RecordedCell> cells;
+            try { cells = RecordingReader.Read(p.GetValue(path)!); }
+            catch (RecordingFormatException e) { throw new CliException(e.Message); }
+            var id = p.GetValue(cell);
+            var recorded = id is null
+                ? cells.Count == 1 ? cells[0] : throw new CliException($"{p.GetValue(path)} holds {cells.Count} cells; name one with --cell ({string.Join(", ", cells.Select(x => x.CellId))}).")
+                : cells.FirstOrDefault(x => x.CellId == id) ?? throw new CliException($"{p.GetValue(path)}: no recorded cell '{id}' (cells: {string.Join(", ", cells.Select(x => x.CellId))}).");
+            var doc = presetId is not null ? ctx.Catalog.Preset(presetId) : ModelDocument.Parse(File.ReadAllText(file!), file!);
+            TraceOverlay overlay;
+            try { overlay = TraceOverlay.Of(recorded, p.GetValue(sweep), ctx.Catalog.BuildCell(doc)); }
+            catch (ArgumentException e) { throw new CliException(e.Message); }
+            catch (SimulationBlowUpException e) { throw new CliException($"model {doc.Name}: {e.Message}"); }
+            var csv = new CsvTable(
+                [ResearchCaution.Text, $"model: {doc.Name}; recorded: cell {overlay.CellId}, sweep {overlay.SweepNumber} ({recorded.Source})",
+                 FormattableString.Invariant($"step {overlay.Step.AmplitudePa:0.###} pA ({overlay.StepUaPerCm2:0.####} uA/cm2 on the model's area) from {overlay.Step.OnsetMs:0.###} ms for {overlay.Step.DurationMs:0.###} ms, holding {overlay.Step.HoldingPa:0.###} pA"),
+                 .. overlay.Notes],
+                ["time_ms", "recorded_mv", "predicted_mv", "command_pa"]);
+            for (int i = 0; i < overlay.TimeMs.Length; i++) csv.Row(overlay.TimeMs[i], overlay.RecordedMv[i], overlay.PredictedMv[i], overlay.CommandPa[i]);
+            ctx.Emit(csv.ToString(), p.GetValue(output));
+            return 0;
+        });
+        return c;
     }
 
     /// <summary>Rows whose unit is a current density: a recording has no cell area, so they are always empty and left out.</summary>

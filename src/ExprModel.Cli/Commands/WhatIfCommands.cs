@@ -105,17 +105,26 @@ public static class WhatIfCommands
         var seed = new Option<int>("--seed") { Description = "Seed of the random starting points.", DefaultValueFactory = _ => 1 };
         var optimiser = new Option<string>("--optimiser") { Description = "lm (Levenberg-Marquardt, default) or simplex (Nelder-Mead).", DefaultValueFactory = _ => "lm" };
         var fix = new Option<string[]>("--fixed") { Description = "Channels held at their density (repeat).", AllowMultipleArgumentsPerToken = true };
+        var recorded = new RecordedTargetOptions();
         foreach (var o in new Option[] { target, file, width, noPrior, starts, seed, optimiser, fix }) c.Options.Add(o);
+        recorded.AddTo(c);
         c.SetAction(p =>
         {
             var typed = p.GetValue(target) ?? [];
             var path = p.GetValue(file);
-            if ((typed.Length == 0) == (path is null)) throw new CliException("Give the recorded read-outs with --target NAME=VALUE[UNIT] ... or --targets FILE (one of the two).");
+            bool fromRecordings = recorded.Given(p);
+            if ((typed.Length > 0 ? 1 : 0) + (path is null ? 0 : 1) + (fromRecordings ? 1 : 0) != 1)
+                throw new CliException("Give the recorded read-outs one way: --target NAME=VALUE[UNIT] ..., --targets FILE, or --recorded FILE / --recordings PATH with --cell ID or --group G.");
             if (p.GetValue(noPrior) && p.GetValue(width) is not null) throw new CliException("--prior-width and --no-prior exclude each other.");
             if (path is not null && !File.Exists(path)) throw new CliException($"{path}: no such targets file.");
-            var targets = path is not null ? FitTargetReader.ReadCsv(File.ReadAllText(path), path) : typed.Select(t => FitTargetReader.ParseTyped(t)).ToArray();
+            var (doc, cell) = source.Load(p, ctx);
+            var fromRecorded = fromRecordings ? recorded.Targets(p, cell.Geometry.AreaUm2) : null;
+            foreach (var n in fromRecorded?.Notes ?? []) ctx.Error.WriteLine($"target: {n}");
+            var targets = fromRecorded?.Targets ?? (path is not null ? FitTargetReader.ReadCsv(File.ReadAllText(path), path) : typed.Select(t => FitTargetReader.ParseTyped(t)).ToArray());
             var settings = FitSettings.Default with
             {
+                // Read-outs from sweeps are measured on the recorded step; the model is measured on the same.
+                Readouts = fromRecorded?.StepDurationMs is { } stepMs ? FitSettings.Default.Readouts with { StepDurationMs = stepMs } : FitSettings.Default.Readouts,
                 PriorWidth = p.GetValue(noPrior) ? null : p.GetValue(width) ?? FitSettings.Default.PriorWidth,
                 Starts = p.GetValue(starts),
                 Seed = p.GetValue(seed),
@@ -127,7 +136,6 @@ public static class WhatIfCommands
                 },
                 FixedChannels = (p.GetValue(fix) ?? []).ToHashSet(StringComparer.Ordinal),
             };
-            var (doc, cell) = source.Load(p, ctx);
             int lastDone = 0;
             var fit = DensityFit.Run(doc, cell, targets, settings, pr =>
             {

@@ -63,7 +63,10 @@ public static class PredictedVersusRecorded
                 double? pred = p?.Readouts?.Rows().First(x => x.Name == r.Readout).Value is { } v && double.IsFinite(v) ? v : null;
                 string why = p is null ? "not predicted." : p.Readouts is null ? p.Warnings : pred is null ? $"the model gives no {r.Readout}" + (p.Warnings.Length > 0 ? $" ({p.Warnings})" : ".") : "";
                 if (rec is null) why = $"recorded {r.ColumnUnit.Symbol} needs the model's area to convert; " + why;
-                rows.Add(new CellComparison(cell, groupOf(cell), p?.Model ?? "-", r.Readout, unit, pred, rec, pred - rec, null, why));
+                string source = r.SourceByCell?.GetValueOrDefault(cell) ?? "";
+                // With several sources every row names its own; the table-only output stays as it was.
+                if (source.Length > 0) why = string.Join(" ", new[] { $"recorded: {source}.", r.NoteByCell?.GetValueOrDefault(cell) ?? "", why }.Where(x => x.Length > 0));
+                rows.Add(new CellComparison(cell, groupOf(cell), p?.Model ?? "-", r.Readout, unit, pred, rec, pred - rec, null, why) { RecordedSource = source });
             }
             foreach (var g in rows.GroupBy(c => c.Group ?? "", StringComparer.Ordinal).OrderBy(g => g.Key, StringComparer.Ordinal))
             {

@@ -51,6 +51,16 @@ public static class RecordingFeatures
             else notes.Add($"The smallest depolarising step ({rheo.AmplitudePa:0.#} pA, sweep {rheo.Sweep.SweepNumber}) already spikes: the rheobase is at or below it.");
             if (up.Skip(first + 1).FirstOrDefault(w => w.Rates!.SpikesInStep == 0) is { } silent)
                 notes.Add($"Spiking is not monotone in the step amplitude: sweep {rheo.Sweep.SweepNumber} ({rheo.AmplitudePa:0.#} pA) spikes, the larger step of sweep {silent.Sweep.SweepNumber} ({silent.AmplitudePa:0.#} pA) does not.");
+            // The simulator's acceptance test, same function: a crossing whose upstroke is no faster than passive charging
+            // (or the threshold criterion) is a membrane pushed past the detection level, not an action potential.
+            double chargingRate = rin is > 0 && tau is > 0 ? rheo.AmplitudePa / (1000 * tau.Value / rin.Value) : 0;
+            if (!SpikeAtRheobase.IsRegenerative(shape, chargingRate, s.Shared.ThresholdSlopeMvPerMs))
+            {
+                notes.Add($"The smallest step that crosses the detection level (sweep {rheo.Sweep.SweepNumber}, {rheo.AmplitudePa:0.#} pA) has no regenerative spike " +
+                    $"(largest rise {(shape is null ? "not measurable" : $"{shape.MaxRiseMvPerMs:0.##} mV/ms")}, needs {Math.Max(s.Shared.ThresholdSlopeMvPerMs, 3 * chargingRate):0.##} mV/ms): " +
+                    "as for the simulator, no rheobase and no spike read-outs.");
+                (rheo, shape, latency, spacing) = (null, null, null, null);
+            }
         }
         else notes.Add(up.Length == 0 ? "No usable depolarising step: rheobase and spike read-outs are not defined." : $"No spike in any step up to {up[^1].AmplitudePa:0.#} pA: rheobase is not defined.");
 

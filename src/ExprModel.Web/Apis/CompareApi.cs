@@ -57,7 +57,15 @@ public static class CompareApi
         ["expression", "metadata", "recorded", "groupBy", "recordedCellColumn", "map", "per", "shrink", "orientation", "unit", "referenceGroup", "exponent", "clamp",
          "capacitancePf", "temperatureC", "overrides"];
 
-    private sealed record CompareUpload(CompareRequest Options, byte[] Expression, string ExpressionName, byte[]? Metadata, string MetadataName, byte[]? Recorded, string RecordedName);
+    private sealed record CompareUpload(CompareRequest Options, byte[] Expression, string ExpressionName, byte[]? Metadata, string MetadataName, byte[]? Recorded, string RecordedName)
+    {
+        /// <summary>Recorded sweeps (multipart only): file name and bytes of each part named recording, recording2, ...</summary>
+        public IReadOnlyList<(string FileName, byte[] Bytes)> Recordings { get; init; } = [];
+    }
+
+    /// <summary>Parts carrying recorded sweeps: "recording", "recording2", "recording3", ...</summary>
+    private static bool IsRecordingPart(string name) =>
+        name.StartsWith("recording", StringComparison.OrdinalIgnoreCase) && name[9..].All(char.IsAsciiDigit);
 
     public static IEndpointRouteBuilder MapCompareApi(this IEndpointRouteBuilder app)
     {
@@ -73,7 +81,8 @@ public static class CompareApi
             .WithName("CompareWithRecordings")
             .WithSummary("Builds a model per recorded cell (or per group), measures it and compares every read-out the recorded table has (columns matched by "
                 + "header name and unit): per cell the difference and a z-score against the group's recorded SD, per group, and across cells Pearson and "
-                + "Spearman r, mean absolute error and bias. JSON body (tables as text) or multipart form (expression, metadata, recorded as file parts).")
+                + "Spearman r, mean absolute error and bias. JSON body (tables as text) or multipart form (expression, metadata, recorded as file parts; recorded sweeps as "
+                + "file parts recording, recording2, ... (NWB or trace tables), measured per cell; where a table is also sent, a cell's sweeps win).")
             .Accepts<CompareRequest>("application/json", "multipart/form-data")
             .ProducesProblem(400).ProducesProblem(413).ProducesProblem(503)
             // As the build API: no cookies or sign-in, so a cross-site request gains nothing; the form is read by hand.
@@ -88,9 +97,13 @@ public static class CompareApi
         var shrink = body.Shrink switch { "group" => ShrinkageMode.Group, "none" => ShrinkageMode.None, var s => throw new UserInputException($"shrink: '{s}' is not group or none.") };
         if (upload.Metadata is not null && body.GroupBy is null) throw new UserInputException("groupBy: needed with metadata (its group column).");
         if (per == ModelPer.Group && upload.Metadata is null) throw new UserInputException("per: group needs metadata and groupBy.");
-        var (recordedBytes, recordedName) = upload.Recorded is not null ? (upload.Recorded, upload.RecordedName)
-            : upload.Metadata is not null ? (upload.Metadata, upload.MetadataName)
-            : throw new UserInputException("recorded: required (per-cell recorded values with units in the headers), unless the metadata holds them.");
+        bool sweeps = upload.Recordings.Count > 0;
+        // With recorded sweeps the table is used only when sent as 'recorded' (the metadata's recorded columns are not joined by default).
+        var (tableBytes, tableName) = upload.Recorded is not null ? (upload.Recorded, upload.RecordedName)
+            : upload.Metadata is not null && !sweeps ? (upload.Metadata, upload.MetadataName)
+            : (null, "");
+        if (tableBytes is null && !sweeps)
+            throw new UserInputException("recorded: required (per-cell recorded values with units in the headers), unless the metadata holds them or recordings are sent.");
 
         var session = ExpressionSession.Read(catalog, upload.Expression, upload.ExpressionName, upload.Metadata, upload.MetadataName, new ReadChoices(body.Orientation, body.Unit, body.GroupBy));
         var report = session.Map(body.Overrides ?? []);
@@ -102,7 +115,16 @@ public static class CompareApi
             TemperatureC = body.TemperatureC,
         };
         if (rule.Problem() is { } problem) throw new UserInputException("density rule: " + problem);
-        var features = ReadRecorded(session.Dataset, recordedBytes, recordedName, body);
+        var cells = session.Dataset.Table.CellIds.ToHashSet(StringComparer.Ordinal);
+        var table = tableBytes is null ? null : RecordedUploads.Table(tableBytes, tableName, body.RecordedCellColumn, body.Map, cells.Contains);
+        RecordedFeatures? fromSweeps = null;
+        if (sweeps)
+        {
+            var measured = await gate.RunAsync(_ => RecordedUploads.Measure(upload.Recordings), cancel);
+            try { fromSweeps = RecordedSweepFeatures.From(measured, string.Join(", ", upload.Recordings.Select(r => Path.GetFileName(r.FileName))), cells.Contains); }
+            catch (Core.Recordings.RecordingFormatException e) { throw new UserInputException(e.Message); }
+        }
+        var features = fromSweeps is null ? table! : table is null ? fromSweeps : RecordedSweepFeatures.Join(fromSweeps, table);
         var result = await gate.RunAsync(c =>
         {
             try { return PredictedVersusRecorded.Run(session.Dataset, report, rule, features, per, shrink, null, c); }
@@ -111,28 +133,6 @@ public static class CompareApi
         var csv = ConfrontationTable.Create(result, ConfrontationTable.Comments(result, ResearchCaution.Text, upload.ExpressionName)).ToString();
         return new CompareResponse(features.Matches, body.Per, result.ExpressionNote, result.Agreement, result.Groups, result.Cells,
             [.. session.Dataset.Notes, .. features.Notes], csv, ResearchCaution.Text);
-    }
-
-    /// <summary>Reads and matches the recorded table from a private temporary file (the reader works on files); errors name the upload.</summary>
-    private static RecordedFeatures ReadRecorded(ExpressionDataset data, byte[] bytes, string name, CompareRequest body)
-    {
-        var dir = Directory.CreateTempSubdirectory("exprmodel-recorded-");
-        try
-        {
-            var path = Path.Combine(dir.FullName, "recorded.csv");
-            File.WriteAllBytes(path, bytes);
-            var cells = data.Table.CellIds.ToHashSet(StringComparer.Ordinal);
-            var features = ReadoutMatcher.Match(RecordedFeatureReader.Read(path, body.RecordedCellColumn, Path.GetFileName(name)), cells.Contains, body.Map);
-            if (features.Readouts.Count == 0)
-                throw new UserInputException($"{features.Source}: no column matched a read-out ({string.Join("; ", features.Matches.Select(m => $"'{m.Header}': {m.Reason}"))}).");
-            return features;
-        }
-        catch (ExpressionFormatException e) { throw new UserInputException(e.Message); }
-        catch (ArgumentException e) { throw new UserInputException(e.Message); }
-        finally
-        {
-            try { dir.Delete(recursive: true); } catch (IOException) { }
-        }
     }
 
     private static CompareUpload FromJson(byte[] bytes)
@@ -151,8 +151,8 @@ public static class CompareApi
     private static CompareUpload FromForm(MultipartForm form)
     {
         foreach (var name in form.Names)
-            if (!FormFields.Contains(name, StringComparer.OrdinalIgnoreCase))
-                throw new UserInputException($"{name}: not a field of this endpoint (fields: {string.Join(", ", FormFields)}).");
+            if (!FormFields.Contains(name, StringComparer.OrdinalIgnoreCase) && !IsRecordingPart(name))
+                throw new UserInputException($"{name}: not a field of this endpoint (fields: {string.Join(", ", FormFields)}, and recording, recording2, ... for recorded sweeps).");
         if (form.Part("expression") is not { Bytes.Length: > 0 } expression)
             throw new UserInputException("expression: required, as a file part (CSV or TSV, optionally gzip, or AnnData .h5ad).");
         var (metadata, recorded) = (form.Part("metadata"), form.Part("recorded"));
@@ -173,8 +173,11 @@ public static class CompareApi
             TemperatureC = BuildApi.Number(form, "temperatureC") ?? d.TemperatureC,
             Overrides = BuildApi.Overrides(form),
         };
+        var recordings = form.Names.Where(IsRecordingPart).Order(StringComparer.OrdinalIgnoreCase).Select(n => form.Part(n)!)
+            .Select(p => (p.FileName ?? throw new UserInputException($"{p.Name}: send recorded sweeps as a file part with its file name (.nwb, .csv, .tsv or .txt)."), p.Bytes)).ToArray();
         return new CompareUpload(options, expression.Bytes, expression.FileName ?? d.ExpressionName, metadata?.Bytes, metadata?.FileName ?? d.MetadataName,
-            recorded?.Bytes, recorded?.FileName ?? d.RecordedName);
+            recorded?.Bytes, recorded?.FileName ?? d.RecordedName)
+        { Recordings = recordings };
     }
 
     private static Dictionary<string, string>? Map(MultipartForm form)

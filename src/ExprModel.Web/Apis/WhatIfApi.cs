@@ -1,5 +1,7 @@
+using ExprModel.Core.Confrontation;
 using ExprModel.Core.Models;
 using ExprModel.Core.Perturbation;
+using ExprModel.Core.Recordings;
 using ExprModel.Web.Simulation;
 using Microsoft.AspNetCore.Http.HttpResults;
 
@@ -48,14 +50,19 @@ public static class WhatIfApi
             {
                 var doc = request.ReadModel();
                 var cell = runner.Compile(doc).Model;
-                if (request.Targets is not { Count: > 0 } given) throw new UserInputException("targets: give at least one {readout, value, unit?, scale?}.");
-                var targets = Library(() => given.Select((t, i) =>
+                bool fromRecorded = request.Recorded is not null || request.Recordings is { Count: > 0 };
+                if (fromRecorded && request.Targets is { Count: > 0 }) throw new UserInputException("targets: give typed targets or recorded values (recorded, recordings), not both.");
+                if (!fromRecorded && request.Targets is not { Count: > 0 }) throw new UserInputException("targets: give at least one {readout, value, unit?, scale?}, or recorded values (recorded or recordings) with cell or group.");
+                var recorded = fromRecorded ? await gate.RunAsync(_ => RecordedTargetsOf(request, cell.Geometry.AreaUm2), cancel) : null;
+                var targets = recorded?.Targets ?? Library(() => request.Targets!.Select((t, i) =>
                 {
                     try { return FitTargetReader.ParseTyped(FormattableString.Invariant($"{t.Readout}={t.Value:R}{t.Unit}"), t.Scale); }
                     catch (ArgumentException e) { throw new ArgumentException($"targets[{i}]: {e.Message}"); }
                 }).ToArray());
                 var settings = FitSettings.Default with
                 {
+                    // Read-outs from sweeps are measured on the recorded step; the model is measured on the same.
+                    Readouts = recorded?.StepDurationMs is { } stepMs ? FitSettings.Default.Readouts with { StepDurationMs = stepMs } : FitSettings.Default.Readouts,
                     PriorWidth = request.NoPrior ? null : request.PriorWidth ?? FitSettings.Default.PriorWidth,
                     Starts = request.Starts,
                     Seed = request.Seed,
@@ -68,12 +75,39 @@ public static class WhatIfApi
                 };
                 var fit = await gate.RunAsync(token => Library(() => DensityFit.Run(doc, cell, targets, settings, cancel: token)), cancel);
                 return TypedResults.Ok(new FitResponse(ModelRequest.ToElement(fit.Document), fit.Channels.Select(FitChannelRow.From).ToArray(), fit.Residuals, fit.Identifiability.SingularValues,
-                    fit.Identifiability.Directions, fit.Identifiability.DirectionPinned, fit.ObjectiveBefore, fit.ObjectiveAfter, fit.Evaluations, fit.Summary, ResearchCaution.Text));
+                    fit.Identifiability.Directions, fit.Identifiability.DirectionPinned, fit.ObjectiveBefore, fit.ObjectiveAfter, fit.Evaluations, fit.Summary, ResearchCaution.Text)
+                { TargetNotes = recorded?.Notes ?? [] });
             })
             .WithName("FitDensities")
-            .WithSummary("Fits relative densities to recorded read-outs under an expression prior; returns the fitted model, fold changes, residuals and which densities the data pin down.")
+            .WithSummary("Fits relative densities to recorded read-outs under an expression prior; returns the fitted model, fold changes, residuals and which densities the data pin down. "
+                + "Targets are typed, or taken from a recorded-features table (recorded) or recorded sweeps (recordings, base64) for a cell or a group's mean.")
             .ProducesProblem(400).ProducesProblem(503);
         return app;
+    }
+
+    /// <summary>Fit targets from the recorded table or sweeps of the request, for its cell or group (as <c>exprmodel fit --recorded|--recordings</c>).</summary>
+    private static RecordedTargets RecordedTargetsOf(FitRequest request, double areaUm2)
+    {
+        if (request.Recorded is not null && request.Recordings is { Count: > 0 }) throw new UserInputException("recorded, recordings: a fit takes one source of recorded values.");
+        IReadOnlyList<RecordedReadouts> measured = [];
+        RecordedFeatures features;
+        if (request.Recordings is { Count: > 0 } files)
+        {
+            measured = RecordedUploads.Measure(files.Select((f, i) =>
+            {
+                try { return (f.Name, Convert.FromBase64String(f.ContentBase64)); }
+                catch (FormatException) { throw new UserInputException($"recordings[{i}] ({f.Name}): contentBase64 is not valid base64."); }
+            }).ToArray());
+            features = Library(() => RecordedSweepFeatures.From(measured, string.Join(", ", files.Select(f => f.Name)), _ => true));
+        }
+        else features = RecordedUploads.Table(System.Text.Encoding.UTF8.GetBytes(request.Recorded!), request.RecordedName, null, null, _ => true);
+        IReadOnlyList<string>? members = null;
+        if (request.Group is { } group)
+        {
+            var metadata = request.Metadata ?? request.Recorded ?? throw new UserInputException("metadata: needed with group and recordings (the recordings carry no groups).");
+            members = RecordedUploads.GroupMembers(System.Text.Encoding.UTF8.GetBytes(metadata), request.GroupBy, group);
+        }
+        return Library(() => RecordedFitTargets.For(features, measured, request.Cell, request.Group, members, areaUm2, request.FitReadouts));
     }
 
     /// <summary>The library's argument errors (bad targets, a model without a derivation) are the user's to fix: 400.</summary>

@@ -37,7 +37,24 @@ public sealed record FitRequest : ModelRequest
     public int Seed { get; init; } = 1;
     /// <summary>"lm" (Levenberg-Marquardt, default) or "simplex".</summary>
     public string? Optimiser { get; init; }
+    /// <summary>Instead of <see cref="Targets"/>: a recorded-features table as CSV or TSV text (units in the headers).</summary>
+    public string? Recorded { get; init; }
+    public string RecordedName { get; init; } = "recorded.csv";
+    /// <summary>Instead of <see cref="Targets"/>: recorded sweeps, each an NWB file or a trace table, base64-encoded.</summary>
+    public IReadOnlyList<RecordingFileDto>? Recordings { get; init; }
+    /// <summary>With recorded values: fit to this cell's values ...</summary>
+    public string? Cell { get; init; }
+    /// <summary>... or to this group's mean (scaled by its recorded SD; default scales below 3 cells).</summary>
+    public string? Group { get; init; }
+    /// <summary>Cell metadata (CSV or TSV text) holding the group column; default the recorded table.</summary>
+    public string? Metadata { get; init; }
+    public string GroupBy { get; init; } = "group";
+    /// <summary>Recorded read-outs to fit (default: those whose recorded definition is the model's).</summary>
+    public IReadOnlyList<string>? FitReadouts { get; init; }
 }
+
+/// <param name="Name">File name with its extension (.nwb, .csv, .tsv or .txt).</param>
+public sealed record RecordingFileDto(string Name, string ContentBase64);
 
 /// <summary>One channel of a fit; <see cref="DataSdLn"/> is null when the data leave it free altogether (or it was fixed).</summary>
 public sealed record FitChannelRow(string Channel, double StartRelative, double FittedRelative, double FoldChange, bool Fixed, bool Pinned, double? DataSdLn, bool AtBound)
@@ -48,4 +65,8 @@ public sealed record FitChannelRow(string Channel, double StartRelative, double 
 
 public sealed record FitResponse(System.Text.Json.JsonElement Model, IReadOnlyList<FitChannelRow> Channels, IReadOnlyList<FitResidual> Residuals,
     IReadOnlyList<double> SingularValues, IReadOnlyList<string> Directions, IReadOnlyList<bool> DirectionPinned, double ObjectiveBefore, double ObjectiveAfter,
-    int Evaluations, string Summary, string Caution);
+    int Evaluations, string Summary, string Caution)
+{
+    /// <summary>How targets taken from recorded values were made (empty for typed targets).</summary>
+    public IReadOnlyList<string> TargetNotes { get; init; } = [];
+}

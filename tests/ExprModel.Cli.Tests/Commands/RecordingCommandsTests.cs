@@ -74,4 +74,24 @@ public sealed class RecordingCommandsTests : IDisposable
         Assert.Equal(1, exit);
         Assert.Contains("bad.nwb: byte 0: not an HDF5 file", err);
     }
+    [Fact]
+    public void Overlay_writes_the_recorded_rheobase_sweep_beside_the_models_response()
+    {
+        var demo = Path.Combine(ExprModel.Data.Catalog.CatalogLocator.FindSourceDirectory()!, "demo", "recordings", "FH1001.nwb");
+        var path = Path.Combine(_dir, "overlay.csv");
+        var (exit, _, err) = CliRunner.Run("recording", "overlay", demo, "--preset", "wb1996", "--out", path);
+        Assert.True(exit == 0, err);
+        var lines = File.ReadAllLines(path);
+        Assert.Equal("# " + Core.Models.ResearchCaution.Text, lines[0]);
+        // FH1001's smallest spiking step is 80 pA, sweep 5 (catalog/demo/recorded-features.csv); 500 ms at 20 kHz.
+        Assert.Contains(lines, l => l.Contains("recorded: cell FH1001, sweep 5"));
+        Assert.Contains(lines, l => l.StartsWith("# step 80 pA") && l.Contains("from 50 ms for 400 ms"));
+        var rows = lines.Where(l => !l.StartsWith('#')).ToArray();
+        Assert.Equal("time_ms,recorded_mv,predicted_mv,command_pa", rows[0]);
+        Assert.Equal(10001, rows.Length - 1);
+
+        var (exit2, _, err2) = CliRunner.Run("recording", "overlay", demo, "--preset", "wb1996", "--sweep", "7");
+        Assert.NotEqual(0, exit2);
+        Assert.Contains("no sweep 7", err2); // FH1001's sweep 7 is missing by design
+    }
 }

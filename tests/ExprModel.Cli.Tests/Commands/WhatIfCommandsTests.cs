@@ -70,4 +70,28 @@ public class WhatIfCommandsTests
         Assert.Equal(1, exit);
         Assert.Contains("built from expression", err);
     }
+    [Fact]
+    public void Fit_to_a_groups_recorded_mean_uses_its_recorded_sd_as_the_scale()
+    {
+        var dir = Directory.CreateTempSubdirectory("exprmodel-fit-rec-").FullName;
+        try
+        {
+            var table = Path.Combine(dir, "recorded.csv");
+            File.WriteAllText(table, "cell,group,resting potential (mV)\na1,A,-66\na2,A,-64\na3,A,-65\nb1,B,-70\n");
+            var (exit, stdout, err) = CliRunner.Run("fit", "--preset", "wb1996", "--recorded", table, "--group", "A", "--starts", "1");
+            Assert.True(exit == 0, err);
+            // Mean -65 mV, sample SD of -66, -64, -65 = 1 mV.
+            Assert.Contains("target: resting_potential: mean of 3 cells -65 mV, scale their SD 1.", err);
+            Assert.Contains(Core.Models.ResearchCaution.Text, stdout);
+            Assert.Matches(@"resting_potential\s+mV\s+-65\s+1\s", stdout);
+
+            var (exit2, _, err2) = CliRunner.Run("fit", "--preset", "wb1996", "--recorded", table, "--cell", "zz", "--starts", "1");
+            Assert.NotEqual(0, exit2);
+            Assert.Contains("no recorded values for cell 'zz'", err2);
+            var (exit3, _, err3) = CliRunner.Run("fit", "--preset", "wb1996", "--recorded", table, "--target", "rheobase=1uA/cm2");
+            Assert.NotEqual(0, exit3);
+            Assert.Contains("one way", err3);
+        }
+        finally { Directory.Delete(dir, true); }
+    }
 }

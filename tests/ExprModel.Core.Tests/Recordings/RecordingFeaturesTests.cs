@@ -125,6 +125,49 @@ public sealed class RecordingFeaturesTests
         Assert.Contains(r.Notes, n => n.Contains("No hyperpolarising step"));
         Assert.Contains(r.Notes, n => n.Contains("No spike in any step up to 40 pA"));
     }
+
+    [Theory]
+    // The simulator's criterion (SpikeAtRheobase.IsRegenerative): the upstroke must reach the 20 mV/ms threshold
+    // criterion (common practice) and three times the passive charging rate (here 40 pA / (20 ms / 200 MOhm = 100 pF) = 0.4 mV/ms).
+    [InlineData(10, false)]
+    [InlineData(19, false)]
+    [InlineData(21, true)]
+    [InlineData(200, true)]
+    public void A_crossing_counts_as_the_rheobase_spike_only_when_regenerative(double riseMvPerMs, bool regenerative)
+    {
+        // The +40 pA step of the family carries a symmetric bump from rest to -15 mV: it crosses the -20 mV detection
+        // level and falls back within the detector's 20 ms, so it is detected; only its rise rate decides.
+        var cell = SyntheticSweeps.Family(Dt);
+        var bump = Bump(riseMvPerMs, 50, Dt);
+        var sweeps = cell.Sweeps.Select(w => w.SweepNumber == 5 ? SyntheticSweeps.Sweep(5, Dt, bump, SyntheticSweeps.Command(40, Dt)) : w).ToArray();
+        var r = RecordingFeatures.Measure(cell with { Sweeps = sweeps }).Readouts;
+        if (regenerative)
+        {
+            Assert.Equal(40, r.RheobasePa!.Value, 9);
+            Assert.Equal(riseMvPerMs, r.MaxRiseMvPerMs!.Value, 6);
+        }
+        else
+        {
+            Assert.Null(r.RheobasePa);
+            Assert.Null(r.ThresholdMv);
+            Assert.Null(r.HalfWidthMs);
+            Assert.Contains(r.Notes, n => n.Contains("no regenerative spike") && n.Contains("sweep 5"));
+        }
+    }
+
+    /// <summary>Rest, then a linear rise of <paramref name="heightMv"/> at <paramref name="riseMvPerMs"/> 10 ms after onset, and the same fall.</summary>
+    private static double[] Bump(double riseMvPerMs, double heightMv, double dtMs)
+    {
+        var v = SyntheticSweeps.Passive(0, 200, 20, dtMs);
+        double start = SyntheticSweeps.OnsetMs + 10, rise = heightMv / riseMvPerMs;
+        for (int k = 0; k < v.Length; k++)
+        {
+            double x = k * dtMs - start;
+            if (x >= 0 && x <= rise) v[k] += riseMvPerMs * x;
+            else if (x > rise && x <= 2 * rise) v[k] += heightMv - riseMvPerMs * (x - rise);
+        }
+        return v;
+    }
 }
 
 internal static class TestExtensions

@@ -90,4 +90,37 @@ public sealed class CompareApiTests(AppFactory factory) : ApiTestBase(factory)
         await AssertProblem(await Client.PostAsync("/api/compare", DemoForm(("groupBy", "group"), ("colour", "red"))), 400, "colour: not a field");
         await AssertProblem(await Client.PostAsJsonAsync("/api/compare", new { expression = "gene,c1\nScn1a,3\n" }), 400, "recorded: required");
     }
+    [Fact]
+    public async Task RecordedSweepsAsFilePartsAreMeasuredAndNameTheirSource()
+    {
+        var form = DemoForm(("groupBy", "group"), ("shrink", "none"));
+        form.Add(new ByteArrayContent(File.ReadAllBytes(DemoPath("recordings/FH1001.nwb"))), "recording", "FH1001.nwb");
+        form.Add(new ByteArrayContent(File.ReadAllBytes(DemoPath("recordings/FH2002.nwb"))), "recording2", "FH2002.nwb");
+        var r = await Client.PostAsync("/api/compare", form);
+        var body = await Json(r);
+        Assert.True(r.IsSuccessStatusCode, body.ToString());
+        var cells = body.GetProperty("cells").EnumerateArray().ToArray();
+        // Only the recorded cells are compared (the metadata's invented columns are not joined unless sent as 'recorded').
+        Assert.Equal(["FH1001", "FH2002"], cells.Select(c => c.GetProperty("cellId").GetString()).Distinct().Order());
+        var rin = cells.Single(c => c.GetProperty("cellId").GetString() == "FH1001" && c.GetProperty("readout").GetString() == "input_resistance");
+        // catalog/demo/recorded-features.csv: FH1001's recording measures 270.782 MOhm.
+        Assert.Equal(270.782, rin.GetProperty("recorded").GetDouble(), 2);
+        Assert.Equal("sweeps FH1001.nwb", rin.GetProperty("recordedSource").GetString());
+    }
+
+    [Fact]
+    public async Task BadRecordingUploadsAreProblemsNamingTheFile()
+    {
+        var form = DemoForm(("groupBy", "group"));
+        form.Add(new ByteArrayContent([1, 2, 3, 4]), "recording", "broken.nwb");
+        var r = await Client.PostAsync("/api/compare", form);
+        Assert.Equal(400, (int)r.StatusCode);
+        Assert.Contains("broken.nwb", await r.Content.ReadAsStringAsync());
+
+        var form2 = DemoForm(("groupBy", "group"));
+        form2.Add(new ByteArrayContent([1, 2, 3]), "recording", "sweep one.exe");
+        var r2 = await Client.PostAsync("/api/compare", form2);
+        Assert.Equal(400, (int)r2.StatusCode);
+        Assert.Contains("must be letters, digits", await r2.Content.ReadAsStringAsync());
+    }
 }

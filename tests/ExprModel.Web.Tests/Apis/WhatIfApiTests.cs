@@ -51,4 +51,34 @@ public sealed class WhatIfApiTests(AppFactory factory) : ApiTestBase(factory)
         await AssertProblem(await Client.PostAsJsonAsync("/api/whatif/knockdown", new { model = Preset("wb1996"), genes = true }), 400, "built from expression");
         await AssertProblem(await Client.PostAsJsonAsync("/api/whatif/sensitivity", new { model = Preset("wb1996"), stepLn = 5.0 }), 400, "stepLn");
     }
+    [Fact]
+    public async Task Fit_takes_its_targets_from_a_recorded_table_or_recorded_sweeps()
+    {
+        var body = await Json(await Client.PostAsJsonAsync("/api/whatif/fit", new
+        {
+            model = Preset("wb1996"),
+            recorded = "cell,group,resting potential (mV)\na1,A,-66\na2,A,-64\na3,A,-65\nb1,B,-70\n",
+            group = "A",
+        }));
+        // Mean -65 mV scaled by the sample SD of -66, -64, -65 (1 mV).
+        var target = body.GetProperty("residuals").EnumerateArray().Single();
+        Assert.Equal(-65, target.GetProperty("recorded").GetDouble(), 9);
+        Assert.Equal(1, target.GetProperty("scale").GetDouble(), 9);
+        Assert.Contains(body.GetProperty("targetNotes").EnumerateArray(), n => n.GetString()!.Contains("mean of 3 cells"));
+
+        string nwb = null!;
+        for (var d = new DirectoryInfo(AppContext.BaseDirectory); d is not null && nwb is null; d = d.Parent)
+            if (File.Exists(Path.Combine(d.FullName, "catalog", "demo", "recordings", "FH1001.nwb"))) nwb = Path.Combine(d.FullName, "catalog", "demo", "recordings", "FH1001.nwb");
+        var swept = await Json(await Client.PostAsJsonAsync("/api/whatif/fit", new
+        {
+            model = Preset("wb1996"),
+            recordings = new[] { new { name = "FH1001.nwb", contentBase64 = Convert.ToBase64String(File.ReadAllBytes(nwb)) } },
+            cell = "FH1001",
+            fitReadouts = new[] { "resting_potential" },
+        }));
+        // catalog/demo/recorded-features.csv: FH1001 rests at -80.2095 mV.
+        Assert.Equal(-80.2095, swept.GetProperty("residuals").EnumerateArray().Single().GetProperty("recorded").GetDouble(), tolerance: 1e-3); // the table rounds to six significant digits
+
+        await AssertProblem(await Client.PostAsJsonAsync("/api/whatif/fit", new { model = Preset("wb1996"), recorded = "cell,resting potential (mV)\na1,-66\n", cell = "zz" }), 400, "zz");
+    }
 }
