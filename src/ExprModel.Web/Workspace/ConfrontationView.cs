@@ -27,7 +27,7 @@ public sealed class ConfrontationView(WorkspaceState workspace, CellBatchJob job
     {
         get
         {
-            if (job.Rows is not { Count: > 0 } rows || workspace.Recorded.Features is not { Readouts.Count: > 0 } features) return null;
+            if (job.Rows is not { Count: > 0 } rows || workspace.Recorded.Compared is not { Readouts.Count: > 0 } features) return null;
             var key = (job.Rows, rows.Count, workspace.Recorded.Version);
             if (_result is not null && _key == key) return _result;
             var predictions = rows.ToDictionary(r => r.Item, r => new CellPrediction(r.Item, r.Readouts, r.Warnings), StringComparer.Ordinal);

@@ -54,7 +54,7 @@ public sealed class MapSession : IDisposable
     public CellBatchJob CellBatch { get; }
     /// <summary>The every-cell read-outs against the recorded values, when some are loaded.</summary>
     public ConfrontationView Confrontation { get; }
-    public bool HasRecorded => _workspace.Recorded.Features is { Readouts.Count: > 0 };
+    public bool HasRecorded => _workspace.Recorded.Compared is { Readouts.Count: > 0 };
 
     /// <summary>Shows <paramref name="message"/> to the user (a download that failed, say).</summary>
     public void Refuse(string message)

@@ -27,6 +27,20 @@ public sealed class RecordedData
     public bool TableIsMetadata { get; private set; }
     /// <summary>The table matched to read-outs; null without a table.</summary>
     public RecordedFeatures? Features { get; private set; }
+    /// <summary>
+    /// What the predictions are compared with: the recorded sweeps' read-outs joined with the table by the library
+    /// (<see cref="RecordedSweepFeatures.Join"/>: a cell's sweeps win, the table's value is then named in a note), as
+    /// `exprmodel compare --recordings` does; the table alone without sweeps; null with neither.
+    /// </summary>
+    public RecordedFeatures? Compared
+    {
+        get
+        {
+            if (_sweepReadouts.Count == 0) return Features;
+            var sweeps = RecordedSweepFeatures.From(_sweepReadouts.Values.ToArray(), "recorded sweeps", _isCell);
+            return Features is null ? sweeps : RecordedSweepFeatures.Join(sweeps, Features);
+        }
+    }
     /// <summary>The user's column choices: header to read-out name, or to "none".</summary>
     public IReadOnlyDictionary<string, string> ColumnChoices => _choices;
     /// <summary>True once <see cref="Match"/> checked the cell ids against the expression table.</summary>

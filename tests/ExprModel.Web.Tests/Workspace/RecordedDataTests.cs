@@ -48,6 +48,29 @@ public sealed class RecordedDataTests : IDisposable
     }
 
     [Fact]
+    public async Task The_comparison_takes_a_cells_sweeps_over_the_table_as_the_command_line_does()
+    {
+        var recorded = await LoadDemo();
+        var compared = recorded.Compared!;
+        var resistance = compared.Readouts.Single(r => r.Readout == "input_resistance");
+        // FH1001 has both a table value and sweeps: the value compared is the one measured from its sweeps.
+        var fromSweeps = recorded.SweepReadouts["FH1001"].Readouts.InputResistanceMOhm!.Value;
+        Assert.Equal(fromSweeps, resistance.ValueByCell["FH1001"]);
+        Assert.NotEqual(MetadataValue("FH1001", "input resistance (MOhm)"), fromSweeps);
+        // A cell with a table value and no sweeps keeps its table value.
+        var tableOnly = MetadataRheobases().First(r => !recorded.SweepReadouts.ContainsKey(r.Cell));
+        var rheobase = compared.Readouts.Single(r => r.Readout == "rheobase_absolute");
+        Assert.Equal(tableOnly.RheobasePa, rheobase.ValueByCell[tableOnly.Cell]);
+    }
+
+    private static double MetadataValue(string cell, string header)
+    {
+        var lines = File.ReadAllLines(Path.Combine(Demo, "metadata.csv"));
+        int col = Array.IndexOf(lines[0].Split(','), header);
+        return double.Parse(lines.Skip(1).Select(l => l.Split(',')).Single(f => f[0] == cell)[col], CultureInfo.InvariantCulture);
+    }
+
+    [Fact]
     public async Task A_cells_values_come_from_the_table_and_its_sweeps_fill_what_the_table_lacks()
     {
         var recorded = await LoadDemo();
