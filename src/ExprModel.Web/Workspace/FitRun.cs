@@ -27,6 +27,8 @@ public sealed class FitRun(ModelRunner runner, SimulationGate gate, Func<ModelDo
     public FitResult? Result { get; private set; }
     public string? MeasuredModelJson { get; private set; }
     public string MeasuredOrigin { get; private set; } = "";
+    /// <summary>The name the fitted model was opened under on the Workbench; null until it is.</summary>
+    public string? OpenedAs { get; private set; }
 
     /// <summary>Replaces the rows with recorded read-outs (the page labels them "pre-filled from recordings").</summary>
     public void Prefill(IEnumerable<FitTarget> targets)
@@ -117,6 +119,7 @@ public sealed class FitRun(ModelRunner runner, SimulationGate gate, Func<ModelDo
         }, fit =>
         {
             Result = fit;
+            OpenedAs = null;
             MeasuredModelJson = doc.ToJson();
             MeasuredOrigin = origin;
         });
@@ -126,6 +129,7 @@ public sealed class FitRun(ModelRunner runner, SimulationGate gate, Func<ModelDo
     public void OpenFitted()
     {
         if (Result is null) return;
+        OpenedAs = Result.Document.Name;
         open(Result.Document, $"fitted to {Result.Residuals.Count} recorded read-out(s) from {(MeasuredOrigin.Length > 0 ? MeasuredOrigin : "the model")}");
     }
 

@@ -44,7 +44,7 @@ public sealed class WhatIfAreaTests : BunitContext
     public void Which_entries_set_the_rheobase_of_a_preset_shows_the_tornado_and_the_ranked_table()
     {
         var cut = Render(s => s.OpenInitial("cortex-rs2008"));
-        Assert.Contains("Research use only", cut.Find("[data-testid=caution]").TextContent);
+        Assert.Contains("Research use only", cut.Find("[data-testid=whatif-caution]").TextContent);
         // A published model records no genes: entries only.
         Assert.Empty(cut.FindAll("[data-testid=kd-genes]"));
         var button = cut.Find("[data-testid=kd-rheobase]");
