@@ -156,6 +156,34 @@ public sealed class RecordedData
         return result;
     }
 
+    /// <summary>
+    /// Fit targets for a model's target from what it was compared with (<see cref="Compared"/>), by the library's
+    /// <see cref="RecordedFitTargets.For"/> (a cell: its values with each read-out's default scale; a group: the mean
+    /// scaled by the group's recorded SD); null when the target has no recorded values. The same answer comes back as
+    /// the same object until the recorded data change, so a panel can tell a new pre-fill from a repeated one.
+    /// </summary>
+    /// <param name="areaUm2">The model's membrane area, to convert a current recorded per area (or the reverse).</param>
+    public RecordedTargets? FitTargetsFor(ModelTarget? target, double areaUm2)
+    {
+        if (target is null || Compared is not { } compared) return null;
+        // Keyed without the area: a change of the area control must not replace targets the user has edited since.
+        var key = (target, Version);
+        if (_targetsKey == key) return _targets is { Targets.Count: > 0 } ? _targets : null;
+        _targetsKey = key;
+        _targets = null;
+        try
+        {
+            var members = target.Group is { } g ? RecordedCellIds().Where(c => _groupOf(c) == g).ToArray() : null;
+            if (target.CellId is { } c ? compared.RecordedCells.Contains(c) : members is { Length: > 0 })
+                _targets = RecordedFitTargets.For(compared, _sweepReadouts.Values.ToArray(), target.CellId, target.Group, members, areaUm2);
+        }
+        catch (ArgumentException) { _targets = null; }
+        return _targets is { Targets.Count: > 0 } ? _targets : null;
+    }
+
+    private (ModelTarget, int)? _targetsKey;
+    private RecordedTargets? _targets;
+
     /// <summary>Every cell with a recorded value or sweeps, table cells first.</summary>
     public IEnumerable<string> RecordedCellIds() =>
         (Features?.RecordedCells ?? []).Concat(_sweepReadouts.Keys.Order(StringComparer.Ordinal)).Distinct(StringComparer.Ordinal);

@@ -63,6 +63,19 @@ public sealed class RecordedDataTests : IDisposable
         Assert.Equal(tableOnly.RheobasePa, rheobase.ValueByCell[tableOnly.Cell]);
     }
 
+    [Fact]
+    public async Task A_cells_fit_targets_are_what_it_was_compared_with_measured_on_the_recorded_steps()
+    {
+        var recorded = await LoadDemo();
+        var targets = recorded.FitTargetsFor(ModelTarget.ForCell("FH1001"), 5000)!;
+        var resistance = targets.Targets.Single(t => t.Readout == "input_resistance");
+        Assert.Equal(recorded.SweepReadouts["FH1001"].Readouts.InputResistanceMOhm!.Value, resistance.Value);
+        // The demo's recorded steps last 400 ms (catalog/demo/README.md); the fit measures the model on the same steps.
+        Assert.Equal(400, targets.StepDurationMs);
+        Assert.Same(targets, recorded.FitTargetsFor(ModelTarget.ForCell("FH1001"), 5000));
+        Assert.Null(recorded.FitTargetsFor(ModelTarget.ForCell("FH9999"), 5000));
+    }
+
     private static double MetadataValue(string cell, string header)
     {
         var lines = File.ReadAllLines(Path.Combine(Demo, "metadata.csv"));
