@@ -57,7 +57,10 @@ public static class ExpressionModelBuilder
             ["clamp"] = rule.ClampToPlausibleRange,
             ["overrides"] = new JsonArray(report.Overrides.Select(o => (JsonNode)new JsonObject
             {
-                ["gene"] = o.Gene, ["exclude"] = o.Exclude, ["entry"] = o.EntryId, ["weight"] = o.Weight,
+                ["gene"] = o.Gene,
+                ["exclude"] = o.Exclude,
+                ["entry"] = o.EntryId,
+                ["weight"] = o.Weight,
             }).ToArray()),
             ["densities"] = new JsonArray(derivations.Select(d => (JsonNode)new JsonObject
             {

@@ -88,8 +88,13 @@ public sealed class CatalogContent
         }
         return new CatalogContent
         {
-            Entries = entries, EntryFiles = files, GeneLinks = links, GeneStatuses = statuses, GeneIdentifiers = identifiers,
-            Presets = presets, Provenance = provenance,
+            Entries = entries,
+            EntryFiles = files,
+            GeneLinks = links,
+            GeneStatuses = statuses,
+            GeneIdentifiers = identifiers,
+            Presets = presets,
+            Provenance = provenance,
         };
     }
 

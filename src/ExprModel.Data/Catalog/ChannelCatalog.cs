@@ -74,8 +74,16 @@ public sealed class ChannelCatalog
             d[r.GetString(3)] = new GateRate
             {
                 Shape = Enum.Parse<RateShape>(r.GetString(4).Replace("-", ""), ignoreCase: true),
-                A = r.GetDouble(5), V0 = r.GetDouble(6), K = r.GetDouble(7), Exponent = r.GetDouble(8), Floor = r.GetDouble(9),
-                Base = r.GetDouble(10), V1 = r.GetDouble(11), K1 = r.GetDouble(12), C1 = r.GetDouble(13), C2 = r.GetDouble(14),
+                A = r.GetDouble(5),
+                V0 = r.GetDouble(6),
+                K = r.GetDouble(7),
+                Exponent = r.GetDouble(8),
+                Floor = r.GetDouble(9),
+                Base = r.GetDouble(10),
+                V1 = r.GetDouble(11),
+                K1 = r.GetDouble(12),
+                C1 = r.GetDouble(13),
+                C2 = r.GetDouble(14),
             };
         }
         var gates = new Dictionary<(string, long), List<GateSpec>>();
@@ -133,8 +141,15 @@ public sealed class ChannelCatalog
                 CuratorNote = r.GetString(13),
                 Source = new Citation
                 {
-                    Authors = r.GetString(14), Year = r.GetInt32(15), Title = r.GetString(16), Journal = r.GetString(17), Volume = r.GetString(18),
-                    Pages = r.GetString(19), Doi = r.GetString(20), Location = r.GetString(21), Verification = ParseWord<Verification>(r.GetString(22)),
+                    Authors = r.GetString(14),
+                    Year = r.GetInt32(15),
+                    Title = r.GetString(16),
+                    Journal = r.GetString(17),
+                    Volume = r.GetString(18),
+                    Pages = r.GetString(19),
+                    Doi = r.GetString(20),
+                    Location = r.GetString(21),
+                    Verification = ParseWord<Verification>(r.GetString(22)),
                 },
                 Gates = gates.TryGetValue(key, out var gl) ? gl : [],
                 PublishedValues = published.TryGetValue(key, out var pl) ? pl : [],

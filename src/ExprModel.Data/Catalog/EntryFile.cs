@@ -252,14 +252,28 @@ public static class EntryFile
 
         public Citation ToCitation() => new()
         {
-            Authors = Authors, Year = Year, Title = Title, Journal = Journal, Volume = Volume, Pages = Pages, Doi = Doi,
-            Location = Location, Verification = Verification,
+            Authors = Authors,
+            Year = Year,
+            Title = Title,
+            Journal = Journal,
+            Volume = Volume,
+            Pages = Pages,
+            Doi = Doi,
+            Location = Location,
+            Verification = Verification,
         };
 
         public static SourceDto From(Citation c) => new()
         {
-            Authors = c.Authors, Year = c.Year, Title = c.Title, Journal = c.Journal, Volume = c.Volume, Pages = c.Pages, Doi = c.Doi,
-            Location = c.Location, Verification = c.Verification,
+            Authors = c.Authors,
+            Year = c.Year,
+            Title = c.Title,
+            Journal = c.Journal,
+            Volume = c.Volume,
+            Pages = c.Pages,
+            Doi = c.Doi,
+            Location = c.Location,
+            Verification = c.Verification,
         };
     }
 

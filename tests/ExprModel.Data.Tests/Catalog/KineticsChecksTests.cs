@@ -184,7 +184,8 @@ public class ReversalRuleTests
         var e = CatalogFiles.Content.Entries.Single(x => x.Key == key);
         var cell = new Core.Cell.CellModel
         {
-            Geometry = Core.Cell.Geometry.FromDiameter(20), TemperatureC = 37,
+            Geometry = Core.Cell.Geometry.FromDiameter(20),
+            TemperatureC = 37,
             Channels = [new Core.Cell.ChannelInstance { Entry = e, DensityMsPerCm2 = 1 }],
         };
         double erev = cell.ReversalPotentialMv(cell.Channels[0]);
