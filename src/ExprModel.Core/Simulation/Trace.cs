@@ -23,7 +23,8 @@ public sealed record SimulationSettings
     /// <summary>Integration steps between the resume points a run keeps (10 ms at the default 25 us step).</summary>
     public const int ResumePointEverySteps = 400;
     public SpikeDetection Spikes { get; init; } = SpikeDetection.Default;
-    /// <summary>Spike-only runs end as soon as a spike after this time (ms) is confirmed (in a SIMD group: once every lane has one). Null runs to the end.</summary>
+    /// <summary>Spike-only runs end as soon as a spike after this time (ms) is confirmed (in a SIMD group: once every lane has one). Null runs to the
+    /// end.</summary>
     public double? StopAtFirstSpikeAfterMs { get; init; }
 
     public static SimulationSettings Default { get; } = new();

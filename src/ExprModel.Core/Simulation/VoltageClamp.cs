@@ -21,7 +21,8 @@ public static class VoltageClamp
         double holdMs = 50, double stepMs = 100, double dtMs = 0.025, CancellationToken cancel = default)
     {
         var result = new ClampStep[commandsMv.Count];
-        Parallel.For(0, commandsMv.Count, new ParallelOptions { CancellationToken = cancel }, i => result[i] = Run(cell, holdingMv, commandsMv[i], holdMs, stepMs, dtMs));
+        Parallel.For(0, commandsMv.Count, new ParallelOptions { CancellationToken = cancel },
+            i => result[i] = Run(cell, holdingMv, commandsMv[i], holdMs, stepMs, dtMs));
         return result;
     }
 

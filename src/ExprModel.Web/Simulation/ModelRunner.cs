@@ -143,7 +143,8 @@ public sealed class ModelRunner(ChannelCatalog catalog, SimulationGate gate)
         for (int from = 0; from < targets.Count; from += CellBatchChunk)
         {
             int start = from, to = Math.Min(targets.Count, from + CellBatchChunk);
-            var rows = await gate.RunAsync(token => BatchReadouts.Run(data.Table, report, data.Catalog, rule, targets, data.Groups, start, to, null, token), cancel);
+            var rows =
+                await gate.RunAsync(token => BatchReadouts.Run(data.Table, report, data.Catalog, rule, targets, data.Groups, start, to, null, token), cancel);
             chunkDone(rows);
             done += rows.Count;
             progress(done);

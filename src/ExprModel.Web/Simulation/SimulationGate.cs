@@ -53,5 +53,6 @@ public sealed class SimulationGate
     }
 
     private SimulationTimeoutException TimedOut(string stage) =>
-        new($"The request was stopped after {_timeout.TotalSeconds:0.#} s while {stage} (the server's per-request limit). Shorten the protocol or use fewer f-I steps.");
+        new($"The request was stopped after {_timeout.TotalSeconds:0.#} s while {stage} (the server's per-request limit). " +
+            "Shorten the protocol or use fewer f-I steps.");
 }

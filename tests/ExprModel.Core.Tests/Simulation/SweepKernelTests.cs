@@ -35,7 +35,8 @@ public class SweepKernelTests
             Family = "Cav-HVA",
             Ion = Ion.Calcium,
             Reversal = rule,
-            Gates = [new GateSpec { Name = "m", Power = 2, Kind = GateKind.SteadyStateAndTau, SteadyState = GateRate.Boltzmann(-20, 6), TimeConstantMs = GateRate.Constant(1) }],
+            Gates = [new GateSpec { Name = "m", Power = 2, Kind = GateKind.SteadyStateAndTau, SteadyState = GateRate.Boltzmann(-20, 6),
+                TimeConstantMs = GateRate.Constant(1) }],
             ReferenceTemperatureC = 6.3,
             Q10 = 3,
             TypicalDensityMsPerCm2 = 1,
@@ -64,7 +65,8 @@ public class SweepKernelTests
         var model = preset with
         {
             CalciumShell = new CalciumShell { DepthUm = 0.1, DecayMs = 50, RestMm = 5e-5, BufferCapacity = 0 },
-            Channels = [.. preset.Channels, new ChannelInstance { Entry = calcium, DensityMsPerCm2 = 0.1 }, new ChannelInstance { Entry = sk, DensityMsPerCm2 = 0.5 }],
+            Channels =
+                [.. preset.Channels, new ChannelInstance { Entry = calcium, DensityMsPerCm2 = 0.1 }, new ChannelInstance { Entry = sk, DensityMsPerCm2 = 0.5 }],
         };
         var cell = new CompiledCell(model);
         var amps = new[] { 0.0, 5, 10, 15, 20, 30 };
