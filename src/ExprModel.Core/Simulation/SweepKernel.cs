@@ -3,9 +3,6 @@ using System.Runtime.Intrinsics.X86;
 
 namespace ExprModel.Core.Simulation;
 
-/// <summary>One stimulus's result in a sweep: its spike times and, when asked for, a resume point shortly before its first spike.</summary>
-public sealed record SweepLane(IReadOnlyList<double> SpikeTimesMs, ResumePoint? BeforeFirstSpike);
-
 /// <summary>
 /// The sweep hot loop with four stimuli as SIMD lanes (AVX2 gathers from the rate tables, FMA, vector exp). Same staggered scheme and the same spike rule as
 /// the scalar loop, so results agree with it to rounding. Handles voltage gates from tables, calcium-gated (Hill) gates, calcium

@@ -6,9 +6,6 @@ using ExprModel.Data.Catalog;
 
 namespace ExprModel.Web.Simulation;
 
-/// <summary>A model or protocol the user must fix, with the field at fault (shown as a 400 ProblemDetails or a page message).</summary>
-public sealed class UserInputException(string message) : Exception(message);
-
 /// <summary>
 /// What the pages and the HTTP API run: a model document and a protocol in, plot-ready views out. All science is the
 /// library's (<see cref="Simulator"/>, the read-out and f-I facades); this class only compiles, bounds and shapes.
