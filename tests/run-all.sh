@@ -1,7 +1,8 @@
 #!/usr/bin/env bash
 # Runs every test of the solution on a fresh machine with the .NET SDK: installs what the tests need
 # (Debian's chromium for the browser tests), builds, runs each test project and prints a final summary line
-# "tests: N passed, N failed[, N skipped]". Exit status is non-zero when any test fails or a project cannot run.
+# "tests: N passed, N failed[, N skipped]". A failed formatting check (dotnet format --verify-no-changes) counts as one failed test.
+# Exit status is non-zero when any test fails, a project cannot run or the formatting check fails.
 set -uo pipefail
 cd "$(dirname "$0")/.."
 
@@ -17,6 +18,20 @@ fi
 dotnet build ExprModel.sln -c Release -nologo -v q || { echo "tests: 0 passed, 1 failed"; exit 1; }
 
 passed=0; failed=0; skipped=0; status=0
+
+# Formatting as .editorconfig configures it: any file dotnet format would change counts as one failed test.
+format_log=$(mktemp)
+if dotnet format ExprModel.sln --verify-no-changes -v q >"$format_log" 2>&1; then
+  echo "format: clean"
+else
+  echo "format: dotnet format would change these files (run 'dotnet format ExprModel.sln'):"
+  grep -E ": error " "$format_log" | grep -oE "^[^(]+\(" | sed -E 's/\($//' | sed "s|^$PWD/||" | sort | uniq -c \
+    | awk '{ print "  " $2 " (" $1 " places)" }' || true
+  grep -qE ": error " "$format_log" || cat "$format_log"
+  failed=$((failed + 1)); status=1
+fi
+rm -f "$format_log"
+
 for proj in tests/*/*.csproj; do
   name=$(basename "$proj" .csproj)
   [ "$name" = "ExprModel.Benchmarks" ] && continue

@@ -20,7 +20,8 @@ builder.Services.AddSingleton(sp =>
     var o = sp.GetRequiredService<IOptions<WebOptions>>().Value;
     return o.CatalogDatabasePath is { Length: > 0 } path ? CatalogLocator.Ensure(path) : CatalogLocator.Default();
 });
-builder.Services.AddSingleton(sp => SnapshotStore.Open(sp.GetRequiredService<IOptions<WebOptions>>().Value.AppDatabasePath is { Length: > 0 } p ? p : SnapshotStore.DefaultPath()));
+builder.Services.AddSingleton(sp =>
+    SnapshotStore.Open(sp.GetRequiredService<IOptions<WebOptions>>().Value.AppDatabasePath is { Length: > 0 } p ? p : SnapshotStore.DefaultPath()));
 builder.Services.AddSingleton<SimulationGate>();
 builder.Services.AddSingleton<ModelRunner>();
 builder.Services.AddSingleton<SnapshotService>();
@@ -30,7 +31,8 @@ builder.Services.AddScoped<WorkspaceState>();
 builder.Services.AddProblemDetails();
 builder.Services.AddExceptionHandler<ProblemMapping>();
 builder.Services.Configure<RouteHandlerOptions>(o => o.ThrowOnBadRequest = true);
-builder.Services.ConfigureHttpJsonOptions(o => o.SerializerOptions.NumberHandling = System.Text.Json.Serialization.JsonNumberHandling.AllowNamedFloatingPointLiterals);
+builder.Services.ConfigureHttpJsonOptions(o =>
+    o.SerializerOptions.NumberHandling = System.Text.Json.Serialization.JsonNumberHandling.AllowNamedFloatingPointLiterals);
 builder.Services.AddOpenApi("v1");
 builder.Services.AddAntiforgery();
 builder.Services.AddRazorComponents()
@@ -60,7 +62,8 @@ app.MapRazorComponents<App>().AddInteractiveServerRenderMode();
 
 app.Lifetime.ApplicationStarted.Register(() =>
 {
-    foreach (var url in app.Urls) Console.WriteLine($"ExprModel is running at {url}  (catalog: {catalog.Latest.Count} entries, {catalog.DatabasePath}; shared models: {store.DatabasePath})");
+    foreach (var url in app.Urls) Console.WriteLine($"ExprModel is running at {url}  (catalog: {catalog.Latest.Count} entries, {catalog.DatabasePath}; " +
+        $"shared models: {store.DatabasePath})");
 });
 
 app.Run();

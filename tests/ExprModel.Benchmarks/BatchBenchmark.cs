@@ -37,8 +37,15 @@ public static class BatchBenchmark
         }
         var table = new ExpressionTable
         {
-            Source = $"demo resampled to {cells} cells", CellIds = ids, Genes = genes, LibrarySizes = lib, TotalGeneCount = demo.TotalGeneCount,
-            Unit = ExpressionUnit.Counts, UnitNote = "counts", Orientation = TableOrientation.GenesAsRows, OrientationNote = "built in memory",
+            Source = $"demo resampled to {cells} cells",
+            CellIds = ids,
+            Genes = genes,
+            LibrarySizes = lib,
+            TotalGeneCount = demo.TotalGeneCount,
+            Unit = ExpressionUnit.Counts,
+            UnitNote = "counts",
+            Orientation = TableOrientation.GenesAsRows,
+            OrientationNote = "built in memory",
         };
         var report = ExpressionMapping.Map(table, mapping);
         var targets = ids.Select(ModelTarget.ForCell).ToArray();

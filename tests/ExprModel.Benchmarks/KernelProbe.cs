@@ -33,7 +33,8 @@ internal static class KernelProbe
             var table = Simulator.TableFor(cell, 0.025);
             double simd = Best(() => SweepKernel.Run(cell, table, stims, Steps, SimulationSettings.SpikesOnly, rest, null, default));
             double scalar = Best(() => Simulator.Run(cell, stims[1], Steps * 0.025, SimulationSettings.SpikesOnly, rest));
-            Console.WriteLine($"{label,-26} {cell.GateCount,3} gates {cell.ChannelCount,3} channels: SIMD {simd * 1e6 / Steps,5:F0} | scalar {scalar * 1e6 / Steps,5:F0}");
+            Console.WriteLine($"{label,-26} {cell.GateCount,3} gates {cell.ChannelCount,3} channels: " +
+                $"SIMD {simd * 1e6 / Steps,5:F0} | scalar {scalar * 1e6 / Steps,5:F0}");
         }
     }
 

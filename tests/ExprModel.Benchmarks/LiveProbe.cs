@@ -13,7 +13,8 @@ internal static class LiveProbe
     {
         var catalog = CatalogLocator.Ensure();
         var docs = Models(catalog, modelPaths, "wb1996", "cortex-rs2008", "hh1952", "cortex-fs2008");
-        Console.WriteLine("live update cost, median of 7 (ms): read-outs (live settings): all | first stage cold | first stage seeded 5 % off | second stage | 700 ms step: currents recorded throughout, and as the Workbench runs it (voltage, then the spike window again with gate states)");
+        Console.WriteLine("live update cost, median of 7 (ms): read-outs (live settings): all | first stage cold | first stage seeded 5 % off | second stage " +
+            "| 700 ms step: currents recorded throughout, and as the Workbench runs it (voltage, then the spike window again with gate states)");
         foreach (var (name, doc) in docs)
         {
             var cell = new CompiledCell(catalog.BuildCell(doc));
@@ -35,7 +36,8 @@ internal static class LiveProbe
                 var from = t.ResumePoints.Last(r => r.TimeMs <= t.SpikeTimesMs[0] - 3);
                 Simulator.Resume(cell, step, from, Math.Min(700, t.SpikeTimesMs[0] + 9), settings with { RecordCurrents = false, RecordGateStates = true });
             });
-            Console.WriteLine($"{name,-24} {cell.GateCount,3} gates  all {read,7:F1} | first cold {cold,6:F1} | first seeded {warm,6:F1} | second {second,6:F1} | step with currents {trace,6:F1}, as the Workbench runs it {workbench,5:F1}");
+            Console.WriteLine($"{name,-24} {cell.GateCount,3} gates  all {read,7:F1} | first cold {cold,6:F1} | first seeded {warm,6:F1} | second " +
+                $"{second,6:F1} | step with currents {trace,6:F1}, as the Workbench runs it {workbench,5:F1}");
             Moves(catalog, doc, hint);
         }
     }
@@ -48,7 +50,8 @@ internal static class LiveProbe
     private static void Moves(ChannelCatalog catalog, ModelDocument doc, RheobaseHint? hint)
     {
         var rel = new[] { 0.7, 1.3, 0.85, 1.15, 0.6, 1.45, 0.95 };
-        var moved = rel.Select((r, i) => doc.WithRelativeDensities(new Dictionary<string, double> { [doc.Channels[i % doc.Channels.Count].Entry] = r })).ToArray();
+        var moved =
+            rel.Select((r, i) => doc.WithRelativeDensities(new Dictionary<string, double> { [doc.Channels[i % doc.Channels.Count].Entry] = r })).ToArray();
         var cache = new KineticsCache();
         cache.Compile(catalog.BuildCell(doc));
         var step = new StepCurrent(100, 500, 10);
@@ -80,7 +83,8 @@ internal static class LiveProbe
         });
         double freshCompile = CompileOnly(Fresh), cachedCompile = CompileOnly(Cached);
         double freshMove = MedianOf(() => Move(Fresh, true)), cachedMove = MedianOf(() => Move(Cached, true));
-        Console.WriteLine($"{"",-24} density move: compile + 1 ms run {freshCompile:F3} ms fresh, {cachedCompile:F3} ms via kinetics cache | whole move (2 compiles, Workbench trace, seeded first stage) {freshMove:F1} ms fresh, {cachedMove:F1} ms cached");
+        Console.WriteLine($"{"",-24} density move: compile + 1 ms run {freshCompile:F3} ms fresh, {cachedCompile:F3} ms via kinetics cache | whole move (2 " +
+            $"compiles, Workbench trace, seeded first stage) {freshMove:F1} ms fresh, {cachedMove:F1} ms cached");
     }
 
     /// <summary>
@@ -129,8 +133,10 @@ internal static class LiveProbe
                 previous = first.Hint;
             }
             static double Med(List<double> x) => x.Count == 0 ? double.NaN : x.Order().ElementAt(x.Count / 2);
-            Console.WriteLine($"{name,-24} {moves} moves, rheobase search rounds: cold {cold / (double)moves:F2}, from the previous rheobase {byRheobase / (double)moves:F2}, " +
-                $"from the slope-scaled hint {byHint / (double)moves:F2}; median start error in grid steps {Med(errRheobase):F1} and {Med(errHint):F1}; same answer {sameAnswer}/{moves}");
+            Console.WriteLine($"{name,-24} {moves} moves, rheobase search rounds: cold {cold / (double)moves:F2}, " +
+                $"from the previous rheobase {byRheobase / (double)moves:F2}, " +
+                $"from the slope-scaled hint {byHint / (double)moves:F2}; " +
+                $"median start error in grid steps {Med(errRheobase):F1} and {Med(errHint):F1}; same answer {sameAnswer}/{moves}");
         }
     }
 
@@ -146,21 +152,29 @@ internal static class LiveProbe
         {
             var cell = new CompiledCell(catalog.BuildCell(doc));
             var first = Features.MeasureFirst(cell, s);
-            if (first.RestState is not { } rest || first.SlopeConductanceMsPerCm2 is not { } g || first.RheobaseUaPerCm2 is not { } rb) { Console.WriteLine($"{name}: no rheobase"); continue; }
+            if (first.RestState is not { } rest || first.SlopeConductanceMsPerCm2 is not { } g || first.RheobaseUaPerCm2 is not { } rb)
+            {
+                Console.WriteLine($"{name}: no rheobase");
+                continue;
+            }
             var (start, max) = Rheobase.SearchRange(g);
             double settle = Median(() => Simulator.Run(cell, new NoCurrent(), s.SettleMs, sim with { RecordEvery = 0 }));
-            double passive = Median(() => Simulator.Run(cell, Protocols.Step(-5 * g, 100, s.PassiveStepMs), 100 + s.PassiveStepMs, sim with { RecordEvery = 1 }, rest));
+            double passive =
+                Median(() => Simulator.Run(cell, Protocols.Step(-5 * g, 100, s.PassiveStepMs), 100 + s.PassiveStepMs, sim with { RecordEvery = 1 }, rest));
             double cold = Median(() => Rheobase.Search(cell, rest, start, max, s));
             double seeded = Median(() => Rheobase.Search(cell, rest, start, max, s, default, rb * 1.05));
             double latency = Rheobase.Search(cell, rest, start, max, s).LatencyMs ?? s.StepDurationMs;
-            double shape = Median(() => Simulator.Run(cell, Protocols.Step(rb, 100, s.StepDurationMs), Math.Min(100 + s.StepDurationMs, 100 + latency + 150), sim with { RecordEvery = 1 }, rest));
+            double shape = Median(() => Simulator.Run(cell, Protocols.Step(rb, 100, s.StepDurationMs), Math.Min(100 + s.StepDurationMs, 100 + latency + 150),
+                sim with { RecordEvery = 1 }, rest));
             var resume = Rheobase.Search(cell, rest, start, max, s).BeforeFirstSpike;
-            double resumed = resume is null ? double.NaN : Median(() => Simulator.Resume(cell, Protocols.Step(rb, 100, s.StepDurationMs), resume, Math.Min(100 + s.StepDurationMs, 100 + latency + 150), sim with { RecordEvery = 1 }));
+            double resumed = resume is null ? double.NaN : Median(() => Simulator.Resume(cell, Protocols.Step(rb, 100, s.StepDurationMs), resume,
+                Math.Min(100 + s.StepDurationMs, 100 + latency + 150), sim with { RecordEvery = 1 }));
             var traceStep = Protocols.Step(2 * rb, 100, 500);
             double traceGates = Median(() => Simulator.Run(cell, traceStep, 700, sim with { RecordEvery = 1, RecordGateStates = true }));
             double traceBare = Median(() => Simulator.Run(cell, traceStep, 700, sim with { RecordEvery = 1 }));
             Console.WriteLine($"{name,-24} Workbench trace (700 ms at 2 x rheobase): with gate states {traceGates,5:F1}, voltage only {traceBare,5:F1}");
-            Console.WriteLine($"{name,-24} settle {settle,5:F1} | passive {passive,5:F1} | search cold {cold,5:F1} seeded {seeded,5:F1} | shape from rest {shape,5:F1}, resumed {resumed,5:F1} (latency {latency:F0} ms)");
+            Console.WriteLine($"{name,-24} settle {settle,5:F1} | passive {passive,5:F1} | search cold {cold,5:F1} seeded {seeded,5:F1} | shape from rest " +
+                $"{shape,5:F1}, resumed {resumed,5:F1} (latency {latency:F0} ms)");
         }
     }
 

@@ -31,7 +31,8 @@ internal static class Probe
             Simulator.Run(cell, stims[1], 1120, SimulationSettings.SpikesOnly);
             proc.Refresh();
             double tKernel = (c1 - c0).TotalMilliseconds, tScalar = (proc.TotalProcessorTime - c1).TotalMilliseconds;
-            Console.WriteLine($"SIMD: {tKernel * 1e6 / 44800:F0} ns per vector step ({SweepKernel.Width} lanes, 4 used); scalar: {tScalar * 1e6 / 44800:F0} ns per step (process CPU time)");
+            Console.WriteLine($"SIMD: {tKernel * 1e6 / 44800:F0} ns per vector step ({SweepKernel.Width} lanes, 4 used); scalar: " +
+                $"{tScalar * 1e6 / 44800:F0} ns per step (process CPU time)");
         }
     }
 }

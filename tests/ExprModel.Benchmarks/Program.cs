@@ -49,7 +49,8 @@ public static class Program
             double gateNs = single * 1e6 / (40000.0 * cell.GateCount);
             double fiGateNs = fi * 1e6 / (32 * 44800.0 * cell.GateCount); // FiCurve adds 100 ms before and 20 ms after each 1 s step
             Console.WriteLine($"one 1 s run at 25 us: {single:F2} ms ({gateNs:F2} ns per gate update, one core)");
-            Console.WriteLine($"f-I 32 steps x 1 s (0 to {fiTo} uA/cm2): {fi:F1} ms (target <= 100 ms; {fiGateNs:F2} ns per gate update over all cores, target <= 5 ns)");
+            Console.WriteLine($"f-I 32 steps x 1 s (0 to {fiTo} uA/cm2): {fi:F1} ms (target <= 100 ms; " +
+                $"{fiGateNs:F2} ns per gate update over all cores, target <= 5 ns)");
             if (preset == "hh1952" && native is { } n)
             {
                 Console.WriteLine($"native C yardstick, same f-I workload: direct exp {n.DirectMs:F1} ms, rate tables {n.TableMs:F1} ms");
@@ -62,7 +63,8 @@ public static class Program
             var step = Protocols.Step(preset == "hh1952" ? 10 : 2, 100, 1000);
             double fastAcc = Median(repeats, () => Simulator.Run(cell, step, 1100, new SimulationSettings { DtMs = dt, RecordEvery = 0 }));
             double refMs = Median(1, () => ReferenceIntegrator.Run(cell, step, 1100, 0.001, 0));
-            Console.WriteLine($"equal accuracy (0.1 ms spike times over 1 s): fast at {dt} ms step {fastAcc:F1} ms vs reference RK4 at 1 us {refMs:F0} ms: speed-up {refMs / fastAcc:F0}x");
+            Console.WriteLine($"equal accuracy (0.1 ms spike times over 1 s): fast at {dt} ms step {fastAcc:F1} ms vs reference RK4 at 1 us {refMs:F0} ms: " +
+                $"speed-up {refMs / fastAcc:F0}x");
         }
         return 0;
     }

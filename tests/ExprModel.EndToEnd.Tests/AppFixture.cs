@@ -42,7 +42,8 @@ public sealed class AppFixture : IAsyncLifetime
         var addresses = _factory.Services.GetRequiredService<IServer>().Features.Get<IServerAddressesFeature>()!.Addresses;
         BaseUrl = addresses.First(a => a.StartsWith("http://127.0.0.1", StringComparison.Ordinal)).TrimEnd('/');
 
-        if (!File.Exists(ChromiumPath)) throw new InvalidOperationException($"{ChromiumPath} not found: install it with 'apt-get install -y chromium' (or set EXPRMODEL_CHROMIUM).");
+        if (!File.Exists(ChromiumPath))
+            throw new InvalidOperationException($"{ChromiumPath} not found: install it with 'apt-get install -y chromium' (or set EXPRMODEL_CHROMIUM).");
         _playwright = await Playwright.CreateAsync();
         Browser = await _playwright.Chromium.LaunchAsync(new BrowserTypeLaunchOptions
         {
@@ -55,7 +56,11 @@ public sealed class AppFixture : IAsyncLifetime
     /// <summary>A fresh browser context (no cookies, no storage) and page, with console errors collected.</summary>
     public async Task<(IBrowserContext Context, IPage Page, List<string> ConsoleErrors)> NewPageAsync()
     {
-        var context = await Browser.NewContextAsync(new BrowserNewContextOptions { ViewportSize = new ViewportSize { Width = 1500, Height = 1000 }, AcceptDownloads = true });
+        var context = await Browser.NewContextAsync(new BrowserNewContextOptions
+        {
+            ViewportSize = new ViewportSize { Width = 1500, Height = 1000 },
+            AcceptDownloads = true
+        });
         var page = await context.NewPageAsync();
         var errors = new List<string>();
         page.Console += (_, m) => { if (m.Type == "error") errors.Add(m.Text); };

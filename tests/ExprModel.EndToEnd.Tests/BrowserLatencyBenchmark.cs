@@ -90,11 +90,14 @@ public sealed class BrowserLatencyBenchmark(AppFixture app, ITestOutputHelper ou
 
         var lines = new List<string> { $"slider -> update latency in the browser, {Moves} moves per model (ms): p50 / p95 / max" };
         foreach (var r in results)
-            lines.Add($"{r.Model,-22} trace drawn {Stats(r.Trace)} | read-outs first stage {Stats(r.Read)} | all read-outs {Stats(r.All)} | f-I drawn {Stats(r.Fi)}");
-        lines.Add($"{"ALL",-22} trace drawn {Stats(results.SelectMany(r => r.Trace).ToArray())} | read-outs first stage {Stats(results.SelectMany(r => r.Read).ToArray())} | " +
+            lines.Add($"{r.Model,-22} trace drawn {Stats(r.Trace)} | read-outs first stage {Stats(r.Read)} | all read-outs {Stats(r.All)} | " +
+                $"f-I drawn {Stats(r.Fi)}");
+        lines.Add($"{"ALL",-22} trace drawn {Stats(results.SelectMany(r => r.Trace).ToArray())} | read-outs first stage " +
+            $"{Stats(results.SelectMany(r => r.Read).ToArray())} | " +
             $"all read-outs {Stats(results.SelectMany(r => r.All).ToArray())} | f-I drawn {Stats(results.SelectMany(r => r.Fi).ToArray())}");
         var demo = results.Where(r => r.Model.StartsWith("demo ", StringComparison.Ordinal)).ToArray();
-        lines.Add($"{"DEMO MODELS",-22} trace drawn {Stats(demo.SelectMany(r => r.Trace).ToArray())} | read-outs first stage {Stats(demo.SelectMany(r => r.Read).ToArray())} | " +
+        lines.Add($"{"DEMO MODELS",-22} trace drawn {Stats(demo.SelectMany(r => r.Trace).ToArray())} | read-outs first stage " +
+            $"{Stats(demo.SelectMany(r => r.Read).ToArray())} | " +
             $"all read-outs {Stats(demo.SelectMany(r => r.All).ToArray())} | f-I drawn {Stats(demo.SelectMany(r => r.Fi).ToArray())}");
         lines.Add("targets (for the demo models): trace and read-outs p95 150 ms; f-I p95 500 ms");
         lines.Add("server's share (event received -> ready on the server; the rest is transfer, rendering and drawing in the browser):");
@@ -103,7 +106,8 @@ public sealed class BrowserLatencyBenchmark(AppFixture app, ITestOutputHelper ou
         lines.Add("per move, in order (trace drawn / first read-outs shown, ms):");
         foreach (var r in results)
             lines.Add($"{r.Model,-22} " + string.Join(" ", r.Trace.Zip(r.Read, (t, x) => $"{t:0}/{x:0}")));
-        lines.Add($"{"ALL",-22} trace ready {Stats(results.SelectMany(r => r.ServerTrace).ToArray())} | first read-outs ready {Stats(results.SelectMany(r => r.ServerFirst).ToArray())}");
+        lines.Add($"{"ALL",-22} trace ready {Stats(results.SelectMany(r => r.ServerTrace).ToArray())} | first read-outs ready " +
+            $"{Stats(results.SelectMany(r => r.ServerFirst).ToArray())}");
         foreach (var l in lines) { output.WriteLine(l); Console.WriteLine(l); }
         Assert.All(results, r => Assert.Equal(Moves, r.Read.Length)); // every move produced an update
         await context.CloseAsync();

@@ -27,13 +27,15 @@ public static class CatalogCommands
             {
                 var t = new CsvTable([], ["id", "version", "family", "ion", "name", "temperature_c", "typical_density_ms_per_cm2", "source", "verification"]);
                 foreach (var e in entries)
-                    t.Row(e.Id, e.Version, e.Family, Word(e.Ion), e.Name, e.ReferenceTemperatureC, e.TypicalDensityMsPerCm2, e.Source.Short, Word(e.Source.Verification));
+                    t.Row(e.Id, e.Version, e.Family, Word(e.Ion), e.Name, e.ReferenceTemperatureC, e.TypicalDensityMsPerCm2, e.Source.Short,
+                        Word(e.Source.Verification));
                 ctx.Out.Write(t.ToString());
                 return 0;
             }
             ctx.Out.WriteLine($"{"id",-24} {"ver",3} {"family",-15} {"ion",-11} {"gbar",8}  source");
             foreach (var e in entries)
-                ctx.Out.WriteLine($"{e.Id,-24} {e.Version,3} {e.Family,-15} {Word(e.Ion),-11} {e.TypicalDensityMsPerCm2,8:G4}  {e.Source.Authors.Split(',')[0]} {e.Source.Year} ({Word(e.Source.Verification)})");
+                ctx.Out.WriteLine($"{e.Id,-24} {e.Version,3} {e.Family,-15} {Word(e.Ion),-11} {e.TypicalDensityMsPerCm2,8:G4}  " +
+                    $"{e.Source.Authors.Split(',')[0]} {e.Source.Year} ({Word(e.Source.Verification)})");
             ctx.Out.WriteLine($"{entries.Count} entries; presets: {string.Join(", ", ctx.Catalog.Presets.Keys.Order(StringComparer.Ordinal))}");
             return 0;
         });
@@ -51,14 +53,16 @@ public static class CatalogCommands
             {
                 var parts = text.Split('@');
                 text = parts[0];
-                version = int.TryParse(parts[1], CultureInfo.InvariantCulture, out var v) ? v : throw new CliException($"'{parts[1]}' is not a version number.");
+                version =
+                    int.TryParse(parts[1], CultureInfo.InvariantCulture, out var v) ? v : throw new CliException($"'{parts[1]}' is not a version number.");
             }
             var e = ctx.Catalog.Resolve(text, version);
             ctx.Out.Write(EntryFile.Write(e));
             ctx.Out.WriteLine();
             var genes = ctx.Catalog.GeneLinks.Where(l => l.EntryId == e.Id).Select(l => $"{l.Symbol} ({Word(l.Species)}, weight {l.Weight:G3})").ToArray();
             ctx.Out.WriteLine($"genes: {(genes.Length == 0 ? "(none linked)" : string.Join(", ", genes))}");
-            ctx.Out.WriteLine($"status: numbers and citation {(e.Source.Verification == Verification.Checked ? "checked against the paper" : "recalled, not yet checked against the paper")}");
+            ctx.Out.WriteLine("status: numbers and citation " +
+                $"{(e.Source.Verification == Verification.Checked ? "checked against the paper" : "recalled, not yet checked against the paper")}");
             return 0;
         });
 
@@ -71,7 +75,8 @@ public static class CatalogCommands
             var path = p.GetValue(db) ?? CatalogLocator.DefaultDatabasePath();
             var sources = p.GetValue(from) is { } dir ? CatalogSources.FromDirectory(dir) : CatalogLocator.DefaultSources();
             var content = CatalogBuilder.Build(sources, path);
-            ctx.Out.WriteLine($"built {path}: {content.Entries.Count} entry versions, {content.GeneLinks.Count} gene links, {content.Presets.Count} presets, from {sources.Origin}");
+            ctx.Out.WriteLine($"built {path}: {content.Entries.Count} entry versions, {content.GeneLinks.Count} gene links, {content.Presets.Count} presets, " +
+                $"from {sources.Origin}");
             return 0;
         });
 

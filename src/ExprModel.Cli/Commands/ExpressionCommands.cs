@@ -21,25 +21,36 @@ public static class ExpressionCommands
             Description = "Per-cell models: none (each cell's own counts) or group (empirical-Bayes gamma-Poisson shrinkage towards the cell's group).",
             DefaultValueFactory = _ => defaultShrink,
         };
-        public readonly Option<string> Expression = new("--expression") { Description = "Expression table: CSV/TSV (optionally .gz), Matrix Market directory or .mtx, or .h5ad.", Required = true };
+        public readonly Option<string> Expression =
+            new("--expression") { Description = "Expression table: CSV/TSV (optionally .gz), Matrix Market directory or .mtx, or .h5ad.", Required = true };
         public readonly Option<string?> Metadata = new("--metadata") { Description = "Cell metadata table (cell id column plus group labels)." };
         public readonly Option<string?> GroupBy = new("--group-by") { Description = "Metadata column holding the group labels." };
-        public readonly Option<string?> Unit = new("--unit") { Description = "Values are counts, cpm, tpm, fpkm (rpkm) or log-transformed (ln1p unless --log says otherwise) (default: detected, with a note)." };
+        public readonly Option<string?> Unit = new("--unit")
+        {
+            Description = "Values are counts, cpm, tpm, fpkm (rpkm) or log-transformed (ln1p unless --log says otherwise) "
+                + "(default: detected, with a note)."
+        };
         public readonly Option<string?> Log = new("--log") { Description = "Values are log-transformed: ln1p, log2p1 or log10p1 (undone before use)." };
         public readonly Option<string?> Orientation = new("--orientation") { Description = "genes-as-rows or cells-as-rows (default: detected, with a note)." };
-        public readonly Option<string?> ReferenceGroup = new("--reference-group") { Description = "Scale densities relative to this group's mean instead of the dataset median." };
-        public readonly Option<double> Exponent = new("--exponent") { Description = "Exponent of the density rule (1 = linear).", DefaultValueFactory = _ => 1.0 };
+        public readonly Option<string?> ReferenceGroup =
+            new("--reference-group") { Description = "Scale densities relative to this group's mean instead of the dataset median." };
+        public readonly Option<double> Exponent =
+            new("--exponent") { Description = "Exponent of the density rule (1 = linear).", DefaultValueFactory = _ => 1.0 };
         public readonly Option<bool> NoClamp = new("--no-clamp") { Description = "Do not clamp densities to each entry's plausible range." };
-        public readonly Option<double> CapacitancePf = new("--capacitance") { Description = "Whole-cell capacitance of the model (pF).", DefaultValueFactory = _ => ModelDefaults.CapacitancePf };
-        public readonly Option<double> Temperature = new("--temperature") { Description = "Model temperature (C).", DefaultValueFactory = _ => ModelDefaults.TemperatureC };
-        public readonly Option<string[]> Exclude = new("--exclude") { Description = "Leave this gene out (repeatable).", AllowMultipleArgumentsPerToken = false };
+        public readonly Option<double> CapacitancePf =
+            new("--capacitance") { Description = "Whole-cell capacitance of the model (pF).", DefaultValueFactory = _ => ModelDefaults.CapacitancePf };
+        public readonly Option<double> Temperature =
+            new("--temperature") { Description = "Model temperature (C).", DefaultValueFactory = _ => ModelDefaults.TemperatureC };
+        public readonly Option<string[]> Exclude =
+            new("--exclude") { Description = "Leave this gene out (repeatable).", AllowMultipleArgumentsPerToken = false };
         public readonly Option<string[]> Repoint = new("--repoint") { Description = "GENE=ENTRY[:WEIGHT]: feed this gene to another entry only (repeatable)." };
         public readonly Option<string[]> Weight = new("--weight") { Description = "GENE=WEIGHT: change the weight of a gene's links (repeatable)." };
         public readonly Option<string?> Db = new("--db") { Description = "Catalog database file." };
 
         public void AddTo(Command c)
         {
-            foreach (var o in new Option[] { Expression, Metadata, GroupBy, Unit, Log, Orientation, ReferenceGroup, Exponent, NoClamp, CapacitancePf, Temperature, Exclude, Repoint, Weight, Shrink, Db })
+            foreach (var o in new Option[] { Expression, Metadata, GroupBy, Unit, Log, Orientation, ReferenceGroup, Exponent, NoClamp, CapacitancePf,
+                Temperature, Exclude, Repoint, Weight, Shrink, Db })
                 c.Options.Add(o);
         }
 
@@ -104,7 +115,8 @@ public static class ExpressionCommands
     }
 
     private static double ParseNumber(string s, string what) =>
-        double.TryParse(s, NumberStyles.Float, CultureInfo.InvariantCulture, out var v) && double.IsFinite(v) ? v : throw new CliException($"{what}: '{s}' is not a number.");
+        double.TryParse(s, NumberStyles.Float, CultureInfo.InvariantCulture, out var v) && double.IsFinite(v) ? v
+            : throw new CliException($"{what}: '{s}' is not a number.");
 
     public static IEnumerable<Command> Create(CliContext ctx)
     {
@@ -116,13 +128,15 @@ public static class ExpressionCommands
     private static void PrintReport(CliContext ctx, ExpressionDataset data, MappingReport report)
     {
         var (w, table, groups) = (ctx.Error, data.Table, data.Groups);
-        w.WriteLine($"table: {table.Source}: {table.CellIds.Count} cells, {table.TotalGeneCount} genes; {table.OrientationNote}; unit: {table.Unit} ({table.UnitNote})");
+        w.WriteLine($"table: {table.Source}: {table.CellIds.Count} cells, {table.TotalGeneCount} genes; {table.OrientationNote}; unit: " +
+            $"{table.Unit} ({table.UnitNote})");
         foreach (var n in table.Notes) w.WriteLine($"note: {n}");
         if (groups is not null) w.WriteLine($"groups ({groups.Column}): {string.Join(", ", groups.Members.Select(g => $"{g.Key} ({g.Value.Length})"))}");
         w.WriteLine($"mapped channel genes: {report.Genes.Count(g => !g.Excluded)} -> {report.EntryExpression().Count} entries");
         foreach (var g in report.Genes)
         {
-            w.WriteLine($"  {g.Symbol,-10} {string.Join(", ", g.Entries.Select(e => $"{e.EntryId} x{e.Weight:G3}")),-40} mean {g.ExpressionByCell.Average():G4}{(g.How == "symbol" ? "" : " [" + g.How + "]")}{(g.Note is null ? "" : " (" + g.Note + ")")}");
+            w.WriteLine($"  {g.Symbol,-10} {string.Join(", ", g.Entries.Select(e => $"{e.EntryId} x{e.Weight:G3}")),-40} mean " +
+                $"{g.ExpressionByCell.Average():G4}{(g.How == "symbol" ? "" : " [" + g.How + "]")}{(g.Note is null ? "" : " (" + g.Note + ")")}");
             if (groups is not null)
                 w.WriteLine("             " + string.Join("; ", groups.Members.Select(m => CellGroups.Statistic(m.Key, m.Value, g.ExpressionByCell))
                     .Select(st => $"{st.Group} {st.Mean:G3}+-{st.StandardDeviation:G2} ({st.FractionExpressing:P0} >0)")));
@@ -190,7 +204,8 @@ public static class ExpressionCommands
             var shrink = p.GetValue(per) == "cell" ? inputs.Shrinkage(p, ctx, data, report) : null;
             var results = BatchReadouts.Run(table, report, data.Catalog, rule, items, groups, from, to, progress.Report, default, shrink);
             progress.Finish();
-            var csv = BatchTable.Create(results, [ResearchCaution.Text, $"source: {table.Source}; shard {index}/{count} of {items.Count} items{(shrink is null ? "" : "; " + shrink.Note)}"]);
+            var csv = BatchTable.Create(results,
+                [ResearchCaution.Text, $"source: {table.Source}; shard {index}/{count} of {items.Count} items{(shrink is null ? "" : "; " + shrink.Note)}"]);
             ctx.Emit(csv.ToString(), p.GetValue(output));
             return 0;
         });
@@ -227,7 +242,9 @@ public static class ExpressionCommands
                     line++;
                     if (raw.StartsWith('#'))
                     {
-                        if (raw.Contains(" of ") && raw.Contains(" items") && int.TryParse(raw[(raw.LastIndexOf(" of ", StringComparison.Ordinal) + 4)..raw.LastIndexOf(" items", StringComparison.Ordinal)], out var t))
+                        if (raw.Contains(" of ") && raw.Contains(" items")
+                            && int.TryParse(raw[(raw.LastIndexOf(" of ", StringComparison.Ordinal) + 4)..raw.LastIndexOf(" items", StringComparison.Ordinal)],
+                                out var t))
                         {
                             if (total is { } prev && prev != t) throw new CliException($"{f}: line {line}: shard of {t} items, others have {prev}.");
                             total = t;
@@ -241,7 +258,8 @@ public static class ExpressionCommands
                     if (!raw.StartsWith("item_index", StringComparison.Ordinal) && header is not null && rows.Count >= 0)
                     {
                         var comma = raw.IndexOf(',');
-                        if (comma < 0 || !int.TryParse(raw[..comma], out var idx)) throw new CliException($"{f}: line {line}, column 1: '{raw.Split(',')[0]}' is not an item index.");
+                        if (comma < 0 || !int.TryParse(raw[..comma], out var idx))
+                            throw new CliException($"{f}: line {line}, column 1: '{raw.Split(',')[0]}' is not an item index.");
                         if (!rows.TryAdd(idx, raw)) throw new CliException($"{f}: line {line}: item {idx} appears in more than one shard.");
                     }
                 }
@@ -252,7 +270,8 @@ public static class ExpressionCommands
             if (total is { } n)
             {
                 var missing = Enumerable.Range(0, n).Where(i => !rows.ContainsKey(i)).ToArray();
-                if (missing.Length > 0) throw new CliException($"Items missing from the shards: {string.Join(", ", missing.Take(20))}{(missing.Length > 20 ? " ..." : "")} ({missing.Length} of {n}).");
+                if (missing.Length > 0) throw new CliException("Items missing from the shards: " +
+                    $"{string.Join(", ", missing.Take(20))}{(missing.Length > 20 ? " ..." : "")} ({missing.Length} of {n}).");
             }
             var text = string.Join("\n", comments.Append(header).Concat(rows.Values)) + "\n";
             ctx.Emit(text, p.GetValue(output));

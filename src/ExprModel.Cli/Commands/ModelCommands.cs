@@ -16,8 +16,10 @@ public static class ModelCommands
     private sealed class Common
     {
         public readonly Argument<string?> Model = new("model") { Description = "Model file (exprmodel JSON).", Arity = ArgumentArity.ZeroOrOne };
-        public readonly Option<string?> Preset = new("--preset") { Description = "Use a published preset instead of a file (hh1952, wb1996, cortex-rs2008, cortex-fs2008)." };
-        public readonly Option<string> Units = new("--units") { Description = "Current units for input and output: density (uA/cm2), pA or nA.", DefaultValueFactory = _ => "density" };
+        public readonly Option<string?> Preset =
+            new("--preset") { Description = "Use a published preset instead of a file (hh1952, wb1996, cortex-rs2008, cortex-fs2008)." };
+        public readonly Option<string> Units =
+            new("--units") { Description = "Current units for input and output: density (uA/cm2), pA or nA.", DefaultValueFactory = _ => "density" };
         public readonly Option<string?> Out = new("--out") { Description = "Write to this file instead of standard output." };
         public readonly Option<double> Dt = new("--dt") { Description = "Integration step (ms).", DefaultValueFactory = _ => 0.025 };
         public readonly Option<string?> Db = new("--db") { Description = "Catalog database file." };
@@ -58,7 +60,8 @@ public static class ModelCommands
         yield return VClamp(ctx);
     }
 
-    internal static readonly JsonSerializerOptions Json = new() { WriteIndented = true, Encoder = System.Text.Encodings.Web.JavaScriptEncoder.UnsafeRelaxedJsonEscaping };
+    internal static readonly JsonSerializerOptions Json =
+        new() { WriteIndented = true, Encoder = System.Text.Encodings.Web.JavaScriptEncoder.UnsafeRelaxedJsonEscaping };
 
     private static Command Simulate(CliContext ctx)
     {
@@ -66,7 +69,8 @@ public static class ModelCommands
         var common = new Common();
         common.AddTo(c);
         var protocol = new Option<string>("--protocol") { Description = "step, ramp, pulses, noise or waveform.", DefaultValueFactory = _ => "step" };
-        var amp = new Option<double>("--amplitude") { Description = "Step/pulse amplitude, ramp end, or noise mean (in --units).", DefaultValueFactory = _ => 0 };
+        var amp =
+            new Option<double>("--amplitude") { Description = "Step/pulse amplitude, ramp end, or noise mean (in --units).", DefaultValueFactory = _ => 0 };
         var from = new Option<double>("--from") { Description = "Ramp start (in --units).", DefaultValueFactory = _ => 0 };
         var delay = new Option<double>("--delay") { Description = "Protocol start (ms).", DefaultValueFactory = _ => 100 };
         var duration = new Option<double>("--duration") { Description = "Protocol length (ms).", DefaultValueFactory = _ => 1000 };
@@ -80,7 +84,8 @@ public static class ModelCommands
         var wave = new Option<string?>("--waveform") { Description = "CSV with columns time_ms and current (in --units) for --protocol waveform." };
         var every = new Option<int>("--record-every") { Description = "Keep every Nth step in the output.", DefaultValueFactory = _ => 4 };
         var currents = new Option<bool>("--currents") { Description = "Add each channel's current (uA/cm2)." };
-        foreach (var o in new Option[] { protocol, amp, from, delay, duration, total, count, width, freq, sd, tau, seed, wave, every, currents }) c.Options.Add(o);
+        foreach (var o in new Option[] { protocol, amp, from, delay, duration, total, count, width, freq, sd, tau, seed, wave, every, currents })
+            c.Options.Add(o);
         c.SetAction(p =>
         {
             var (doc, cell, unit) = common.Load(p, ctx);
@@ -98,7 +103,8 @@ public static class ModelCommands
             };
             double t = p.GetValue(total) ?? dl + du + 100;
             bool withCurrents = p.GetValue(currents);
-            var trace = Simulator.Run(cell, stim, t, new SimulationSettings { DtMs = p.GetValue(common.Dt), RecordEvery = Math.Max(1, p.GetValue(every)), RecordCurrents = withCurrents });
+            var trace = Simulator.Run(cell, stim, t,
+                new SimulationSettings { DtMs = p.GetValue(common.Dt), RecordEvery = Math.Max(1, p.GetValue(every)), RecordCurrents = withCurrents });
             ctx.Emit(TraceCsv.Write(doc.Name, trace, unit, g), p.GetValue(common.Out));
             return 0;
         });

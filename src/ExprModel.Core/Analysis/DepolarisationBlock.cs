@@ -19,7 +19,8 @@ public static class DepolarisationBlock
     /// <paramref name="limitUaPerCm2"/> (<see cref="OnsetSearch"/> on the amplitude above the onset, 2 % and ten times the
     /// rheobase's absolute tolerance); null when firing continues up to the limit.
     /// </summary>
-    internal static double? Find(CompiledCell cell, ReadoutSettings s, CellState rest, double sustainedOnsetUaPerCm2, double limitUaPerCm2, CancellationToken cancel)
+    internal static double? Find(CompiledCell cell, ReadoutSettings s, CellState rest, double sustainedOnsetUaPerCm2, double limitUaPerCm2,
+        CancellationToken cancel)
     {
         double oc = sustainedOnsetUaPerCm2;
         var b = OnsetSearch.FindOnset(amps =>

@@ -33,7 +33,8 @@ public static class Features
         // The small passive step starts from rest like the rheobase search and does not depend on it: it runs on its own
         // thread while the search runs (same results, less waiting).
         var passiveTask = firesAtRest ? null : Task.Run(() => Passive.MeasureStep(cell, s, rest, gSlope, cancel), cancel);
-        (RheobaseResult Found, (double, double)? NotMonotone) search = firesAtRest ? (RheobaseResult.None, null) : Rheobase.Measure(cell, rest, gSlope, s, hint, notes, cancel);
+        (RheobaseResult Found, (double, double)? NotMonotone) search =
+            firesAtRest ? (RheobaseResult.None, null) : Rheobase.Measure(cell, rest, gSlope, s, hint, notes, cancel);
         var found = search.Found;
         var (rin, tau, passiveNote) = passiveTask is null ? (null, null, null) : passiveTask.GetAwaiter().GetResult();
         if (passiveNote is not null) notes.Add(passiveNote);
@@ -81,7 +82,8 @@ public static class Features
         double? gain = null, onset = null, onsetRate = null, adaptStep = null, adaptRatio = null, adaptIndex = null, block = null, blockLimit = null;
         int? cls = null;
         // Sag runs on its own thread beside the f-I sweep (it starts from rest too).
-        var sagTask = !first.FiresAtRest && s.IncludeSag && first.SlopeConductanceMsPerCm2 is { } gSlope ? Task.Run(() => Sag.Measure(cell, s, rest, gSlope, cancel), cancel) : null;
+        var sagTask = !first.FiresAtRest && s.IncludeSag && first.SlopeConductanceMsPerCm2 is { } gSlope
+            ? Task.Run(() => Sag.Measure(cell, s, rest, gSlope, cancel), cancel) : null;
         if (first.RheobaseUaPerCm2 is { } rb)
         {
             (fi, extra) = FiCurve.MeasureToMultipleOfRheobase(cell, rb, s, rest, cancel);

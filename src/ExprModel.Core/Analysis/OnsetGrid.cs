@@ -11,7 +11,8 @@ public sealed class OnsetGrid
 
     public OnsetGrid(double absoluteTolerance, double relativeTolerance)
     {
-        if (!(absoluteTolerance > 0) || !(relativeTolerance > 0)) throw new ArgumentOutOfRangeException(nameof(absoluteTolerance), "onset search tolerances must be positive");
+        if (!(absoluteTolerance > 0) || !(relativeTolerance > 0))
+            throw new ArgumentOutOfRangeException(nameof(absoluteTolerance), "onset search tolerances must be positive");
         _step = absoluteTolerance;
         _relative = relativeTolerance;
         _cornerIndex = (long)Math.Ceiling(1 / relativeTolerance);

@@ -81,13 +81,16 @@ public static class Passive
         double iSmall = s.PassiveDeflectionMv * slopeConductanceMsPerCm2;
         double passiveMs = s.PassiveStepMs;
         double onsetMs = Protocols.BaselineMs;
-        var small = Simulator.Run(cell, Protocols.Step(iSmall, onsetMs, passiveMs), onsetMs + passiveMs, sim with { RecordEvery = 1, RecordCurrents = false }, rest, cancel);
+        var small = Simulator.Run(cell, Protocols.Step(iSmall, onsetMs, passiveMs), onsetMs + passiveMs, sim with { RecordEvery = 1, RecordCurrents = false },
+            rest, cancel);
         bool spiked = small.SpikeTimesMs.Count > 0;
         var (dv, rin, tau) = spiked ? (double.NaN, null, null)
-            : StepResponse(small.VoltageMv, sim.DtMs, onsetMs, passiveMs, rest.VoltageMv, CurrentUnits.FromDensity(iSmall, CurrentUnit.Na, cell.Model.Geometry));
+            : StepResponse(small.VoltageMv, sim.DtMs, onsetMs, passiveMs, rest.VoltageMv,
+                CurrentUnits.FromDensity(iSmall, CurrentUnit.Na, cell.Model.Geometry));
         if (rin is not null) return (rin, tau, null);
         return (null, null, $"The small hyperpolarising step ({iSmall:G3} uA/cm2) did not give a passive response " +
-            (spiked ? "(it evoked a spike)" : $"(V moved {dv:+0.###;-0.###} mV, against the current)") + "; input resistance and time constant are not defined.");
+            (spiked ? "(it evoked a spike)" : $"(V moved {dv:+0.###;-0.###} mV, against the current)") +
+                "; input resistance and time constant are not defined.");
     }
 
     /// <summary>Mean of the samples in [from, to), clipped to the trace; NaN for an empty window.</summary>

@@ -9,7 +9,8 @@ public static class Protocols
     public const double BaselineMs = 100;
 
     /// <summary>A rectangular step, by default 1 s long after a 100 ms baseline (common practice).</summary>
-    public static StepCurrent Step(double amplitudeUaPerCm2, double delayMs = BaselineMs, double durationMs = 1000) => new(delayMs, durationMs, amplitudeUaPerCm2);
+    public static StepCurrent Step(double amplitudeUaPerCm2, double delayMs = BaselineMs, double durationMs = 1000) =>
+        new(delayMs, durationMs, amplitudeUaPerCm2);
 
     /// <summary>A family of equally spaced steps from <paramref name="fromUaPerCm2"/> to <paramref name="toUaPerCm2"/> inclusive.</summary>
     public static IReadOnlyList<StepCurrent> StepFamily(double fromUaPerCm2, double toUaPerCm2, int count, double delayMs = 100, double durationMs = 1000)
@@ -20,7 +21,8 @@ public static class Protocols
             .ToArray();
     }
 
-    public static RampCurrent Ramp(double fromUaPerCm2, double toUaPerCm2, double durationMs, double delayMs = 100) => new(delayMs, durationMs, fromUaPerCm2, toUaPerCm2);
+    public static RampCurrent Ramp(double fromUaPerCm2, double toUaPerCm2, double durationMs, double delayMs = 100) =>
+        new(delayMs, durationMs, fromUaPerCm2, toUaPerCm2);
 
     public static PulseTrain Pulses(double amplitudeUaPerCm2, int count, double widthMs, double frequencyHz, double delayMs = 100) =>
         new(delayMs, count, widthMs, 1000.0 / frequencyHz, amplitudeUaPerCm2);

@@ -50,8 +50,15 @@ public sealed record ReadoutSettings
     /// </summary>
     public static ReadoutSettings Batch { get; } = new()
     {
-        SettleMs = 300, PassiveStepMs = 300, RheobaseRelativeTolerance = 0.02, RheobaseAbsoluteToleranceUaPerCm2 = 0.005, FiSteps = 8, ClassStepMs = 1000, ClassRelativeTolerance = 0.05,
-        IncludeSag = false, IncludeDepolarisationBlock = false,
+        SettleMs = 300,
+        PassiveStepMs = 300,
+        RheobaseRelativeTolerance = 0.02,
+        RheobaseAbsoluteToleranceUaPerCm2 = 0.005,
+        FiSteps = 8,
+        ClassStepMs = 1000,
+        ClassRelativeTolerance = 0.05,
+        IncludeSag = false,
+        IncludeDepolarisationBlock = false,
     };
 
     /// <summary>

@@ -70,7 +70,8 @@ public static class RestStability
         Eigenvalues(cell, currentUaPerCm2, nearMv).Max(e => e.Real);
 
     /// <summary>Current (uA/cm2) at which the fixed point loses stability, by bisection between a stable and an unstable current.</summary>
-    public static double LossOfStabilityCurrent(CompiledCell cell, double stableUaPerCm2, double unstableUaPerCm2, double toleranceUaPerCm2 = 1e-4, double nearMv = -65)
+    public static double LossOfStabilityCurrent(CompiledCell cell, double stableUaPerCm2, double unstableUaPerCm2, double toleranceUaPerCm2 = 1e-4,
+        double nearMv = -65)
     {
         if (LeadingRealPart(cell, stableUaPerCm2, nearMv) >= 0) throw new ArgumentException("The lower current does not give a stable fixed point.");
         if (LeadingRealPart(cell, unstableUaPerCm2, nearMv) < 0) throw new ArgumentException("The upper current does not give an unstable fixed point.");

@@ -32,7 +32,8 @@ public static class Rheobase
         // Only "any spike in the step" matters here, so each run may end at its first spike.
         var settings = s.Simulation with { StopAtFirstSpikeAfterMs = FiCurve.DefaultDelayMs };
         IReadOnlyList<SweepLane?> Run(IReadOnlyList<double> amps) =>
-            Simulator.Sweep(cell, amps.Select(a => (Stimulus)Protocols.Step(a, FiCurve.DefaultDelayMs, s.StepDurationMs)).ToArray(), duration, settings, rest, ResumeMarginMs, cancel);
+            Simulator.Sweep(cell, amps.Select(a => (Stimulus)Protocols.Step(a, FiCurve.DefaultDelayMs, s.StepDurationMs)).ToArray(), duration, settings, rest,
+                ResumeMarginMs, cancel);
         var bracket = OnsetSearch.FindOnset(amps =>
         {
             IReadOnlyList<SweepLane?> lanes;

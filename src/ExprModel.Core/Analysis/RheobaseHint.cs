@@ -11,5 +11,6 @@ public sealed record RheobaseHint(double RheobaseUaPerCm2, double SlopeConductan
 {
     /// <summary>The predicted rheobase (uA/cm2) of a cell whose slope conductance at rest is <paramref name="slopeConductanceMsPerCm2"/>.</summary>
     public double PredictFor(double slopeConductanceMsPerCm2) =>
-        SlopeConductanceMsPerCm2 > 0 && slopeConductanceMsPerCm2 > 0 ? RheobaseUaPerCm2 * slopeConductanceMsPerCm2 / SlopeConductanceMsPerCm2 : RheobaseUaPerCm2;
+        SlopeConductanceMsPerCm2 > 0 && slopeConductanceMsPerCm2 > 0 ? RheobaseUaPerCm2 * slopeConductanceMsPerCm2 / SlopeConductanceMsPerCm2
+            : RheobaseUaPerCm2;
 }

@@ -65,7 +65,8 @@ public static class SpikeAtRheobase
         var (shape, latency) = FirstSpike(at.VoltageMv, dt, at.TimeMs[0], at.SpikeTimesMs, onsetMs, s.ThresholdSlopeMvPerMs);
         double chargingRate = rb / cell.Model.Geometry.CapacitanceUfPerCm2;
         if (IsRegenerative(shape, chargingRate, s.ThresholdSlopeMvPerMs)) return (rb, shape, latency);
-        notes.Add($"Steps up to {rb:G3} uA/cm2 cross the detection level without a regenerative spike (upstroke no faster than passive charging); no rheobase.");
+        notes.Add($"Steps up to {rb:G3} uA/cm2 cross the detection level without a regenerative spike (upstroke no faster than passive " +
+            "charging); no rheobase.");
         return (null, null, null);
     }
 }

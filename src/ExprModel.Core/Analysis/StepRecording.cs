@@ -38,7 +38,14 @@ public sealed record StepRecording
         var trace = Simulator.Run(cell, stimulus, durationMs, settings, null, cancel);
         var labels = Simulator.ChannelLabels(cell);
         if (trace.SpikeTimesMs.Count == 0 || trace.ResumePoints.Count == 0)
-            return new StepRecording { Trace = trace, SpikeWindowMs = [], SpikeWindowSamples = [], ChannelLabels = labels, SpikeWindowCurrentsUaPerCm2 = labels.Select(_ => Array.Empty<double>()).ToArray() };
+            return new StepRecording
+            {
+                Trace = trace,
+                SpikeWindowMs = [],
+                SpikeWindowSamples = [],
+                ChannelLabels = labels,
+                SpikeWindowCurrentsUaPerCm2 = labels.Select(_ => Array.Empty<double>()).ToArray()
+            };
 
         double first = trace.SpikeTimesMs[0];
         var from = trace.ResumePoints.LastOrDefault(r => r.TimeMs <= first - WindowBeforeMs) ?? trace.ResumePoints[0];

@@ -43,7 +43,8 @@ public sealed record CellModel
             if (!(c.DensityMsPerCm2 >= 0) || double.IsInfinity(c.DensityMsPerCm2)) return $"channel {c.Entry.Key}: densityMsPerCm2 must be >= 0";
             if (!(c.RelativeDensity >= 0) || double.IsInfinity(c.RelativeDensity)) return $"channel {c.Entry.Key}: relativeDensity must be >= 0";
             if (!(c.TauScale > 0) || double.IsInfinity(c.TauScale)) return $"channel {c.Entry.Key}: tauScale must be > 0";
-            if (c.Entry.Gates.Any(g => g.Kind == GateKind.Calcium) && CalciumShell is null) return $"channel {c.Entry.Key}: calcium-gated, so the model needs a calciumShell";
+            if (c.Entry.Gates.Any(g => g.Kind == GateKind.Calcium) && CalciumShell is null)
+                return $"channel {c.Entry.Key}: calcium-gated, so the model needs a calciumShell";
         }
         return null;
     }

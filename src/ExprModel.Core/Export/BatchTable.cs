@@ -13,7 +13,8 @@ public static class BatchTable
     {
         var header = new List<string> { "item_index", "item" };
         if (withGroup) header.Add("group");
-        header.AddRange(["cells", "resting_potential_mv", "input_resistance_mohm", "membrane_time_constant_ms", "rheobase_pa", "spike_threshold_mv", "spike_half_width_ms"]);
+        header.AddRange(["cells", "resting_potential_mv", "input_resistance_mohm", "membrane_time_constant_ms", "rheobase_pa", "spike_threshold_mv",
+            "spike_half_width_ms"]);
         header.AddRange(BatchReadouts.StandardStepsPa.Select(s => $"rate_at_{s:F0}pa_hz"));
         header.AddRange(["excitability_class", "adaptation_ratio", "adaptation_index", "warnings"]);
         return header;

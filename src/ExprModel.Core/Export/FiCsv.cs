@@ -12,7 +12,8 @@ public static class FiCsv
     /// <param name="geometry">The cell's geometry, needed only to write amplitudes in pA or nA.</param>
     public static string Write(string modelName, IEnumerable<FiPoint> points, CurrentUnit unit = CurrentUnit.UaPerCm2, Geometry? geometry = null)
     {
-        if (unit != CurrentUnit.UaPerCm2 && geometry is null) throw new ArgumentException($"An f-I curve written in {CurrentUnits.Label(unit)} needs the cell's geometry.", nameof(geometry));
+        if (unit != CurrentUnit.UaPerCm2 && geometry is null)
+            throw new ArgumentException($"An f-I curve written in {CurrentUnits.Label(unit)} needs the cell's geometry.", nameof(geometry));
         var csv = CsvTable.ForModel(modelName,
             ["amplitude_" + CurrentUnits.Suffix(unit), "spike_count", "whole_step_rate_hz", "first_isi_rate_hz", "late_rate_hz", "first_spike_latency_ms"]);
         foreach (var q in points)

@@ -14,7 +14,8 @@ public static class ReadoutTables
     /// </summary>
     public const double RelativeTolerance = 1e-9;
 
-    /// <summary>The rows of <paramref name="after"/> whose value differs from the row of the same name in <paramref name="before"/>, in <paramref name="after"/>'s order.</summary>
+    /// <summary>The rows of <paramref name="after"/> whose value differs from the row of the same name in <paramref name="before"/>, in
+    /// <paramref name="after"/>'s order.</summary>
     public static IReadOnlyList<ReadoutChange> Changes(IEnumerable<(string Name, string Unit, double? Value)> before,
         IEnumerable<(string Name, string Unit, double? Value)> after, double relativeTolerance = RelativeTolerance)
     {
@@ -30,7 +31,8 @@ public static class ReadoutTables
     }
 
     /// <summary>True when both tables list the same read-outs in the same order with the same values to the bit (NaN equals NaN).</summary>
-    public static bool Identical(IReadOnlyList<(string Name, string Unit, double? Value)> before, IReadOnlyList<(string Name, string Unit, double? Value)> after) =>
+    public static bool Identical(IReadOnlyList<(string Name, string Unit, double? Value)> before,
+        IReadOnlyList<(string Name, string Unit, double? Value)> after) =>
         before.Count == after.Count && before.Zip(after).All(p => p.First.Name == p.Second.Name && Same(p.First.Value, p.Second.Value, 0));
 
     private static bool Same(double? a, double? b, double relativeTolerance) => (a, b) switch

@@ -18,7 +18,8 @@ public static class TraceCsv
     public static string Write(string modelName, double[] timeMs, double[] voltageMv, double[] stimulusUaPerCm2, int spikeCount,
         CurrentUnit unit = CurrentUnit.UaPerCm2, Geometry? geometry = null, IReadOnlyDictionary<string, double[]>? channelCurrentsUaPerCm2 = null)
     {
-        if (unit != CurrentUnit.UaPerCm2 && geometry is null) throw new ArgumentException($"A trace written in {CurrentUnits.Label(unit)} needs the cell's geometry.", nameof(geometry));
+        if (unit != CurrentUnit.UaPerCm2 && geometry is null)
+            throw new ArgumentException($"A trace written in {CurrentUnits.Label(unit)} needs the cell's geometry.", nameof(geometry));
         var currents = channelCurrentsUaPerCm2 ?? new Dictionary<string, double[]>();
         var header = new List<string> { "time_ms", "voltage_mv", "stimulus_" + CurrentUnits.Suffix(unit) };
         header.AddRange(currents.Keys.Select(k => $"current_{k}_ua_per_cm2"));

@@ -17,10 +17,12 @@ public sealed record ExpressionReadOptions
 
     public DuplicateGenePolicy DuplicateGenes { get; init; } = DuplicateGenePolicy.Error;
 
-    /// <summary>For Matrix Market feature sidecars: 1-based column holding the gene identifier to use (1 = Ensembl id, 2 = symbol). Null uses column 2 when present.</summary>
+    /// <summary>For Matrix Market feature sidecars: 1-based column holding the gene identifier to use (1 = Ensembl id, 2 = symbol). Null uses column 2 when
+    /// present.</summary>
     public int? FeatureColumn { get; init; }
 
-    /// <summary>For AnnData files: the var column holding the gene identifiers to use (e.g. symbols when the index holds Ensembl ids). Null uses the var index.</summary>
+    /// <summary>For AnnData files: the var column holding the gene identifiers to use (e.g. symbols when the index holds Ensembl ids). Null uses the var
+    /// index.</summary>
     public string? GeneColumn { get; init; }
 
     /// <summary>Guard against decompression bombs: the most bytes a compressed input may inflate to.</summary>

@@ -26,7 +26,8 @@ internal sealed class GeneRegistry(string file, ExpressionReadOptions options, L
         string first = _firstSeen[gene];
         if (wanted && options.DuplicateGenes == DuplicateGenePolicy.Error)
             throw new ExpressionFormatException(
-                $"{file}: {location}: gene '{gene}' is duplicated (first at {first}); duplicates are not merged. Remove or rename one, or choose to keep the first.");
+                $"{file}: {location}: gene '{gene}' is duplicated (first at {first}); duplicates are not merged. Remove or rename one, " +
+                    "or choose to keep the first.");
         if (_duplicateNotes < MaxDuplicateNotes)
         {
             _duplicateNotes++;

@@ -37,7 +37,8 @@ public sealed record GateRate
     public static GateRate CalciumBoundClosing(double maxRatePerMs, double dissociationAtZeroMm, double kMv) =>
         new() { Shape = RateShape.CalciumBoundClosing, A = maxRatePerMs, C1 = dissociationAtZeroMm, K = kMv };
 
-    /// <summary>Intracellular calcium (mM) assumed when a calcium-dependent rate is evaluated without one (50 nM, as in <see cref="GateSpec.SteadyStateAt"/>).</summary>
+    /// <summary>Intracellular calcium (mM) assumed when a calcium-dependent rate is evaluated without one (50 nM, as in
+    /// <see cref="GateSpec.SteadyStateAt"/>).</summary>
     public const double RestingCalciumMm = 5e-5;
 
     /// <summary>True for the shapes whose value depends on intracellular calcium as well as voltage.</summary>
@@ -115,7 +116,8 @@ public sealed record GateRate
             return "a parameter is not a finite number";
         return Shape switch
         {
-            RateShape.Exponential or RateShape.Sigmoid or RateShape.LinearOverExponential or RateShape.Boltzmann or RateShape.Gaussian when K == 0 => "k must not be zero",
+            RateShape.Exponential or RateShape.Sigmoid or RateShape.LinearOverExponential or RateShape.Boltzmann or RateShape.Gaussian when K == 0 =>
+                "k must not be zero",
             RateShape.Bell or RateShape.InverseRateSum when K == 0 || K1 == 0 => "k and k1 must not be zero",
             RateShape.OffsetSigmoid when K == 0 => "k must not be zero",
             RateShape.CalciumBoundOpening or RateShape.CalciumBoundClosing when K == 0 => "k must not be zero",

@@ -96,13 +96,16 @@ public sealed record GateSpec
                 return Alpha.Problem() is { } pa ? $"gate {Name} alpha: {pa}" : Beta.Problem() is { } pb ? $"gate {Name} beta: {pb}" : null;
             case GateKind.SteadyStateAndTau:
                 if (SteadyState is null || (TimeConstantMs is null && !Instantaneous)) return $"gate {Name}: steadyState and tauMs are required";
-                return SteadyState.Problem() is { } ps ? $"gate {Name} steadyState: {ps}" : TimeConstantMs?.Problem() is { } pt ? $"gate {Name} tauMs: {pt}" : null;
+                return SteadyState.Problem() is { } ps ? $"gate {Name} steadyState: {ps}"
+                    : TimeConstantMs?.Problem() is { } pt ? $"gate {Name} tauMs: {pt}"
+                    : null;
             case GateKind.Calcium when Calcium is null && (Alpha is not null || Beta is not null):
                 if (Alpha is null || Beta is null) return $"gate {Name}: a calcium gate written as rates needs both alpha and beta";
                 return Alpha.Problem() is { } ca ? $"gate {Name} alpha: {ca}" : Beta.Problem() is { } cb ? $"gate {Name} beta: {cb}" : null;
             case GateKind.Calcium:
                 if (Calcium is null) return $"gate {Name}: calcium sensitivity is required";
-                if (!(Calcium.HalfActivationMm > 0) || double.IsInfinity(Calcium.HalfActivationMm)) return $"gate {Name}: calcium halfActivationMm must be positive";
+                if (!(Calcium.HalfActivationMm > 0) || double.IsInfinity(Calcium.HalfActivationMm))
+                    return $"gate {Name}: calcium halfActivationMm must be positive";
                 if (!double.IsFinite(Calcium.HillCoefficient) || Calcium.HillCoefficient == 0 || Math.Abs(Calcium.HillCoefficient) > 8)
                     return $"gate {Name}: calcium hill must be a non-zero number between -8 and 8 (negative: calcium-dependent inactivation)";
                 if (Instantaneous ? Calcium.TimeConstantMs != 0 : !(Calcium.TimeConstantMs > 0) || double.IsInfinity(Calcium.TimeConstantMs))

@@ -34,7 +34,8 @@ public static class BatchReadouts
                 // Cells that fire at rest or never fire skip the f-I sweep; measure the standard steps on their own then.
                 var rates = r.ExtraSteps.Count == StandardStepsPa.Length ? r.ExtraSteps
                     : FiCurve.Measure(cell, settings.ExtraStepsUaPerCm2, 1000, null, null, cancel);
-                rows[i - from] = new BatchRow(i, item, cells, r, rates.Select(q => q.WholeStepRateHz).ToArray(), string.Join(" | ", built.Warnings.Concat(r.Notes)));
+                rows[i - from] =
+                    new BatchRow(i, item, cells, r, rates.Select(q => q.WholeStepRateHz).ToArray(), string.Join(" | ", built.Warnings.Concat(r.Notes)));
             }
             catch (Exception e) when (e is ArgumentException or ModelException or SimulationBlowUpException)
             {

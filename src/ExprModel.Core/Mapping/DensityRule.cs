@@ -59,7 +59,8 @@ public sealed record DensityRule
             return new EntryDensity(expression, reference, ratio, raw, raw, false, null);
         double clamped = Math.Clamp(raw, entry.MinDensityMsPerCm2, entry.MaxDensityMsPerCm2);
         return new EntryDensity(expression, reference, ratio, raw, clamped, true,
-            $"{entry.Id}: predicted {raw:G3} mS/cm2 lies outside the plausible range {entry.MinDensityMsPerCm2:G3}-{entry.MaxDensityMsPerCm2:G3}; clamped to {clamped:G3}.");
+            $"{entry.Id}: predicted {raw:G3} mS/cm2 lies outside the plausible range {entry.MinDensityMsPerCm2:G3}-{entry.MaxDensityMsPerCm2:G3}; " +
+                $"clamped to {clamped:G3}.");
     }
 
     /// <summary>One density's derivation as a line of text: "  12.5 mS/cm2 = 10 x (4.2 / 3.1)^1 [clamped]".</summary>

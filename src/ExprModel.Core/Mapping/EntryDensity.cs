@@ -6,4 +6,5 @@ namespace ExprModel.Core.Mapping;
 /// <param name="RawMsPerCm2">The density before clamping.</param>
 /// <param name="DensityMsPerCm2">The density after clamping (the model's).</param>
 /// <param name="ClampNote">Why the density was clamped (for the user to read), or null.</param>
-public sealed record EntryDensity(double Expression, double Reference, double Ratio, double RawMsPerCm2, double DensityMsPerCm2, bool Clamped, string? ClampNote);
+public sealed record EntryDensity(double Expression, double Reference, double Ratio, double RawMsPerCm2, double DensityMsPerCm2, bool Clamped,
+    string? ClampNote);

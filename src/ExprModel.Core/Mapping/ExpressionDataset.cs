@@ -30,9 +30,11 @@ public sealed class ExpressionDataset
     /// </summary>
     /// <param name="options">Orientation, unit and log transform as the user stated them; the gene filter is set here.</param>
     /// <param name="sourceName">What to call the table in built models and messages when the path is a temporary copy (default: the path).</param>
-    /// <exception cref="ExpressionFormatException">A file cannot be read (the message names file, line and column), or the metadata has no such column.</exception>
+    /// <exception cref="ExpressionFormatException">A file cannot be read (the message names file, line and column), or the metadata has no such
+    /// column.</exception>
     /// <exception cref="ArgumentException">Metadata without a group column.</exception>
-    public static ExpressionDataset Read(MappingCatalog catalog, string tablePath, ExpressionReadOptions options, string? metadataPath = null, string? groupColumn = null, string? sourceName = null)
+    public static ExpressionDataset Read(MappingCatalog catalog, string tablePath, ExpressionReadOptions options, string? metadataPath = null,
+        string? groupColumn = null, string? sourceName = null)
     {
         if (metadataPath is not null && string.IsNullOrEmpty(groupColumn))
             throw new ArgumentException("A metadata table needs the name of its group column.", nameof(groupColumn));
@@ -52,7 +54,15 @@ public sealed class ExpressionDataset
         var notes = new List<string>();
         int unlabelled = table.CellIds.Count - labels.Count;
         if (unlabelled > 0) notes.Add($"{unlabelled} cell(s) of the table have no '{column}' label in {metadataName}.");
-        return new ExpressionDataset { Table = table, Metadata = metadata, Groups = new CellGroups(table.CellIds, labels, column), Catalog = catalog, Resolver = resolver, Notes = notes };
+        return new ExpressionDataset
+        {
+            Table = table,
+            Metadata = metadata,
+            Groups = new CellGroups(table.CellIds, labels, column),
+            Catalog = catalog,
+            Resolver = resolver,
+            Notes = notes
+        };
     }
 
     /// <summary>Maps the table's genes onto the catalog with the user's overrides.</summary>

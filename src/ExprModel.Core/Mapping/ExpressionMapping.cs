@@ -22,7 +22,8 @@ public static class ExpressionMapping
         // Two table rows resolving to one gene are reported and neither is merged silently: the first is kept.
         var bySymbol = resolved.GroupBy(r => (r.Symbol, r.Species)).ToArray();
         foreach (var dup in bySymbol.Where(g => g.Count() > 1))
-            problems.Add($"{dup.Key.Symbol}: named by several rows ({string.Join(", ", dup.Select(d => d.TableId))}); only '{dup.First().TableId}' is used. Remove or rename the others.");
+            problems.Add($"{dup.Key.Symbol}: named by several rows ({string.Join(", ", dup.Select(d => d.TableId))}); only '{dup.First().TableId}' is used. " +
+                "Remove or rename the others.");
         var species = resolved.Count == 0 ? (Species?)null : resolved.GroupBy(r => r.Species).OrderByDescending(g => g.Count()).First().Key;
 
         var genes = new List<GeneMapping>();
@@ -33,7 +34,8 @@ public static class ExpressionMapping
             var r = group.First();
             var links = catalog.Links.Where(l => l.Species == r.Species && l.Symbol == r.Symbol && catalog.Entry(l.EntryId) is not null)
                 .Select(l => new EntryWeight(l.EntryId, l.Weight)).ToList();
-            var ov = overrides.FirstOrDefault(o => string.Equals(o.Gene, r.Symbol, StringComparison.OrdinalIgnoreCase) || string.Equals(o.Gene, r.TableId, StringComparison.Ordinal));
+            var ov = overrides.FirstOrDefault(o => string.Equals(o.Gene, r.Symbol, StringComparison.OrdinalIgnoreCase)
+                || string.Equals(o.Gene, r.TableId, StringComparison.Ordinal));
             string? note = null;
             bool excluded = false;
             if (ov is not null)
@@ -65,7 +67,8 @@ public static class ExpressionMapping
         foreach (var o in overrides.Where(o => !used.Contains(o.Gene)))
             problems.Add($"override for '{o.Gene}': the gene is not a mapped channel gene of this table.");
 
-        var expressed = genes.Where(g => !g.Excluded && g.ExpressionByCell.Any(v => v > 0)).SelectMany(g => g.Entries.Select(e => e.EntryId)).ToHashSet(StringComparer.Ordinal);
+        var expressed = genes.Where(g => !g.Excluded && g.ExpressionByCell.Any(v => v > 0)).SelectMany(g => g.Entries.Select(e => e.EntryId))
+            .ToHashSet(StringComparer.Ordinal);
         var linkedForSpecies = catalog.Links.Where(l => species is null || l.Species == species).Select(l => l.EntryId).Distinct(StringComparer.Ordinal);
         var without = linkedForSpecies.Where(e => !expressed.Contains(e)).Order(StringComparer.Ordinal).ToArray();
 

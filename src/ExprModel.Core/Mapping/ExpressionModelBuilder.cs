@@ -8,7 +8,8 @@ namespace ExprModel.Core.Mapping;
 /// <summary>Turns an expression table, its mapping and a density rule into a model file that records how it was made.</summary>
 public static class ExpressionModelBuilder
 {
-    public static BuiltModel Build(ExpressionTable table, MappingReport report, MappingCatalog catalog, DensityRule rule, ModelTarget target, CellGroups? groups)
+    public static BuiltModel Build(ExpressionTable table, MappingReport report, MappingCatalog catalog, DensityRule rule, ModelTarget target,
+        CellGroups? groups)
     {
         if (rule.Problem() is { } p) throw new ArgumentException("density rule: " + p);
         var warnings = new List<string>();
@@ -31,7 +32,8 @@ public static class ExpressionModelBuilder
             var density = rule.DensityFor(entry, perCell, targetCells, referenceCells);
             if (density.ClampNote is { } note) warnings.Add(note);
             var contributions = report.Genes.Where(g => !g.Excluded)
-                .SelectMany(g => g.Entries.Where(e => e.EntryId == entryId).Select(e => new GeneContribution(g.Symbol, e.Weight, targetCells.Average(i => g.ExpressionByCell[i]))))
+                .SelectMany(g => g.Entries.Where(e => e.EntryId == entryId)
+                    .Select(e => new GeneContribution(g.Symbol, e.Weight, targetCells.Average(i => g.ExpressionByCell[i]))))
                 .ToArray();
             derivations.Add(new DensityDerivation(entryId, entry.Version, density.Expression, density.Reference, density.Ratio, entry.TypicalDensityMsPerCm2,
                 density.RawMsPerCm2, density.DensityMsPerCm2, density.Clamped, contributions));
@@ -57,7 +59,10 @@ public static class ExpressionModelBuilder
             ["clamp"] = rule.ClampToPlausibleRange,
             ["overrides"] = new JsonArray(report.Overrides.Select(o => (JsonNode)new JsonObject
             {
-                ["gene"] = o.Gene, ["exclude"] = o.Exclude, ["entry"] = o.EntryId, ["weight"] = o.Weight,
+                ["gene"] = o.Gene,
+                ["exclude"] = o.Exclude,
+                ["entry"] = o.EntryId,
+                ["weight"] = o.Weight,
             }).ToArray()),
             ["densities"] = new JsonArray(derivations.Select(d => (JsonNode)new JsonObject
             {
@@ -70,14 +75,16 @@ public static class ExpressionModelBuilder
                 ["predictedMsPerCm2"] = d.RawMsPerCm2,
                 ["densityMsPerCm2"] = d.DensityMsPerCm2,
                 ["clamped"] = d.Clamped,
-                ["genes"] = new JsonArray(d.Genes.Select(g => (JsonNode)new JsonObject { ["gene"] = g.Gene, ["weight"] = g.Weight, ["expression"] = g.Expression }).ToArray()),
+                ["genes"] = new JsonArray(d.Genes.Select(g =>
+                    (JsonNode)new JsonObject { ["gene"] = g.Gene, ["weight"] = g.Weight, ["expression"] = g.Expression }).ToArray()),
             }).ToArray()),
             ["warnings"] = new JsonArray(warnings.Select(w => (JsonNode)JsonValue.Create(w)!).ToArray()),
         };
         var doc = new ModelDocument
         {
             Name = $"{target.Label} ({Path.GetFileName(table.Source)})",
-            Description = $"Built from expression of {targetCells.Length} cell(s); densities relative to the {(rule.Reference == DensityReference.ReferenceGroup ? "reference group " + rule.ReferenceGroup : "dataset median")}.",
+            Description = $"Built from expression of {targetCells.Length} cell(s); densities relative to the " +
+                $"{(rule.Reference == DensityReference.ReferenceGroup ? "reference group " + rule.ReferenceGroup : "dataset median")}.",
             Cell = new CellGeometryDocument { CapacitancePf = rule.CapacitancePf },
             TemperatureC = rule.TemperatureC,
             InitialVoltageMv = rule.LeakReversalMv,

@@ -64,15 +64,18 @@ public sealed record ModelDocument
         }
         if (doc is null) throw new ModelFileException($"{fileName}: the file holds no model (null).");
         if (doc.Format != FormatTag) throw new ModelFileException($"{fileName}: field 'format' must be \"{FormatTag}\" (got \"{doc.Format}\").");
-        if (doc.SchemaVersion != CurrentSchemaVersion) throw new ModelFileException($"{fileName}: schemaVersion {doc.SchemaVersion} is not supported (this program reads {CurrentSchemaVersion}).");
+        if (doc.SchemaVersion != CurrentSchemaVersion)
+            throw new ModelFileException($"{fileName}: schemaVersion {doc.SchemaVersion} is not supported (this program reads {CurrentSchemaVersion}).");
         if (doc.Channels is null || doc.Channels.Count == 0) throw new ModelFileException($"{fileName}: 'channels' must list at least one channel.");
         if (doc.Cell is null) throw new ModelFileException($"{fileName}: 'cell' is required.");
         for (int i = 0; i < doc.Channels.Count; i++)
         {
             var c = doc.Channels[i];
             if (string.IsNullOrWhiteSpace(c.Entry)) throw new ModelFileException($"{fileName}: channels[{i}].entry is missing.");
-            if (!(c.DensityMsPerCm2 >= 0) || double.IsInfinity(c.DensityMsPerCm2)) throw new ModelFileException($"{fileName}: channels[{i}] ({c.Entry}).densityMsPerCm2 must be a number >= 0.");
-            if (!(c.RelativeDensity >= 0) || double.IsInfinity(c.RelativeDensity)) throw new ModelFileException($"{fileName}: channels[{i}] ({c.Entry}).relativeDensity must be a number >= 0.");
+            if (!(c.DensityMsPerCm2 >= 0) || double.IsInfinity(c.DensityMsPerCm2))
+                throw new ModelFileException($"{fileName}: channels[{i}] ({c.Entry}).densityMsPerCm2 must be a number >= 0.");
+            if (!(c.RelativeDensity >= 0) || double.IsInfinity(c.RelativeDensity))
+                throw new ModelFileException($"{fileName}: channels[{i}] ({c.Entry}).relativeDensity must be a number >= 0.");
         }
         return doc;
     }

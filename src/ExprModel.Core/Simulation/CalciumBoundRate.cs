@@ -22,7 +22,8 @@ internal readonly record struct CalciumBoundRate(bool Opens, double MaxRatePerMs
     /// caller (<see cref="MaxRatePerMs"/>, <see cref="DissociationAtZeroMm"/>, <see cref="MinusInverseKPerMv"/>).
     /// </summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    public static Vector256<double> Evaluate(bool opens, Vector256<double> maxRatePerMs, Vector256<double> dissociationAtZeroMm, Vector256<double> minusInverseKPerMv,
+    public static Vector256<double> Evaluate(bool opens, Vector256<double> maxRatePerMs, Vector256<double> dissociationAtZeroMm,
+        Vector256<double> minusInverseKPerMv,
         Vector256<double> vMv, Vector256<double> calciumMm)
     {
         var e = InlineExp.Exp(vMv * minusInverseKPerMv);

@@ -64,7 +64,9 @@ public sealed class CellKinetics
             var ch = model.Channels[c];
             Erev[c] = model.ReversalPotentialMv(ch);
             Mode[c] = ch.ReversalMv is null && ch.Entry.Ion == Ion.Calcium && model.CalciumShell is not null
-                ? ch.Entry.Reversal == ReversalRule.GoldmanHodgkinKatz ? DriveMode.GhkCalcium : ch.Entry.Reversal == ReversalRule.Nernst ? DriveMode.NernstCalcium : DriveMode.Ohmic
+                ? ch.Entry.Reversal == ReversalRule.GoldmanHodgkinKatz ? DriveMode.GhkCalcium
+                    : ch.Entry.Reversal == ReversalRule.Nernst ? DriveMode.NernstCalcium
+                    : DriveMode.Ohmic
                 : ch.ReversalMv is null && ch.Entry.Reversal == ReversalRule.GoldmanHodgkinKatz ? DriveMode.GhkCalcium : DriveMode.Ohmic;
             GateStart[c] = gates.Count;
             double factor = ch.Entry.TemperatureFactor(model.TemperatureC) / ch.TauScale;
@@ -140,10 +142,12 @@ public sealed class CellKinetics
 
     /// <summary>Steady state of gate g at V (mV) and calcium (mM), with the channel's voltage shift.</summary>
     internal double GateSteadyState(int g, double vMv, double calciumMm) =>
-        Plan.Update[g] == GateUpdate.CalciumHill ? Plan.HillSteadyState<ScalarLanes, double>(g, calciumMm) : Gates[g].SteadyStateAt(vMv - GateShiftMv[g], calciumMm);
+        Plan.Update[g] == GateUpdate.CalciumHill ? Plan.HillSteadyState<ScalarLanes, double>(g, calciumMm)
+            : Gates[g].SteadyStateAt(vMv - GateShiftMv[g], calciumMm);
 
     /// <summary>Time constant (ms) of gate g at V and intracellular calcium, scaled for temperature by Q10.</summary>
-    internal double GateTimeConstantMs(int g, double vMv, double calciumMm) => Gates[g].TimeConstantAt(vMv - GateShiftMv[g], calciumMm) / GateTemperatureFactor[g];
+    internal double GateTimeConstantMs(int g, double vMv, double calciumMm) =>
+        Gates[g].TimeConstantAt(vMv - GateShiftMv[g], calciumMm) / GateTemperatureFactor[g];
 
     /// <summary>Time constant (ms) of gate g at V (calcium-dependent rates at resting calcium), scaled for temperature.</summary>
     internal double GateTimeConstantMs(int g, double vMv) => Gates[g].TimeConstantAt(vMv - GateShiftMv[g]) / GateTemperatureFactor[g];

@@ -48,7 +48,8 @@ public sealed class CompiledCell
     /// <exception cref="ArgumentException">The model differs in more than densities (compile it instead).</exception>
     public CompiledCell WithDensities(CellModel model)
     {
-        if (!Kinetics.Matches(model)) throw new ArgumentException("the model differs from the compiled cell in more than channel densities; compile it instead", nameof(model));
+        if (!Kinetics.Matches(model))
+            throw new ArgumentException("the model differs from the compiled cell in more than channel densities; compile it instead", nameof(model));
         return On(Kinetics, Checked(model));
     }
 

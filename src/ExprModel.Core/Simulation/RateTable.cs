@@ -91,7 +91,8 @@ internal sealed unsafe class RateTable
             }
             double tau = cell.GateTimeConstantMs(g, v);
             if (!(tau > 0) || double.IsNaN(inf))
-                throw new ModelException($"{cell.GateLabel(g)}: time constant {tau} ms / steady state {inf} at {v:F2} mV is not usable; check the entry's rate parameters.");
+                throw new ModelException($"{cell.GateLabel(g)}: time constant {tau} ms / steady state {inf} at {v:F2} mV is not usable; " +
+                    "check the entry's rate parameters.");
             double e = Math.Exp(-dtMs / tau);
             t[2 * i] = e;
             t[2 * i + 1] = inf * (1 - e);

@@ -33,7 +33,8 @@ public static class ReferenceIntegrator
             cell.Derivatives(tmp, i1, k4);
             for (int j = 0; j < n; j++) y[j] += dtMs / 6 * (k1[j] + 2 * k2[j] + 2 * k3[j] + k4[j]);
             if (!(y[0] > -1000 && y[0] < 1000))
-                throw new SimulationBlowUpException($"Reference integration left the physical range at t = {t + dtMs:F4} ms.", t + dtMs, "(reference)", cell.Unpack(y));
+                throw new SimulationBlowUpException($"Reference integration left the physical range at t = {t + dtMs:F4} ms.", t + dtMs, "(reference)",
+                    cell.Unpack(y));
             double sp = detector.Feed(t + dtMs, y[0], dtMs);
             if (!double.IsNaN(sp)) spikeTimes.Add(sp);
             if (recordEvery > 0 && (s + 1) % recordEvery == 0)

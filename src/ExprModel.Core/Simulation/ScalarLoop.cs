@@ -10,7 +10,8 @@ internal static class ScalarLoop
     /// <param name="firstStep">Step to start at (a resume point's; 0 from the beginning). Times and the stimulus stay those of the whole run.</param>
     /// <param name="previousVoltageMv">V one step before <paramref name="firstStep"/> (defaults to the initial V).</param>
     [MethodImpl(MethodImplOptions.AggressiveOptimization)]
-    public static Trace Run(CompiledCell cell, RateTable table, Stimulus stimulus, int steps, SimulationSettings settings, CellState init, CancellationToken cancel,
+    public static Trace Run(CompiledCell cell, RateTable table, Stimulus stimulus, int steps, SimulationSettings settings, CellState init,
+        CancellationToken cancel,
         int firstStep = 0, double? previousVoltageMv = null)
     {
         // A step (or no current) is computed from its on-range; other stimuli are sampled once per step.
@@ -79,7 +80,8 @@ internal static class ScalarLoop
         for (int s = firstStep; s < steps; s++)
         {
             if ((s & 0xFFF) == 0 && cancel.IsCancellationRequested) cancel.ThrowIfCancellationRequested();
-            if (keepResume && s % SimulationSettings.ResumePointEverySteps == 0) resumePoints.Add(new ResumePoint(s, s * dt, new CellState(v, (double[])x.Clone(), ca), vPrevious));
+            if (keepResume && s % SimulationSettings.ResumePointEverySteps == 0)
+                resumePoints.Add(new ResumePoint(s, s * dt, new CellState(v, (double[])x.Clone(), ca), vPrevious));
             double pos = (v - RateTable.MinMv) * invRes;
             if (pos < 0) pos = 0;
             else if (pos > maxIndex) pos = maxIndex;
@@ -164,7 +166,12 @@ internal static class ScalarLoop
                 double ghkMid = anyGhkCalcium ? cell.CalciumDrivingMv(DriveMode.GhkCalcium, vMid, ca, eCa) : 0;
                 for (int c = 0; c < channelCount; c++)
                     if (carriesCalcium[c])
-                        ica += g[c] * mode[c] switch { DriveMode.Ohmic => vMid - erev[c], DriveMode.GhkCalcium => ghkMid, _ => cell.CalciumDrivingMv(mode[c], vMid, ca, eCa) };
+                        ica += g[c] * mode[c] switch
+                        {
+                            DriveMode.Ohmic => vMid - erev[c],
+                            DriveMode.GhkCalcium => ghkMid,
+                            _ => cell.CalciumDrivingMv(mode[c], vMid, ca, eCa),
+                        };
                 double caInf = shellRest - shellGain * ica;
                 ca = caInf + (ca - caInf) * shellDecay;
                 if (ca < 0) ca = 0;

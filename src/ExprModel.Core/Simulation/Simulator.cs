@@ -66,12 +66,14 @@ public static class Simulator
     /// Continues a run of <paramref name="stimulus"/> from a resume point up to <paramref name="untilMs"/> (times stay
     /// those of the whole run: the trace starts at the resume point's time). The scalar loop computes it.
     /// </summary>
-    public static Trace Resume(CompiledCell cell, Stimulus stimulus, ResumePoint from, double untilMs, SimulationSettings? settings = null, CancellationToken cancel = default)
+    public static Trace Resume(CompiledCell cell, Stimulus stimulus, ResumePoint from, double untilMs, SimulationSettings? settings = null,
+        CancellationToken cancel = default)
     {
         settings ??= SimulationSettings.Default;
         Validate(untilMs, settings);
         int steps = (int)Math.Round(untilMs / settings.DtMs);
-        if (from.Step < 0 || from.Step >= steps) throw new ArgumentOutOfRangeException(nameof(from), $"the resume point (step {from.Step}) must lie before the end of the run (step {steps})");
+        if (from.Step < 0 || from.Step >= steps)
+            throw new ArgumentOutOfRangeException(nameof(from), $"the resume point (step {from.Step}) must lie before the end of the run (step {steps})");
         return ScalarLoop.Run(cell, TableFor(cell, settings.DtMs), stimulus, steps, settings, from.State, cancel, from.Step, from.PreviousVoltageMv);
     }
 
@@ -108,7 +110,8 @@ public static class Simulator
     private static void Validate(double durationMs, SimulationSettings s)
     {
         if (!(s.DtMs > 0) || s.DtMs > 1) throw new ArgumentOutOfRangeException(nameof(s), $"dtMs must lie in (0, 1] ms (got {s.DtMs}).");
-        if (!(durationMs > 0) || durationMs > 600_000) throw new ArgumentOutOfRangeException(nameof(durationMs), $"durationMs must lie in (0, 600000] (got {durationMs}).");
+        if (!(durationMs > 0) || durationMs > 600_000)
+            throw new ArgumentOutOfRangeException(nameof(durationMs), $"durationMs must lie in (0, 600000] (got {durationMs}).");
         if (s.RecordEvery < 0) throw new ArgumentOutOfRangeException(nameof(s), "recordEvery must be >= 0.");
     }
 

@@ -30,7 +30,8 @@ internal sealed class StepPlan
     public readonly int[] HillWholePower;
     public readonly bool[] HillRises;
     public readonly double[] HillHalfPower;
-    /// <summary>Calcium-rate gates: the opening and closing rates as GateRate defines them, and their per-step form when both are calcium-bound shapes.</summary>
+    /// <summary>Calcium-rate gates: the opening and closing rates as GateRate defines them, and their per-step form when both are calcium-bound
+    /// shapes.</summary>
     public readonly GateRate?[] Opening;
     public readonly GateRate?[] Closing;
     public readonly CalciumBoundRate[] BoundOpening;

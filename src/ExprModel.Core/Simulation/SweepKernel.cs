@@ -3,12 +3,9 @@ using System.Runtime.Intrinsics.X86;
 
 namespace ExprModel.Core.Simulation;
 
-/// <summary>One stimulus's result in a sweep: its spike times and, when asked for, a resume point shortly before its first spike.</summary>
-public sealed record SweepLane(IReadOnlyList<double> SpikeTimesMs, ResumePoint? BeforeFirstSpike);
-
 /// <summary>
-/// The sweep hot loop with four stimuli as SIMD lanes (AVX2 gathers from the rate tables, FMA, vector exp). Same staggered scheme and the same spike rule as the scalar
-/// loop, so results agree with it to rounding. Handles voltage gates from tables, calcium-gated (Hill) gates, calcium
+/// The sweep hot loop with four stimuli as SIMD lanes (AVX2 gathers from the rate tables, FMA, vector exp). Same staggered scheme and the same spike rule as
+/// the scalar loop, so results agree with it to rounding. Handles voltage gates from tables, calcium-gated (Hill) gates, calcium
 /// channels with a Nernst or GHK driving force and the calcium shell, exactly as the scalar loop orders them. What each
 /// gate and channel needs comes from the cell's <see cref="StepPlan"/>; the shared formulas run here on <see cref="VectorLanes"/>.
 /// </summary>
@@ -246,7 +243,9 @@ internal static unsafe class SweepKernel
                     }
                 }
                 Vector256<double> current = allSteps
-                    ? Vector256.ConditionalSelect(Vector256.GreaterThanOrEqual(Vector256.Create((double)s), onFirstV) & Vector256.LessThan(Vector256.Create((double)s), onEndV), onValueV, offValueV)
+                    ? Vector256.ConditionalSelect(
+                        Vector256.GreaterThanOrEqual(Vector256.Create((double)s), onFirstV) & Vector256.LessThan(Vector256.Create((double)s), onEndV),
+                        onValueV, offValueV)
                     : Vector256.Create(new ReadOnlySpan<double>(S + (long)s * width, width));
                 vPrev = v;
                 var drive = gE + current - extra;
@@ -261,7 +260,8 @@ internal static unsafe class SweepKernel
                     var ica = zero;
                     var ghkMid = anyGhk ? Ghk(vMid, ca, caOut, vt2v, invVt2) : zero;
                     for (int c = 0; c < channels; c++)
-                        if (carriesCalcium[c]) ica = Fma.MultiplyAdd(gcs[c], mode[c] switch { DriveMode.Ohmic => vMid - erev[c], DriveMode.NernstCalcium => vMid - eCa, _ => ghkMid }, ica);
+                        if (carriesCalcium[c]) ica = Fma.MultiplyAdd(gcs[c],
+                            mode[c] switch { DriveMode.Ohmic => vMid - erev[c], DriveMode.NernstCalcium => vMid - eCa, _ => ghkMid }, ica);
                     var caInf = shellRest - shellGain * ica;
                     ca = Vector256.Max(Fma.MultiplyAdd(ca - caInf, shellDecay, caInf), zero);
                 }
@@ -284,7 +284,8 @@ internal static unsafe class SweepKernel
                         {
                             if (vl < levelMv)
                             {
-                                if (keepResume && spikes[l].Count == 0 && pending[l] == firstCrossTime[l] && pending[l] >= resumeAfter) resume[l] = candidate[l];
+                                if (keepResume && spikes[l].Count == 0 && pending[l] == firstCrossTime[l] && pending[l] >= resumeAfter)
+                                    resume[l] = candidate[l];
                                 spikes[l].Add(pending[l]);
                                 if (stopAfter is { } after && pending[l] >= after && !doneLane[l]) { doneLane[l] = true; lanesDone++; }
                                 pending[l] = double.NaN;
@@ -323,12 +324,14 @@ internal static unsafe class SweepKernel
         var u = vm * invVt2;
         var one = Vector256.Create(1.0);
         var e = InlineExp.Exp(Vector256.Create(0.0) - u);
-        var linear = Vector256.ConditionalSelect(Vector256.LessThan(Vector256.Abs(u), Vector256.Create(1e-6)), vt2 * Fma.MultiplyAdd(u, Vector256.Create(0.5), one), vm / (one - e));
+        var linear = Vector256.ConditionalSelect(Vector256.LessThan(Vector256.Abs(u), Vector256.Create(1e-6)),
+            vt2 * Fma.MultiplyAdd(u, Vector256.Create(0.5), one), vm / (one - e));
         return linear * (ci / caOut - e);
     }
 
     /// <summary>Lane l of the newest ring snapshot taken at or before step 'latest' (null when none is that early).</summary>
-    private static ResumePoint? Snapshot(int l, int latest, int[] ckStep, Vector256<double>[] ckX, Vector256<double>[] ckV, Vector256<double>[] ckVPrev, Vector256<double>[] ckCa, int gates, double dt)
+    private static ResumePoint? Snapshot(int l, int latest, int[] ckStep, Vector256<double>[] ckX, Vector256<double>[] ckV, Vector256<double>[] ckVPrev,
+        Vector256<double>[] ckCa, int gates, double dt)
     {
         int best = -1;
         for (int k = 0; k < ckStep.Length; k++)

@@ -13,5 +13,6 @@ internal readonly struct VectorLanes : ILaneMath<Vector256<double>>
 
     /// <summary>exp(y log x), with x floored at 1e-300 so the logarithm stays finite (x^y is then below any calcium that matters).</summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    public static Vector256<double> Power(Vector256<double> x, Vector256<double> y) => InlineExp.Exp(y * InlineLog.Log(Vector256.Max(x, Vector256.Create(1e-300))));
+    public static Vector256<double> Power(Vector256<double> x, Vector256<double> y) =>
+        InlineExp.Exp(y * InlineLog.Log(Vector256.Max(x, Vector256.Create(1e-300))));
 }

@@ -1,16 +1,5 @@
 namespace ExprModel.Core.Simulation;
 
-/// <summary>One command step of a voltage-clamp family, with each channel's current.</summary>
-public sealed record ClampStep(double CommandMv, double[] TimeMs, IReadOnlyDictionary<string, double[]> CurrentsUaPerCm2)
-{
-    /// <summary>Per channel: current of largest magnitude after the step onset (uA/cm2).</summary>
-    public required IReadOnlyDictionary<string, double> PeakUaPerCm2 { get; init; }
-    /// <summary>Per channel: mean current over the last 5% of the step (uA/cm2).</summary>
-    public required IReadOnlyDictionary<string, double> SteadyUaPerCm2 { get; init; }
-    /// <summary>Per channel: largest conductance during the step (mS/cm2).</summary>
-    public required IReadOnlyDictionary<string, double> PeakConductanceMsPerCm2 { get; init; }
-}
-
 /// <summary>
 /// Ideal voltage clamp: V is held at the command, so each gate follows its exact exponential relaxation toward
 /// the steady state at that voltage (the equations are linear in the gate for fixed V).
@@ -21,7 +10,8 @@ public static class VoltageClamp
         double holdMs = 50, double stepMs = 100, double dtMs = 0.025, CancellationToken cancel = default)
     {
         var result = new ClampStep[commandsMv.Count];
-        Parallel.For(0, commandsMv.Count, new ParallelOptions { CancellationToken = cancel }, i => result[i] = Run(cell, holdingMv, commandsMv[i], holdMs, stepMs, dtMs));
+        Parallel.For(0, commandsMv.Count, new ParallelOptions { CancellationToken = cancel },
+            i => result[i] = Run(cell, holdingMv, commandsMv[i], holdMs, stepMs, dtMs));
         return result;
     }
 

@@ -50,7 +50,8 @@ public sealed class CatalogContent
             foreach (var (line, cols) in Csv(text, name, ["species", "symbol", "status", "reason"]))
             {
                 if (cols[2] is not ("linked" or "auxiliary" or "non-neuronal" or "not-modelled"))
-                    throw new CatalogException($"catalog/{name}: line {line}, column status: '{cols[2]}' is not linked, auxiliary, non-neuronal or not-modelled.");
+                    throw new CatalogException($"catalog/{name}: line {line}, column status: '{cols[2]}' is not linked, auxiliary, " +
+                        "non-neuronal or not-modelled.");
                 statuses.Add(new GeneStatus(ParseSpecies(cols[0], name, line), cols[1], cols[2], cols[3]));
             }
         var identifiers = new List<GeneIdentifier>();
@@ -66,7 +67,8 @@ public sealed class CatalogContent
             catch (JsonException e) { throw new CatalogException(JsonErrorMessage.For(e, provenanceFile)); }
             using (doc)
             {
-                if (doc.RootElement.ValueKind != JsonValueKind.Object) throw new CatalogException($"{provenanceFile}: must be a JSON object of names to values.");
+                if (doc.RootElement.ValueKind != JsonValueKind.Object)
+                    throw new CatalogException($"{provenanceFile}: must be a JSON object of names to values.");
                 foreach (var p in doc.RootElement.EnumerateObject()) provenance[p.Name] = p.Value.ToString();
             }
         }
@@ -82,14 +84,20 @@ public sealed class CatalogContent
             foreach (var c in doc.Channels)
             {
                 if (!latest.TryGetValue(c.Entry, out var max)) throw new CatalogException($"catalog/{name}: channel entry '{c.Entry}' is not in the catalog.");
-                if (c.Version is { } v && !seen.ContainsKey($"{c.Entry}@{v}")) throw new CatalogException($"catalog/{name}: entry {c.Entry} has no version {v}.");
+                if (c.Version is { } v && !seen.ContainsKey($"{c.Entry}@{v}"))
+                    throw new CatalogException($"catalog/{name}: entry {c.Entry} has no version {v}.");
             }
             presets[id] = doc;
         }
         return new CatalogContent
         {
-            Entries = entries, EntryFiles = files, GeneLinks = links, GeneStatuses = statuses, GeneIdentifiers = identifiers,
-            Presets = presets, Provenance = provenance,
+            Entries = entries,
+            EntryFiles = files,
+            GeneLinks = links,
+            GeneStatuses = statuses,
+            GeneIdentifiers = identifiers,
+            Presets = presets,
+            Provenance = provenance,
         };
     }
 

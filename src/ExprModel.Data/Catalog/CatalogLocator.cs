@@ -47,7 +47,8 @@ public static class CatalogLocator
         if (!File.Exists(path)) return false;
         try
         {
-            using var conn = new SqliteConnection(new SqliteConnectionStringBuilder { DataSource = path, Mode = SqliteOpenMode.ReadOnly, Pooling = false }.ToString());
+            using var conn =
+                new SqliteConnection(new SqliteConnectionStringBuilder { DataSource = path, Mode = SqliteOpenMode.ReadOnly, Pooling = false }.ToString());
             conn.Open();
             using var cmd = conn.CreateCommand();
             cmd.CommandText = "SELECT value FROM meta WHERE key = 'source_hash'";

@@ -26,14 +26,17 @@ public static class CatalogReport
         var sb = new StringBuilder();
         sb.Append("# Channel catalog review\n\n");
         int recalled = entries.Count(e => e.Source.Verification == Verification.Recalled);
-        sb.Append(Inv, $"{entries.Count} entries; {recalled} recalled (numbers and citation not yet checked against the paper), {entries.Count - recalled} checked.\n\n");
+        sb.Append(Inv,
+            $"{entries.Count} entries; {recalled} recalled (numbers and citation not yet checked against the paper), {entries.Count - recalled} checked.\n\n");
         var pore = GeneCoverage.VoltageGatedPoreCoverage(catalog);
         if (pore.Total > 0)
-            sb.Append(Inv, $"Gene coverage: {pore.Linked} of {pore.Total} {pore.Group} linked ({pore.Fraction:P0}); unlinked: {string.Join(", ", pore.Unlinked)}.\n\n");
+            sb.Append(Inv,
+                $"Gene coverage: {pore.Linked} of {pore.Total} {pore.Group} linked ({pore.Fraction:P0}); unlinked: {string.Join(", ", pore.Unlinked)}.\n\n");
         sb.Append("| entry | family | ion | reversal | T (C) | Q10 | half-activation (mV) | verification |\n");
         sb.Append("| --- | --- | --- | --- | --- | --- | --- | --- |\n");
         foreach (var e in entries)
-            sb.Append(Inv, $"| {e.Key} | {e.Family} | {Word(e.Ion)} | {ReversalText(e)} | {e.ReferenceTemperatureC:0.#} | {e.Q10:0.##} | {HalfSummary(e)} | {Word(e.Source.Verification)} |\n");
+            sb.Append(Inv, $"| {e.Key} | {e.Family} | {Word(e.Ion)} | {ReversalText(e)} | {e.ReferenceTemperatureC:0.#} | {e.Q10:0.##} | {HalfSummary(e)} | " +
+                $"{Word(e.Source.Verification)} |\n");
         sb.Append('\n');
         foreach (var e in entries) sb.Append(Entry(e)).Append('\n');
         return sb.ToString();
@@ -49,7 +52,8 @@ public static class CatalogReport
         sb.Append(Inv, $"- Ion: {Word(e.Ion)}; reversal: {ReversalText(e)}\n");
         sb.Append(Inv, $"- Temperature of origin: {e.ReferenceTemperatureC:0.##} C; Q10 {e.Q10:0.##} (rates x{e.TemperatureFactor(36):0.###} at 36 C)\n");
         sb.Append(Inv, $"- Density: typical {e.TypicalDensityMsPerCm2:G4} mS/cm2 (plausible {e.MinDensityMsPerCm2:G4} to {e.MaxDensityMsPerCm2:G4})\n");
-        sb.Append(Inv, $"- Source: {s.Authors} ({s.Year}). {s.Title}. {s.Journal} {s.Volume}{(s.Pages.Length > 0 ? ":" + s.Pages : "")}. DOI: {(s.Doi.Length > 0 ? s.Doi : "(none recorded)")}\n");
+        sb.Append(Inv, $"- Source: {s.Authors} ({s.Year}). {s.Title}. {s.Journal} {s.Volume}{(s.Pages.Length > 0 ? ":" + s.Pages : "")}. DOI: " +
+            $"{(s.Doi.Length > 0 ? s.Doi : "(none recorded)")}\n");
         sb.Append(Inv, $"- From: {s.Location}\n");
         sb.Append(s.Verification == Verification.Checked
             ? "- Verification: checked against the paper\n"
@@ -63,7 +67,9 @@ public static class CatalogReport
         }
         foreach (var g in e.Gates) sb.Append("- ").Append(GateText(g)).Append('\n');
         foreach (var p in e.PublishedValues)
-            sb.Append(Inv, $"- Published: {p.Quantity} of {p.Gate} = {p.Value:G6}{(p.Quantity == "tau-at" || p.Quantity == "steady-at" ? $" at {p.AtMv:0.##} mV" : "")} (tolerance {p.Tolerance:G3}; {p.Where})\n");
+            sb.Append(Inv,
+                $"- Published: {p.Quantity} of {p.Gate} = {p.Value:G6}{(p.Quantity == "tau-at" || p.Quantity == "steady-at" ? $" at {p.AtMv:0.##} mV" : "")} " +
+                $"(tolerance {p.Tolerance:G3}; {p.Where})\n");
         sb.Append('\n').Append(Table(e));
         return sb.ToString();
     }
@@ -110,7 +116,8 @@ public static class CatalogReport
     public static double? ConductanceHalfActivationMv(GateSpec gate) =>
         gate.DependsOnCalcium ? null : Bisect(v => Math.Pow(gate.SteadyStateAt(v), gate.Power), -150, 100);
 
-    /// <summary>Intracellular calcium (mM) at which a calcium gate's steady state at <paramref name="vMv"/> is 0.5, by bisection in log concentration.</summary>
+    /// <summary>Intracellular calcium (mM) at which a calcium gate's steady state at <paramref name="vMv"/> is 0.5, by bisection in log
+    /// concentration.</summary>
     public static double? CalciumHalfActivationMm(GateSpec gate, double vMv)
     {
         if (!gate.DependsOnCalcium) return null;
@@ -151,7 +158,8 @@ public static class CatalogReport
     private static string GateText(GateSpec g)
     {
         var sb = new StringBuilder();
-        sb.Append(Inv, $"Gate {g.Name}^{g.Power} ({Word(g.Kind)}{(g.Instantaneous ? ", instantaneous" : "")}{(g.RateFactor != 1 ? $", rate factor {g.RateFactor:G4}" : "")}): ");
+        sb.Append(Inv, $"Gate {g.Name}^{g.Power} " +
+            $"({Word(g.Kind)}{(g.Instantaneous ? ", instantaneous" : "")}{(g.RateFactor != 1 ? $", rate factor {g.RateFactor:G4}" : "")}): ");
         if (g.DependsOnCalcium)
         {
             var half0 = CalciumHalfActivationMm(g, 0);
@@ -161,7 +169,9 @@ public static class CatalogReport
             {
                 var halfNeg = CalciumHalfActivationMm(g, -40);
                 var halfPos = CalciumHalfActivationMm(g, 40);
-                sb.Append(Inv, $", {(halfNeg is { } n ? (n * 1000).ToString("G4", Inv) + " uM" : "n/a")} at -40 mV, {(halfPos is { } p ? (p * 1000).ToString("G4", Inv) + " uM" : "n/a")} at +40 mV; tau {g.TimeConstantAt(0, TableCalciumMm):G4} ms at 0 mV and 1 uM");
+                sb.Append(Inv, $", {(halfNeg is { } n ? (n * 1000).ToString("G4", Inv) + " uM" : "n/a")} at -40 mV, " +
+                    $"{(halfPos is { } p ? (p * 1000).ToString("G4", Inv) + " uM" : "n/a")} at +40 mV; " +
+                    $"tau {g.TimeConstantAt(0, TableCalciumMm):G4} ms at 0 mV and 1 uM");
             }
             return sb.ToString();
         }
@@ -173,7 +183,9 @@ public static class CatalogReport
             sb.Append(Inv, $" (of the Boltzmann before the source's power {root.Exponent:G3})");
         if (g.Power != 1 && cond is { } cv) sb.Append(Inv, $" ({g.Name}^{g.Power} crosses 0.5 at {cv:0.0} mV)");
         var range = TimeConstantRangeMs(g);
-        sb.Append(range is { } r ? string.Format(Inv, "; tau {0:G3} to {1:G4} ms over -100..+40 mV", r.MinMs, r.MaxMs) : "; no time constant (follows V instantly)");
+        sb.Append(range is { } r
+            ? string.Format(Inv, "; tau {0:G3} to {1:G4} ms over -100..+40 mV", r.MinMs, r.MaxMs)
+            : "; no time constant (follows V instantly)");
         return sb.ToString();
     }
 

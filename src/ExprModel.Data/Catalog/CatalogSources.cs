@@ -70,6 +70,7 @@ public sealed class CatalogSources
     private static bool IsSource(string rel) =>
         (rel.StartsWith("entries/", StringComparison.Ordinal) && rel.EndsWith(".json", StringComparison.Ordinal)) ||
         (rel.StartsWith("models/", StringComparison.Ordinal) && rel.EndsWith(".json", StringComparison.Ordinal)) ||
-        (rel.StartsWith("genes/", StringComparison.Ordinal) && (rel.EndsWith(".csv", StringComparison.Ordinal) || rel.EndsWith(".json", StringComparison.Ordinal))) ||
+        (rel.StartsWith("genes/", StringComparison.Ordinal)
+            && (rel.EndsWith(".csv", StringComparison.Ordinal) || rel.EndsWith(".json", StringComparison.Ordinal))) ||
         rel == "versions.lock";
 }

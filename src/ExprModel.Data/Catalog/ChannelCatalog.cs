@@ -46,7 +46,8 @@ public sealed class ChannelCatalog
             return _byKey.TryGetValue($"{id}@{v}", out var e) ? e
                 : _latest.ContainsKey(id) ? throw new CatalogException($"Catalog entry '{id}' has no version {v} (latest is {_latest[id].Version}).")
                 : throw new CatalogException($"Unknown catalog entry '{id}'.");
-        return _latest.TryGetValue(id, out var l) ? l : throw new CatalogException($"Unknown catalog entry '{id}'. Run 'exprmodel catalog list' to see the entries.");
+        return _latest.TryGetValue(id, out var l) ? l
+            : throw new CatalogException($"Unknown catalog entry '{id}'. Run 'exprmodel catalog list' to see the entries.");
     }
 
     public bool Contains(string id) => _latest.ContainsKey(id);
@@ -58,12 +59,14 @@ public sealed class ChannelCatalog
     public ExprModel.Core.Cell.CellModel BuildCell(ModelDocument doc) => doc.ToCellModel(Resolve);
 
     public ModelDocument Preset(string id) =>
-        Presets.TryGetValue(id, out var p) ? p : throw new CatalogException($"Unknown preset '{id}'. Presets: {string.Join(", ", Presets.Keys.Order(StringComparer.Ordinal))}.");
+        Presets.TryGetValue(id, out var p) ? p
+            : throw new CatalogException($"Unknown preset '{id}'. Presets: {string.Join(", ", Presets.Keys.Order(StringComparer.Ordinal))}.");
 
     public static ChannelCatalog Open(string databasePath)
     {
         if (!File.Exists(databasePath)) throw new CatalogException($"{databasePath}: catalog database not found; run 'exprmodel catalog build'.");
-        using var conn = new SqliteConnection(new SqliteConnectionStringBuilder { DataSource = databasePath, Mode = SqliteOpenMode.ReadOnly, Pooling = false }.ToString());
+        using var conn =
+            new SqliteConnection(new SqliteConnectionStringBuilder { DataSource = databasePath, Mode = SqliteOpenMode.ReadOnly, Pooling = false }.ToString());
         conn.Open();
         var meta = Rows(conn, "SELECT key, value FROM meta").ToDictionary(r => r.GetString(0), r => r.GetString(1));
         var rates = new Dictionary<(string, long, long), Dictionary<string, GateRate>>();
@@ -74,12 +77,21 @@ public sealed class ChannelCatalog
             d[r.GetString(3)] = new GateRate
             {
                 Shape = Enum.Parse<RateShape>(r.GetString(4).Replace("-", ""), ignoreCase: true),
-                A = r.GetDouble(5), V0 = r.GetDouble(6), K = r.GetDouble(7), Exponent = r.GetDouble(8), Floor = r.GetDouble(9),
-                Base = r.GetDouble(10), V1 = r.GetDouble(11), K1 = r.GetDouble(12), C1 = r.GetDouble(13), C2 = r.GetDouble(14),
+                A = r.GetDouble(5),
+                V0 = r.GetDouble(6),
+                K = r.GetDouble(7),
+                Exponent = r.GetDouble(8),
+                Floor = r.GetDouble(9),
+                Base = r.GetDouble(10),
+                V1 = r.GetDouble(11),
+                K1 = r.GetDouble(12),
+                C1 = r.GetDouble(13),
+                C2 = r.GetDouble(14),
             };
         }
         var gates = new Dictionary<(string, long), List<GateSpec>>();
-        foreach (var r in Rows(conn, "SELECT entry_id, version, ordinal, name, power, kind, instantaneous, rate_factor, ca_half_mm, ca_hill, ca_tau_ms FROM gates ORDER BY entry_id, version, ordinal"))
+        foreach (var r in Rows(conn, "SELECT entry_id, version, ordinal, name, power, kind, instantaneous, rate_factor, ca_half_mm, ca_hill, " +
+            "ca_tau_ms FROM gates ORDER BY entry_id, version, ordinal"))
         {
             var key = (r.GetString(0), r.GetInt64(1));
             if (!gates.TryGetValue(key, out var list)) gates[key] = list = [];
@@ -104,7 +116,15 @@ public sealed class ChannelCatalog
         {
             var key = (r.GetString(0), r.GetInt64(1));
             if (!published.TryGetValue(key, out var list)) published[key] = list = [];
-            list.Add(new PublishedValue { Quantity = r.GetString(2), Gate = r.GetString(3), Value = r.GetDouble(4), AtMv = r.GetDouble(5), Tolerance = r.GetDouble(6), Where = r.GetString(7) });
+            list.Add(new PublishedValue
+            {
+                Quantity = r.GetString(2),
+                Gate = r.GetString(3),
+                Value = r.GetDouble(4),
+                AtMv = r.GetDouble(5),
+                Tolerance = r.GetDouble(6),
+                Where = r.GetString(7)
+            });
         }
         var entries = new List<ChannelEntry>();
         foreach (var r in Rows(conn, """
@@ -133,8 +153,15 @@ public sealed class ChannelCatalog
                 CuratorNote = r.GetString(13),
                 Source = new Citation
                 {
-                    Authors = r.GetString(14), Year = r.GetInt32(15), Title = r.GetString(16), Journal = r.GetString(17), Volume = r.GetString(18),
-                    Pages = r.GetString(19), Doi = r.GetString(20), Location = r.GetString(21), Verification = ParseWord<Verification>(r.GetString(22)),
+                    Authors = r.GetString(14),
+                    Year = r.GetInt32(15),
+                    Title = r.GetString(16),
+                    Journal = r.GetString(17),
+                    Volume = r.GetString(18),
+                    Pages = r.GetString(19),
+                    Doi = r.GetString(20),
+                    Location = r.GetString(21),
+                    Verification = ParseWord<Verification>(r.GetString(22)),
                 },
                 Gates = gates.TryGetValue(key, out var gl) ? gl : [],
                 PublishedValues = published.TryGetValue(key, out var pl) ? pl : [],

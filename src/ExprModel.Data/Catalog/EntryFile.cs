@@ -168,7 +168,8 @@ public static class EntryFile
             Beta = RateDto.From(g.Beta),
             Steady = RateDto.From(g.SteadyState),
             TauMs = RateDto.From(g.TimeConstantMs),
-            Calcium = g.Calcium is null ? null : new CalciumDto { HalfActivationMm = g.Calcium.HalfActivationMm, Hill = g.Calcium.HillCoefficient, TauMs = g.Calcium.TimeConstantMs },
+            Calcium = g.Calcium is null ? null
+                : new CalciumDto { HalfActivationMm = g.Calcium.HalfActivationMm, Hill = g.Calcium.HillCoefficient, TauMs = g.Calcium.TimeConstantMs },
             Instantaneous = g.Instantaneous,
             RateFactor = g.RateFactor,
         };
@@ -212,13 +213,16 @@ public static class EntryFile
             "linear-over-exponential" => GateRate.LinearOverExponential(Need(A, "a", where), Need(V0, "v0", where), Need(K, "k", where)),
             "boltzmann" => GateRate.Boltzmann(Need(VHalf, "vHalf", where), Need(Slope, "slope", where), Exponent ?? 1, Floor ?? 0),
             "constant" => GateRate.Constant(Need(Value, "value", where)),
-            "bell" => GateRate.Bell(Base ?? 0, Need(A, "a", where), Need(V0, "v0", where), Need(K, "k", where), Need(V1, "v1", where), Need(K1, "k1", where), C1 ?? 1, C2 ?? 1),
+            "bell" => GateRate.Bell(Base ?? 0, Need(A, "a", where), Need(V0, "v0", where), Need(K, "k", where), Need(V1, "v1", where), Need(K1, "k1", where),
+                C1 ?? 1, C2 ?? 1),
             "gaussian" => GateRate.Gaussian(Base ?? 0, Need(A, "a", where), Need(V0, "v0", where), Need(K, "k", where)),
             "offset-sigmoid" => GateRate.OffsetSigmoid(Need(Base, "base", where), Need(A, "a", where), Need(V0, "v0", where), Need(K, "k", where)),
-            "inverse-rate-sum" => GateRate.InverseRateSum(Need(A, "a", where), Need(V0, "v0", where), Need(K, "k", where), Need(C1, "c1", where), Need(V1, "v1", where), Need(K1, "k1", where)),
+            "inverse-rate-sum" => GateRate.InverseRateSum(Need(A, "a", where), Need(V0, "v0", where), Need(K, "k", where), Need(C1, "c1", where),
+                Need(V1, "v1", where), Need(K1, "k1", where)),
             "calcium-bound-opening" => GateRate.CalciumBoundOpening(Need(A, "a", where), Need(C1, "c1", where), Need(K, "k", where)),
             "calcium-bound-closing" => GateRate.CalciumBoundClosing(Need(A, "a", where), Need(C1, "c1", where), Need(K, "k", where)),
-            _ => throw new ArgumentException($"{where}: unknown shape '{Shape}' (use exponential, sigmoid, linear-over-exponential, boltzmann, constant, bell, gaussian, offset-sigmoid, inverse-rate-sum, calcium-bound-opening or calcium-bound-closing)."),
+            _ => throw new ArgumentException($"{where}: unknown shape '{Shape}' (use exponential, sigmoid, linear-over-exponential, boltzmann, constant, " +
+                "bell, gaussian, offset-sigmoid, inverse-rate-sum, calcium-bound-opening or calcium-bound-closing)."),
         };
 
         public static RateDto? From(GateRate? r) => r is null ? null : r.Shape switch
@@ -226,9 +230,21 @@ public static class EntryFile
             RateShape.Exponential => new() { Shape = "exponential", A = r.A, V0 = r.V0, K = r.K },
             RateShape.Sigmoid => new() { Shape = "sigmoid", A = r.A, V0 = r.V0, K = r.K },
             RateShape.LinearOverExponential => new() { Shape = "linear-over-exponential", A = r.A, V0 = r.V0, K = r.K },
-            RateShape.Boltzmann => new() { Shape = "boltzmann", VHalf = r.V0, Slope = r.K, Exponent = r.Exponent == 1 ? null : r.Exponent, Floor = r.Floor == 0 ? null : r.Floor },
+            RateShape.Boltzmann =>
+                new() { Shape = "boltzmann", VHalf = r.V0, Slope = r.K, Exponent = r.Exponent == 1 ? null : r.Exponent, Floor = r.Floor == 0 ? null : r.Floor },
             RateShape.Constant => new() { Shape = "constant", Value = r.A },
-            RateShape.Bell => new() { Shape = "bell", Base = r.Base, A = r.A, V0 = r.V0, K = r.K, V1 = r.V1, K1 = r.K1, C1 = r.C1 == 1 ? null : r.C1, C2 = r.C2 == 1 ? null : r.C2 },
+            RateShape.Bell => new()
+            {
+                Shape = "bell",
+                Base = r.Base,
+                A = r.A,
+                V0 = r.V0,
+                K = r.K,
+                V1 = r.V1,
+                K1 = r.K1,
+                C1 = r.C1 == 1 ? null : r.C1,
+                C2 = r.C2 == 1 ? null : r.C2
+            },
             RateShape.Gaussian => new() { Shape = "gaussian", Base = r.Base, A = r.A, V0 = r.V0, K = r.K },
             RateShape.OffsetSigmoid => new() { Shape = "offset-sigmoid", Base = r.Base, A = r.A, V0 = r.V0, K = r.K },
             RateShape.InverseRateSum => new() { Shape = "inverse-rate-sum", A = r.A, V0 = r.V0, K = r.K, C1 = r.C1, V1 = r.V1, K1 = r.K1 },
@@ -252,14 +268,28 @@ public static class EntryFile
 
         public Citation ToCitation() => new()
         {
-            Authors = Authors, Year = Year, Title = Title, Journal = Journal, Volume = Volume, Pages = Pages, Doi = Doi,
-            Location = Location, Verification = Verification,
+            Authors = Authors,
+            Year = Year,
+            Title = Title,
+            Journal = Journal,
+            Volume = Volume,
+            Pages = Pages,
+            Doi = Doi,
+            Location = Location,
+            Verification = Verification,
         };
 
         public static SourceDto From(Citation c) => new()
         {
-            Authors = c.Authors, Year = c.Year, Title = c.Title, Journal = c.Journal, Volume = c.Volume, Pages = c.Pages, Doi = c.Doi,
-            Location = c.Location, Verification = c.Verification,
+            Authors = c.Authors,
+            Year = c.Year,
+            Title = c.Title,
+            Journal = c.Journal,
+            Volume = c.Volume,
+            Pages = c.Pages,
+            Doi = c.Doi,
+            Location = c.Location,
+            Verification = c.Verification,
         };
     }
 
@@ -273,6 +303,7 @@ public static class EntryFile
         public required string Where { get; set; }
 
         public PublishedValue ToValue() => new() { Quantity = Quantity, Gate = Gate, Value = Value, AtMv = AtMv, Tolerance = Tolerance, Where = Where };
-        public static PublishedDto From(PublishedValue p) => new() { Quantity = p.Quantity, Gate = p.Gate, Value = p.Value, AtMv = p.AtMv, Tolerance = p.Tolerance, Where = p.Where };
+        public static PublishedDto From(PublishedValue p) =>
+            new() { Quantity = p.Quantity, Gate = p.Gate, Value = p.Value, AtMv = p.AtMv, Tolerance = p.Tolerance, Where = p.Where };
     }
 }

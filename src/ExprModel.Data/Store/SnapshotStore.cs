@@ -151,7 +151,8 @@ public sealed class SnapshotStore
         if (!IsWellFormedId(id)) return null;
         using var conn = Connect();
         using var cmd = conn.CreateCommand();
-        cmd.CommandText = "SELECT snapshot_id, parent_id, created_utc, model_json, catalog_versions, protocol_json, readouts_json, notes, expression, expression_name, recorded_json FROM snapshots WHERE snapshot_id = $id";
+        cmd.CommandText = "SELECT snapshot_id, parent_id, created_utc, model_json, catalog_versions, protocol_json, readouts_json, notes, expression, " +
+            "expression_name, recorded_json FROM snapshots WHERE snapshot_id = $id";
         cmd.Parameters.AddWithValue("$id", id);
         using var r = cmd.ExecuteReader();
         if (!r.Read()) return null;

@@ -21,7 +21,8 @@ public static class BuildApi
 {
     /// <summary>The form fields of a multipart build request besides the file parts; the same options as the JSON body.</summary>
     private static readonly string[] FormFields =
-        ["expression", "metadata", "groupBy", "group", "cell", "orientation", "unit", "referenceGroup", "exponent", "clamp", "capacitancePf", "temperatureC", "overrides"];
+        ["expression", "metadata", "groupBy", "group", "cell", "orientation", "unit", "referenceGroup", "exponent", "clamp", "capacitancePf", "temperatureC",
+            "overrides"];
 
     /// <summary>What a build needs, however it arrived: the options, the table's bytes and name, the metadata's.</summary>
     private sealed record BuildUpload(BuildRequest Options, byte[] Expression, string ExpressionName, byte[]? Metadata, string MetadataName);
@@ -30,7 +31,8 @@ public static class BuildApi
     {
         var api = app.MapGroup("/api").WithTags("Build");
 
-        api.MapPost("/build", async Task<Ok<BuildResponse>> (HttpRequest request, IOptions<WebOptions> options, ChannelCatalog catalog, CancellationToken cancel) =>
+        api.MapPost("/build",
+            async Task<Ok<BuildResponse>> (HttpRequest request, IOptions<WebOptions> options, ChannelCatalog catalog, CancellationToken cancel) =>
             {
                 // Read the body ourselves, so an oversized upload stops at the limit with a clear message (one limit for both forms).
                 long limit = options.Value.MaxUploadBytes;
@@ -40,8 +42,9 @@ public static class BuildApi
                 return TypedResults.Ok(await Task.Run(() => Build(catalog, upload), cancel));
             })
             .WithName("BuildModel")
-            .WithSummary("Builds a model from an expression table: a JSON body (expression as text) or a multipart form (expression and optional metadata as file "
-                + "parts; groupBy, group or cell, orientation, unit, referenceGroup, exponent, clamp, capacitancePf, temperatureC and overrides (a JSON array) as fields).")
+            .WithSummary("Builds a model from an expression table: a JSON body (expression as text) or a multipart form "
+                + "(expression and optional metadata as file parts; groupBy, group or cell, orientation, unit, referenceGroup, exponent, clamp, "
+                + "capacitancePf, temperatureC and overrides (a JSON array) as fields).")
             // One Accepts call with both types: routing and the OpenAPI generator read only the last Accepts metadata, so a
             // second call would turn JSON requests away (415). The form's own schema replaces the JSON one for multipart.
             .Accepts<BuildRequest>("application/json", "multipart/form-data")
@@ -62,7 +65,8 @@ public static class BuildApi
     {
         var body = upload.Options;
         if ((body.Group is null) == (body.Cell is null)) throw new UserInputException("give exactly one of group (with metadata and groupBy) or cell.");
-        if (body.Group is not null && (upload.Metadata is null || body.GroupBy is null)) throw new UserInputException("group: needs metadata and groupBy (its column).");
+        if (body.Group is not null && (upload.Metadata is null || body.GroupBy is null))
+            throw new UserInputException("group: needs metadata and groupBy (its column).");
         var session = ExpressionSession.Read(catalog, upload.Expression, upload.ExpressionName, upload.Metadata, upload.MetadataName,
             new ReadChoices(body.Orientation, body.Unit, body.GroupBy));
         var report = session.Map(body.Overrides ?? []);
@@ -87,7 +91,8 @@ public static class BuildApi
             throw new UserInputException(JsonErrorMessage.For(e, "request body", "not valid JSON for a build request."));
         }
         if (body?.Expression is not { Length: > 0 } table) throw new UserInputException("expression: required (the table as CSV or TSV text).");
-        return new BuildUpload(body, Encoding.UTF8.GetBytes(table), body.ExpressionName, body.Metadata is null ? null : Encoding.UTF8.GetBytes(body.Metadata), body.MetadataName);
+        return new BuildUpload(body, Encoding.UTF8.GetBytes(table), body.ExpressionName, body.Metadata is null ? null : Encoding.UTF8.GetBytes(body.Metadata),
+            body.MetadataName);
     }
 
     /// <summary>Reads the form's fields into the same request as the JSON body; a bad field is a problem naming it.</summary>
@@ -114,7 +119,8 @@ public static class BuildApi
             TemperatureC = Number(form, "temperatureC") ?? defaults.TemperatureC,
             Overrides = Overrides(form),
         };
-        return new BuildUpload(options, expression.Bytes, expression.FileName ?? defaults.ExpressionName, metadata?.Bytes, metadata?.FileName ?? defaults.MetadataName);
+        return new BuildUpload(options, expression.Bytes, expression.FileName ?? defaults.ExpressionName, metadata?.Bytes,
+            metadata?.FileName ?? defaults.MetadataName);
     }
 
     /// <summary>A text field; an empty field counts as absent, as a browser form sends it.</summary>

@@ -13,21 +13,25 @@ public static class CatalogApi
         var api = app.MapGroup("/api/catalog").WithTags("Catalog");
 
         api.MapGet("/", (ChannelCatalog catalog, string? q, string? family, string? ion) =>
-                TypedResults.Ok(catalog.Latest.Where(e => CatalogViews.Matches(catalog, e, q, family, ion)).Select(e => CatalogViews.Summary(catalog, e)).ToArray()))
+                TypedResults.Ok(catalog.Latest.Where(e => CatalogViews.Matches(catalog, e, q, family, ion)).Select(e => CatalogViews.Summary(catalog, e))
+                    .ToArray()))
             .WithName("ListCatalogEntries")
             .WithSummary("Latest version of every catalog entry, optionally filtered by gene/name text (q), family or ion.");
 
         api.MapGet("/{id}", Results<Ok<CatalogEntryDetail>, ProblemHttpResult> (ChannelCatalog catalog, string id, int? version, double? temperatureC) =>
             {
-                if (!catalog.Contains(id)) return TypedResults.Problem($"There is no catalog entry '{id}'.", statusCode: StatusCodes.Status404NotFound, title: "Unknown catalog entry");
-                if (temperatureC is { } t && (t < -5 || t > 50)) return TypedResults.Problem($"temperatureC must lie between -5 and 50 (got {t}).", statusCode: 400, title: "Bad temperature");
+                if (!catalog.Contains(id)) return TypedResults.Problem($"There is no catalog entry '{id}'.", statusCode: StatusCodes.Status404NotFound,
+                    title: "Unknown catalog entry");
+                if (temperatureC is { } t && (t < -5 || t > 50))
+                    return TypedResults.Problem($"temperatureC must lie between -5 and 50 (got {t}).", statusCode: 400, title: "Bad temperature");
                 try
                 {
                     var e = catalog.Resolve(id, version);
                     double at = temperatureC ?? e.ReferenceTemperatureC;
                     var versions = catalog.AllVersions.Where(x => x.Id == id).Select(x => x.Version).Order().ToArray();
                     return TypedResults.Ok(new CatalogEntryDetail(CatalogViews.Summary(catalog, e), versions, e.Preparation, e.CuratorNote,
-                        CatalogViews.Word(e.Reversal), e.ReversalMv, e.MinDensityMsPerCm2, e.MaxDensityMsPerCm2, e.Source.Location, at, CatalogViews.Curves(e, at)));
+                        CatalogViews.Word(e.Reversal), e.ReversalMv, e.MinDensityMsPerCm2, e.MaxDensityMsPerCm2, e.Source.Location, at,
+                            CatalogViews.Curves(e, at)));
                 }
                 catch (CatalogException ex)
                 {
@@ -38,7 +42,8 @@ public static class CatalogApi
             .WithSummary("One entry (latest or ?version=N) with citation, genes and its gates' steady-state and time-constant curves at ?temperatureC.");
 
         api.MapGet("/presets", (ChannelCatalog catalog) =>
-                TypedResults.Ok(catalog.Presets.OrderBy(p => p.Key, StringComparer.Ordinal).Select(p => new { id = p.Key, name = p.Value.Name, citation = p.Value.Citation }).ToArray()))
+                TypedResults.Ok(catalog.Presets.OrderBy(p => p.Key, StringComparer.Ordinal)
+                    .Select(p => new { id = p.Key, name = p.Value.Name, citation = p.Value.Citation }).ToArray()))
             .WithName("ListPresets")
             .WithSummary("The complete published models shipped with the catalog.");
         return app;

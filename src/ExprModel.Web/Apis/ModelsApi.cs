@@ -14,14 +14,16 @@ public static class ModelsApi
     {
         var api = app.MapGroup("/api/models").WithTags("Shared models");
 
-        api.MapPost("/", async Task<Created<SavedModelResponse>> (SaveModelRequest request, SnapshotService snapshots, HttpContext http, CancellationToken cancel) =>
+        api.MapPost("/",
+            async Task<Created<SavedModelResponse>> (SaveModelRequest request, SnapshotService snapshots, HttpContext http, CancellationToken cancel) =>
             {
                 var model = request.ReadModel();
                 byte[]? expression = request.Expression is null ? null : Encoding.UTF8.GetBytes(request.Expression);
                 var (snap, readouts) = await snapshots.SaveAsync(model, request.Protocol ?? new SnapshotProtocol(), request.Notes ?? "",
                     request.ParentId, expression, request.ExpressionName, cancel);
                 var link = $"{http.Request.Scheme}://{http.Request.Host}/m/{snap.Id}";
-                return TypedResults.Created($"/api/models/{snap.Id}", new SavedModelResponse(snap.Id, link, snap.CatalogVersions, readouts.Rows, ResearchCaution.Text));
+                return TypedResults.Created($"/api/models/{snap.Id}",
+                    new SavedModelResponse(snap.Id, link, snap.CatalogVersions, readouts.Rows, ResearchCaution.Text));
             })
             .WithName("SaveModel")
             .WithSummary("Stores an immutable snapshot (pinned model, protocol, read-outs, notes, optional expression table); returns its id and link.")
@@ -30,7 +32,8 @@ public static class ModelsApi
         api.MapGet("/{id}", Results<Ok<SnapshotResponse>, ProblemHttpResult> (string id, SnapshotService snapshots) =>
             {
                 var snap = snapshots.Store.Find(id);
-                if (snap is null) return TypedResults.Problem($"There is no shared model '{id}'.", statusCode: StatusCodes.Status404NotFound, title: "Unknown shared model");
+                if (snap is null)
+                    return TypedResults.Problem($"There is no shared model '{id}'.", statusCode: StatusCodes.Status404NotFound, title: "Unknown shared model");
                 var protocol = JsonSerializer.Deserialize<SnapshotProtocol>(snap.ProtocolJson, SnapshotService.Json) ?? new SnapshotProtocol();
                 var readouts = JsonSerializer.Deserialize<List<ReadoutRow>>(snap.ReadoutsJson, SnapshotService.Json) ?? [];
                 using var doc = JsonDocument.Parse(snap.ModelJson);

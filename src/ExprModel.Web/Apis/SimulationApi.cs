@@ -14,7 +14,8 @@ public static class SimulationApi
         api.MapPost("/simulate", async Task<Ok<SimulateResponse>> (SimulateRequest request, ModelRunner runner, CancellationToken cancel) =>
             {
                 var view = await runner.StepAsync(request.ReadModel(), request.Step ?? new StepProtocol(), cancel);
-                return TypedResults.Ok(new SimulateResponse(view.FullTimeMs, view.FullVoltageMv, view.FullStimulusUaPerCm2, view.SpikeTimesMs, ResearchCaution.Text));
+                return TypedResults.Ok(new SimulateResponse(view.FullTimeMs, view.FullVoltageMv, view.FullStimulusUaPerCm2, view.SpikeTimesMs,
+                    ResearchCaution.Text));
             })
             .WithName("Simulate")
             .WithSummary("Runs one current-clamp step (amplitude in uA/cm2) and returns the voltage trace at every 25 us integration step and the spike times.")

@@ -4,10 +4,8 @@ using ExprModel.Web.Workspace;
 
 namespace ExprModel.Web.Export;
 
-/// <summary>A file the browser downloads.</summary>
-public sealed record DownloadFile(string Name, string Mime, string Text);
-
-/// <summary>The Workbench's exports (each carries the research-use caution): model JSON, trace, f-I and read-out CSV; null when there is nothing to export yet.</summary>
+/// <summary>The Workbench's exports (each carries the research-use caution): model JSON, trace, f-I and read-out CSV; null when there is nothing to export
+/// yet.</summary>
 public static class WorkbenchFiles
 {
     /// <summary>The model's name as a file name stem: letters and digits, other characters as dashes, lower case.</summary>

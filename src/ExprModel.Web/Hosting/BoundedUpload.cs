@@ -4,7 +4,8 @@ namespace ExprModel.Web.Hosting;
 public static class BoundedUpload
 {
     public static string LimitMessage(long limitBytes, string what) =>
-        $"{what} is larger than this server's upload limit of {limitBytes / (1024.0 * 1024.0):0.##} MB. Split the table, keep only the needed genes, or raise ExprModel:MaxUploadMegabytes.";
+        $"{what} is larger than this server's upload limit of {limitBytes / (1024.0 * 1024.0):0.##} MB. Split the table, keep only the needed genes, " +
+            "or raise ExprModel:MaxUploadMegabytes.";
 
     public static async Task<byte[]> ReadAsync(Stream body, long? declaredLength, long limitBytes, string what, CancellationToken cancel)
     {

@@ -39,13 +39,15 @@ public sealed class MultipartForm
         {
             while (await reader.ReadNextSectionAsync(cancel) is { } section)
             {
-                if (!ContentDispositionHeaderValue.TryParse(section.ContentDisposition, out var disposition) || !disposition.DispositionType.Equals("form-data", StringComparison.OrdinalIgnoreCase))
+                if (!ContentDispositionHeaderValue.TryParse(section.ContentDisposition, out var disposition)
+                    || !disposition.DispositionType.Equals("form-data", StringComparison.OrdinalIgnoreCase))
                     throw new UserInputException($"multipart body: part {parts.Count + 1} has no 'Content-Disposition: form-data; name=...' header.");
                 var name = HeaderUtilities.RemoveQuotes(disposition.Name).Value ?? "";
                 if (name.Length == 0) throw new UserInputException($"multipart body: part {parts.Count + 1} has an empty name.");
                 var bytes = await BoundedUpload.ReadAsync(section.Body, null, remaining, what, cancel);
                 remaining -= bytes.Length;
-                var fileName = disposition.IsFileDisposition() ? HeaderUtilities.RemoveQuotes(disposition.FileNameStar.HasValue ? disposition.FileNameStar : disposition.FileName).Value : null;
+                var fileName = disposition.IsFileDisposition()
+                    ? HeaderUtilities.RemoveQuotes(disposition.FileNameStar.HasValue ? disposition.FileNameStar : disposition.FileName).Value : null;
                 if (!parts.TryAdd(name, new FormPart(name, fileName, bytes))) throw new UserInputException($"{name}: given twice; send each form field once.");
             }
         }

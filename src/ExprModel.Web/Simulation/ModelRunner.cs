@@ -6,9 +6,6 @@ using ExprModel.Data.Catalog;
 
 namespace ExprModel.Web.Simulation;
 
-/// <summary>A model or protocol the user must fix, with the field at fault (shown as a 400 ProblemDetails or a page message).</summary>
-public sealed class UserInputException(string message) : Exception(message);
-
 /// <summary>
 /// What the pages and the HTTP API run: a model document and a protocol in, plot-ready views out. All science is the
 /// library's (<see cref="Simulator"/>, the read-out and f-I facades); this class only compiles, bounds and shapes.
@@ -144,7 +141,8 @@ public sealed class ModelRunner(ChannelCatalog catalog, SimulationGate gate)
         for (int from = 0; from < targets.Count; from += CellBatchChunk)
         {
             int start = from, to = Math.Min(targets.Count, from + CellBatchChunk);
-            var rows = await gate.RunAsync(token => BatchReadouts.Run(data.Table, report, data.Catalog, rule, targets, data.Groups, start, to, null, token, shrinkage), cancel);
+            var rows = await gate.RunAsync(
+                token => BatchReadouts.Run(data.Table, report, data.Catalog, rule, targets, data.Groups, start, to, null, token, shrinkage), cancel);
             chunkDone(rows);
             done += rows.Count;
             progress(done);

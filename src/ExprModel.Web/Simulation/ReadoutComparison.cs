@@ -5,7 +5,8 @@ namespace ExprModel.Web.Simulation;
 /// <summary>The library's read-out table comparison (<see cref="ReadoutTables"/>) on the web's rows.</summary>
 public static class ReadoutComparison
 {
-    /// <summary>The rows of <paramref name="after"/> whose value differs from the row of the same name in <paramref name="before"/>, in <paramref name="after"/>'s order.</summary>
+    /// <summary>The rows of <paramref name="after"/> whose value differs from the row of the same name in <paramref name="before"/>, in
+    /// <paramref name="after"/>'s order.</summary>
     public static IReadOnlyList<ReadoutChange> Changes(IReadOnlyList<ReadoutRow> before, IReadOnlyList<ReadoutRow> after) =>
         ReadoutTables.Changes(Rows(before), Rows(after));
 

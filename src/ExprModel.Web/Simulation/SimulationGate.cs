@@ -3,9 +3,6 @@ using Microsoft.Extensions.Options;
 
 namespace ExprModel.Web.Simulation;
 
-/// <summary>A simulation request that ran past the per-request time cap and was cancelled.</summary>
-public sealed class SimulationTimeoutException(string message) : Exception(message);
-
 /// <summary>
 /// Bounds the server's simulation work: at most <see cref="WebOptions.MaxConcurrentSimulations"/> run at once (the
 /// rest wait), and each is cancelled when it passes <see cref="WebOptions.SimulationTimeoutSeconds"/> or when its
@@ -53,5 +50,6 @@ public sealed class SimulationGate
     }
 
     private SimulationTimeoutException TimedOut(string stage) =>
-        new($"The request was stopped after {_timeout.TotalSeconds:0.#} s while {stage} (the server's per-request limit). Shorten the protocol or use fewer f-I steps.");
+        new($"The request was stopped after {_timeout.TotalSeconds:0.#} s while {stage} (the server's per-request limit). " +
+            "Shorten the protocol or use fewer f-I steps.");
 }

@@ -65,7 +65,8 @@ public class ExpressionCommandsTests
     public void ShardedBatchMergesToTheUnshardedTable()
     {
         string tmp = Path.GetTempPath(), id = Guid.NewGuid().ToString("N");
-        string all = Path.Combine(tmp, $"all-{id}.csv"), s1 = Path.Combine(tmp, $"s1-{id}.csv"), s2 = Path.Combine(tmp, $"s2-{id}.csv"), merged = Path.Combine(tmp, $"m-{id}.csv");
+        string all = Path.Combine(tmp, $"all-{id}.csv"), s1 = Path.Combine(tmp, $"s1-{id}.csv"), s2 = Path.Combine(tmp, $"s2-{id}.csv");
+        string merged = Path.Combine(tmp, $"m-{id}.csv");
         var a = CliRunner.Run(["batch", .. Inputs, "--out", all]);
         Assert.True(a.Exit == 0, a.Err);
         Assert.Contains("progress:", a.Err);

@@ -8,7 +8,8 @@ public class ModelCommandsTests
     [Fact]
     public void FiWritesHeaderAmplitudeFirstAndSpikesInStep()
     {
-        var (exit, stdout, err) = CliRunner.Run("fi", "--preset", "hh1952", "--from", "0", "--to", "19.375", "--steps", "32", "--duration", "1000", "--format", "csv");
+        var (exit, stdout, err) =
+            CliRunner.Run("fi", "--preset", "hh1952", "--from", "0", "--to", "19.375", "--steps", "32", "--duration", "1000", "--format", "csv");
         Assert.True(exit == 0, err);
         var lines = stdout.Split('\n', StringSplitOptions.RemoveEmptyEntries).Where(l => !l.StartsWith('#')).ToArray();
         var header = lines[0].Split(',');
@@ -42,7 +43,8 @@ public class ModelCommandsTests
         Assert.True(exit == 0, err);
         using var doc = JsonDocument.Parse(stdout);
         var r = doc.RootElement.GetProperty("readouts");
-        foreach (var name in new[] { "resting_potential", "input_resistance", "membrane_time_constant", "sag_ratio", "rheobase", "spike_threshold", "spike_peak",
+        foreach (var name in new[]
+            { "resting_potential", "input_resistance", "membrane_time_constant", "sag_ratio", "rheobase", "spike_threshold", "spike_peak",
             "spike_amplitude", "spike_half_width", "after_hyperpolarisation", "first_spike_latency", "fi_gain", "excitability_class", "adaptation_ratio",
             "adaptation_index", "depolarisation_block_onset" })
             Assert.True(r.TryGetProperty(name, out _), name);
@@ -54,10 +56,12 @@ public class ModelCommandsTests
     [Fact]
     public void SimulateWritesTraceWithChannelCurrents()
     {
-        var (exit, stdout, err) = CliRunner.Run("simulate", "--preset", "hh1952", "--amplitude", "10", "--duration", "50", "--delay", "10", "--total", "60", "--currents");
+        var (exit, stdout, err) =
+            CliRunner.Run("simulate", "--preset", "hh1952", "--amplitude", "10", "--duration", "50", "--delay", "10", "--total", "60", "--currents");
         Assert.True(exit == 0, err);
         var lines = stdout.Split('\n', StringSplitOptions.RemoveEmptyEntries).Where(l => !l.StartsWith('#')).ToArray();
-        Assert.Equal("time_ms,voltage_mv,stimulus_ua_per_cm2,current_squid-na-hh1952_ua_per_cm2,current_squid-k-hh1952_ua_per_cm2,current_squid-leak-hh1952_ua_per_cm2", lines[0]);
+        Assert.Equal("time_ms,voltage_mv,stimulus_ua_per_cm2,"
+            + "current_squid-na-hh1952_ua_per_cm2,current_squid-k-hh1952_ua_per_cm2,current_squid-leak-hh1952_ua_per_cm2", lines[0]);
         var peak = lines.Skip(1).Max(l => double.Parse(l.Split(',')[1], CultureInfo.InvariantCulture));
         Assert.True(peak > 20, $"peak {peak}");
     }
@@ -92,7 +96,8 @@ public class ModelCommandsTests
     public void BadModelFileNamesLineAndField()
     {
         var path = Path.Combine(Path.GetTempPath(), $"bad-model-{Guid.NewGuid():N}.json");
-        File.WriteAllText(path, "{\n  \"format\": \"exprmodel-model\",\n  \"schemaVersion\": 1,\n  \"cell\": { \"areaUm2\": 1000 },\n  \"channels\": [ { \"entry\": \"leak\", \"densityMsPerCm2\": \"lots\" } ]\n}\n");
+        File.WriteAllText(path, "{\n  \"format\": \"exprmodel-model\",\n  \"schemaVersion\": 1,\n  \"cell\": { \"areaUm2\": 1000 },\n  \"channels\": " +
+            "[ { \"entry\": \"leak\", \"densityMsPerCm2\": \"lots\" } ]\n}\n");
         var (exit, _, err) = CliRunner.Run("features", path);
         Assert.NotEqual(0, exit);
         Assert.Contains(Path.GetFileName(path), err);

@@ -27,7 +27,8 @@ public sealed class OnsetSearchTests
             foreach (double factor in new[] { 0.2, 0.8, 0.97, 1.0, 1.02, 1.3, 4.0 })
             {
                 var seeded = OnsetSearch.FindOnset(Holds, 0.1, 200, 0.005, 0.02, hint: threshold * factor);
-                Assert.Equal((cold.BelowUaPerCm2, cold.AtOrAboveUaPerCm2, cold.ToleranceUaPerCm2), (seeded!.BelowUaPerCm2, seeded.AtOrAboveUaPerCm2, seeded.ToleranceUaPerCm2));
+                Assert.Equal((cold.BelowUaPerCm2, cold.AtOrAboveUaPerCm2, cold.ToleranceUaPerCm2),
+                    (seeded!.BelowUaPerCm2, seeded.AtOrAboveUaPerCm2, seeded.ToleranceUaPerCm2));
                 Assert.Null(seeded.NotMonotone);
             }
         }

@@ -9,7 +9,8 @@ namespace ExprModel.Core.Tests.Analysis;
 /// <summary>The hint rule followed over measured models: published ones and demo cell FH2046, whose spiking has a gap.</summary>
 public class RheobaseHintTrailTests
 {
-    private static CellReadouts First(ExprModel.Core.Models.ModelDocument doc) => Features.MeasureFirst(new CompiledCell(doc.ToCellModel(TestCatalog.Catalog.Resolve)), ReadoutSettings.Live);
+    private static CellReadouts First(ExprModel.Core.Models.ModelDocument doc) =>
+        Features.MeasureFirst(new CompiledCell(doc.ToCellModel(TestCatalog.Catalog.Resolve)), ReadoutSettings.Live);
 
     [Fact]
     public void Keeps_the_newest_hint_through_a_silent_model_and_drops_it_after_a_gap_in_spiking()

@@ -29,7 +29,8 @@ public sealed class SpikeAtRheobaseTests
         var r = Features.MeasureFirst(cell, s);
         double rb = r.RheobaseUaPerCm2!.Value;
         double onset = Protocols.BaselineMs;
-        var run = Simulator.Run(cell, Protocols.Step(rb, onset, s.StepDurationMs), onset + s.StepDurationMs, s.Simulation with { RecordEvery = 1 }, r.RestState);
+        var run =
+            Simulator.Run(cell, Protocols.Step(rb, onset, s.StepDurationMs), onset + s.StepDurationMs, s.Simulation with { RecordEvery = 1 }, r.RestState);
         var (shape, latency) = SpikeAtRheobase.FirstSpike(run.VoltageMv, s.Simulation.DtMs, run.TimeMs[0], run.SpikeTimesMs, onset, s.ThresholdSlopeMvPerMs);
         Assert.Equal(r.FirstSpikeLatencyMs!.Value, latency!.Value, 1e-6);
         Assert.Equal(r.ThresholdMv!.Value, shape!.ThresholdMv, 1e-6);

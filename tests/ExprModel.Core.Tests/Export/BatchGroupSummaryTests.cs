@@ -15,7 +15,8 @@ public class BatchGroupSummaryTests
         var dir = CatalogLocator.FindSourceDirectory()!;
         var data = ExpressionDataset.Read(TestCatalog.Catalog.ForMapping(), Path.Combine(dir, "demo", "counts.csv"), new ExpressionReadOptions(),
             Path.Combine(dir, "demo", "metadata.csv"), "group");
-        var groupByCell = data.Groups!.Members.SelectMany(m => m.Value.Select(i => (Cell: data.Table.CellIds[i], Group: m.Key))).ToDictionary(x => x.Cell, x => x.Group);
+        var groupByCell =
+            data.Groups!.Members.SelectMany(m => m.Value.Select(i => (Cell: data.Table.CellIds[i], Group: m.Key))).ToDictionary(x => x.Cell, x => x.Group);
         // Every tenth cell: each group gets a few.
         var targets = data.CellTargets.Where((_, i) => i % 10 == 0).ToArray();
         var rows = BatchReadouts.Run(data.Table, data.Map(), data.Catalog, new DensityRule(), targets, data.Groups, 0, targets.Length);

@@ -23,7 +23,8 @@ public sealed class BadInputCorpusTests(ITestOutputHelper output) : IDisposable
     /// <summary>How to read a case: as an expression table, as cell metadata, or as h5ad through the AnnData reader.</summary>
     public enum Reader { Expression, Metadata, AnnData }
 
-    /// <summary>Case name (file or directory under bad/, or a generated name), reader, file named in the message, expected place, expected problem words.</summary>
+    /// <summary>Case name (file or directory under bad/, or a generated name), reader, file named in the message, expected place, expected problem
+    /// words.</summary>
     public static TheoryData<string, Reader, string, string, string> Committed => new()
     {
         { "empty.csv", Reader.Expression, "empty.csv", "line 1", "empty" },
@@ -110,24 +111,35 @@ public sealed class BadInputCorpusTests(ITestOutputHelper output) : IDisposable
         // 1,000 gzip members of 1 MB of '0' each: about 1 MB on disk, 1 GB inflated, with no line break at all. The
         // record-length limit stops it after 32 M characters.
         ["gzip_bomb.csv.gz"] = ((f, n) => f.Bytes(n, Bomb(1000)), Reader.Expression, "line 2", "record longer than"),
-        ["truncated.csv.gz"] = ((f, n) => f.Bytes(n, Truncate(TempFiles.Gzip(Encoding.UTF8.GetBytes(SmallTable(2000))), keep: 0.5)), Reader.Expression, "decompressed data", "truncated"),
+        ["truncated.csv.gz"] = ((f, n) => f.Bytes(n, Truncate(TempFiles.Gzip(Encoding.UTF8.GetBytes(SmallTable(2000))), keep: 0.5)), Reader.Expression,
+            "decompressed data", "truncated"),
         // Cut exactly after a line: without the trailer check this reads as a valid, shorter table.
         ["truncated_at_line_end.csv.gz"] = ((f, n) => f.Bytes(n, TruncateAtLineEnd(SmallTable(2000))), Reader.Expression, "decompressed data", "truncated"),
-        ["corrupt_gzip.csv.gz"] = ((f, n) => f.Bytes(n, CorruptMiddle(TempFiles.Gzip(Encoding.UTF8.GetBytes(SmallTable(2000))))), Reader.Expression, "decompressed data", "corrupt"),
-        ["million_columns.csv"] = ((f, n) => f.Text(n, "gene," + string.Join(",", Enumerable.Range(0, 1_000_000).Select(i => $"c{i}")) + "\nScn1a,1\n"), Reader.Expression, "line 1, column 500001", "more than 500,000 columns"),
+        ["corrupt_gzip.csv.gz"] =
+            ((f, n) => f.Bytes(n, CorruptMiddle(TempFiles.Gzip(Encoding.UTF8.GetBytes(SmallTable(2000))))), Reader.Expression, "decompressed data", "corrupt"),
+        ["million_columns.csv"] = ((f, n) => f.Text(n, "gene," + string.Join(",", Enumerable.Range(0, 1_000_000).Select(i => $"c{i}")) + "\nScn1a,1\n"),
+            Reader.Expression, "line 1, column 500001", "more than 500,000 columns"),
         ["endless_line.csv"] = ((f, n) => f.Text(n, "gene,c1\nScn1a," + new string('7', 40 << 20) + "\n"), Reader.Expression, "line 2", "record longer than"),
         ["no_x.h5ad"] = ((f, n) => H5ad(f, n, x: null), Reader.AnnData, "dataset /X", "missing"),
         ["x_wrong_shape.h5ad"] = ((f, n) => H5ad(f, n, x: new float[3, 3]), Reader.AnnData, "dataset /X", "shape"),
-        ["x_negative.h5ad"] = ((f, n) => H5ad(f, n, x: new float[,] { { 1, 2, 3, 4 }, { 0, 0, -1, 0 }, { 1, 1, 1, 1 } }), Reader.AnnData, "dataset /X: row 1, column 2", "negative"),
-        ["x_nan.h5ad"] = ((f, n) => H5ad(f, n, x: new double[,] { { 1, 2, 3, 4 }, { 0, 0, 1, 0 }, { 1, double.NaN, 1, 1 } }), Reader.AnnData, "dataset /X: row 2, column 1", "NaN"),
-        ["csr_index_out_of_range.h5ad"] = ((f, n) => H5ad(f, n, x: Csr(indices: [0, 2, 9, 0, 1, 3, 2, 3])), Reader.AnnData, "dataset /X/indices: element 2", "outside 0..3"),
+        ["x_negative.h5ad"] = ((f, n) => H5ad(f, n, x: new float[,] { { 1, 2, 3, 4 }, { 0, 0, -1, 0 }, { 1, 1, 1, 1 } }), Reader.AnnData,
+            "dataset /X: row 1, column 2", "negative"),
+        ["x_nan.h5ad"] = ((f, n) => H5ad(f, n, x: new double[,] { { 1, 2, 3, 4 }, { 0, 0, 1, 0 }, { 1, double.NaN, 1, 1 } }), Reader.AnnData,
+            "dataset /X: row 2, column 1", "NaN"),
+        ["csr_index_out_of_range.h5ad"] =
+            ((f, n) => H5ad(f, n, x: Csr(indices: [0, 2, 9, 0, 1, 3, 2, 3])), Reader.AnnData, "dataset /X/indices: element 2", "outside 0..3"),
         ["csr_indptr_decreasing.h5ad"] = ((f, n) => H5ad(f, n, x: Csr(indptr: [0, 6, 3, 8])), Reader.AnnData, "dataset /X/indptr", "decreases"),
         ["csr_data_too_short.h5ad"] = ((f, n) => H5ad(f, n, x: Csr(data: [5, 2, 10])), Reader.AnnData, "dataset /X/data", "shape"),
         ["csr_missing_indices.h5ad"] = ((f, n) => H5ad(f, n, x: Csr(dropIndices: true)), Reader.AnnData, "dataset /X/indices", "missing"),
-        ["x_unknown_encoding.h5ad"] = ((f, n) => H5ad(f, n, x: new H5Group { ["data"] = new float[] { 1 }, Attributes = new() { ["encoding-type"] = "coo_matrix" } }), Reader.AnnData, "dataset /X", "coo_matrix"),
+        ["x_unknown_encoding.h5ad"] = ((f, n) => H5ad(f, n, x: new H5Group
+        {
+            ["data"] = new float[] { 1 },
+            Attributes = new() { ["encoding-type"] = "coo_matrix" }
+        }), Reader.AnnData, "dataset /X", "coo_matrix"),
         ["old_layout_obs.h5ad"] = ((f, n) => OldLayout(f, n), Reader.AnnData, "dataset /obs", "older AnnData layout"),
         ["no_var.h5ad"] = ((f, n) => H5ad(f, n, x: AnnDataReaderTests.Dense, withVar: false), Reader.AnnData, "dataset /var", "missing"),
-        ["duplicate_obs.h5ad"] = ((f, n) => H5ad(f, n, x: AnnDataReaderTests.Dense, cells: ["c1", "c2", "c1"]), Reader.AnnData, "dataset /obs index, row 2", "duplicated"),
+        ["duplicate_obs.h5ad"] =
+            ((f, n) => H5ad(f, n, x: AnnDataReaderTests.Dense, cells: ["c1", "c2", "c1"]), Reader.AnnData, "dataset /obs index, row 2", "duplicated"),
         ["not_hdf5.h5ad"] = ((f, n) => f.Text(n, "gene,c1\nScn1a,1\n"), Reader.AnnData, "byte 0", "not an HDF5 file"),
         ["truncated_hdf5.h5ad"] = ((f, n) => TruncateFile(H5ad(f, n, x: AnnDataReaderTests.Dense), keep: 0.4), Reader.AnnData, "dataset /", ""),
     };
@@ -210,7 +222,12 @@ public sealed class BadInputCorpusTests(ITestOutputHelper output) : IDisposable
     private static string OldLayout(TempFiles f, string name)
     {
         var path = Path.Combine(f.Dir, name);
-        new H5File { ["obs"] = new int[] { 1, 2, 3 }, ["var"] = AnnDataReaderTests.Frame(AnnDataReaderTests.Genes), ["X"] = AnnDataReaderTests.Dense }.Write(path);
+        new H5File
+        {
+            ["obs"] = new int[] { 1, 2, 3 },
+            ["var"] = AnnDataReaderTests.Frame(AnnDataReaderTests.Genes),
+            ["X"] = AnnDataReaderTests.Dense
+        }.Write(path);
         return path;
     }
 

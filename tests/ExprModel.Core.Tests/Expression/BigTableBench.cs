@@ -64,8 +64,9 @@ public sealed class BigTableBench(ITestOutputHelper output)
         sw.Stop();
         process.Refresh();
         string report = string.Create(CultureInfo.InvariantCulture,
-            $"{layout}{(gzip ? " gzip" : "")}: {new FileInfo(path).Length / 1e6:F0} MB on disk, {table.TotalGeneCount} genes x {table.CellIds.Count} cells, kept {table.Genes.Count}: " +
-            $"read in {sw.Elapsed.TotalSeconds:F1} s; peak working set {process.PeakWorkingSet64 / 1e6:F0} MB (working set before reading {baseline / 1e6:F0} MB); " +
+            $"{layout}{(gzip ? " gzip" : "")}: {new FileInfo(path).Length / 1e6:F0} MB on disk, {table.TotalGeneCount} genes x {table.CellIds.Count} cells, " +
+            $"kept {table.Genes.Count}: read in {sw.Elapsed.TotalSeconds:F1} s; " +
+            $"peak working set {process.PeakWorkingSet64 / 1e6:F0} MB (working set before reading {baseline / 1e6:F0} MB); " +
             $"allocated {GC.GetTotalAllocatedBytes() / 1e9:F1} GB in total");
         output.WriteLine(report);
         Console.WriteLine(report);

@@ -52,7 +52,13 @@ public class CalciumGateTests
     [Fact]
     public void Voltage_gates_ignore_the_calcium_argument()
     {
-        var g = new GateSpec { Name = "n", Kind = GateKind.SteadyStateAndTau, SteadyState = GateRate.Boltzmann(-39, 5), TimeConstantMs = GateRate.Constant(75) };
+        var g = new GateSpec
+        {
+            Name = "n",
+            Kind = GateKind.SteadyStateAndTau,
+            SteadyState = GateRate.Boltzmann(-39, 5),
+            TimeConstantMs = GateRate.Constant(75)
+        };
         Assert.Equal(g.TimeConstantAt(-20), g.TimeConstantAt(-20, 1e-2));
         Assert.False(g.DependsOnCalcium);
     }

@@ -28,8 +28,19 @@ public class GateRateTests
     {
         var e = new ChannelEntry
         {
-            Id = "x", Version = 1, Name = "x", Family = "leak", Ion = Ion.Nonspecific, Reversal = ReversalRule.Fixed, ReversalMv = 0,
-            Gates = [], ReferenceTemperatureC = 6.3, Q10 = 3, TypicalDensityMsPerCm2 = 1, MinDensityMsPerCm2 = 0, MaxDensityMsPerCm2 = 2,
+            Id = "x",
+            Version = 1,
+            Name = "x",
+            Family = "leak",
+            Ion = Ion.Nonspecific,
+            Reversal = ReversalRule.Fixed,
+            ReversalMv = 0,
+            Gates = [],
+            ReferenceTemperatureC = 6.3,
+            Q10 = 3,
+            TypicalDensityMsPerCm2 = 1,
+            MinDensityMsPerCm2 = 0,
+            MaxDensityMsPerCm2 = 2,
             Source = new Citation { Authors = "a", Year = 2000, Journal = "j" },
         };
         Assert.Equal(3.0, e.TemperatureFactor(16.3), 12);

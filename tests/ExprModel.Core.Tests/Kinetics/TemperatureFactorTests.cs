@@ -6,8 +6,17 @@ public class TemperatureFactorTests
 {
     private static ChannelEntry Entry(double q10, double referenceC) => new()
     {
-        Id = "test", Version = 1, Name = "test", Family = "leak", Ion = Ion.Potassium, Gates = [],
-        ReferenceTemperatureC = referenceC, Q10 = q10, TypicalDensityMsPerCm2 = 1, MinDensityMsPerCm2 = 0, MaxDensityMsPerCm2 = 2,
+        Id = "test",
+        Version = 1,
+        Name = "test",
+        Family = "leak",
+        Ion = Ion.Potassium,
+        Gates = [],
+        ReferenceTemperatureC = referenceC,
+        Q10 = q10,
+        TypicalDensityMsPerCm2 = 1,
+        MinDensityMsPerCm2 = 0,
+        MaxDensityMsPerCm2 = 2,
         Source = new Citation { Authors = "none", Year = 2000, Journal = "none" },
     };
 

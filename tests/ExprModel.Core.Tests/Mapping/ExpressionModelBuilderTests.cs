@@ -54,7 +54,8 @@ public class ExpressionModelBuilderTests
         var report = ExpressionMapping.Map(Table(), cat);
         Assert.Contains(report.Genes, g => g.Symbol == "Scn1a" && g.How.StartsWith("Ensembl id"));
         Assert.Contains(report.Unmapped, u => u.Symbol == "Scn1b" && u.Status == "auxiliary");
-        var groups = new CellGroups(["c1", "c2", "c3", "c4"], new Dictionary<string, string> { ["c1"] = "A", ["c2"] = "A", ["c3"] = "B", ["c4"] = "B" }, "type");
+        var groups =
+            new CellGroups(["c1", "c2", "c3", "c4"], new Dictionary<string, string> { ["c1"] = "A", ["c2"] = "A", ["c3"] = "B", ["c4"] = "B" }, "type");
         var built = ExpressionModelBuilder.Build(Table(), report, cat, new DensityRule(), ModelTarget.ForGroup("B"), groups);
         var na = built.Densities.Single(d => d.EntryId == "traub-na");
         // Na per cell = 100, 100, 100, 150; median 100; group B mean 125 -> ratio 1.25 x typical.
@@ -73,7 +74,8 @@ public class ExpressionModelBuilderTests
     public void ExponentReferenceGroupClampAndOverrides()
     {
         var cat = Catalog();
-        var groups = new CellGroups(["c1", "c2", "c3", "c4"], new Dictionary<string, string> { ["c1"] = "A", ["c2"] = "A", ["c3"] = "B", ["c4"] = "B" }, "type");
+        var groups =
+            new CellGroups(["c1", "c2", "c3", "c4"], new Dictionary<string, string> { ["c1"] = "A", ["c2"] = "A", ["c3"] = "B", ["c4"] = "B" }, "type");
         var report = ExpressionMapping.Map(Table(), cat, [new GeneOverride("Scn8a", Exclude: true), new GeneOverride("Kcnb1", Weight: 2)]);
         var rule = new DensityRule { Reference = DensityReference.ReferenceGroup, ReferenceGroup = "A", Exponent = 0.5 };
         var built = ExpressionModelBuilder.Build(Table(), report, cat, rule, ModelTarget.ForGroup("B"), groups);

@@ -36,7 +36,8 @@ public class ResumePointTests
         // Sample by sample, the voltage after the resume point is the whole run's.
         int offset = resume.Step;
         for (int i = 0; i < resumed.VoltageMv.Length; i++)
-            Assert.True(Math.Abs(whole.VoltageMv[offset + i] - resumed.VoltageMv[i]) < 1e-6, $"sample {i}: whole {whole.VoltageMv[offset + i]}, resumed {resumed.VoltageMv[i]}");
+            Assert.True(Math.Abs(whole.VoltageMv[offset + i] - resumed.VoltageMv[i]) < 1e-6,
+                $"sample {i}: whole {whole.VoltageMv[offset + i]}, resumed {resumed.VoltageMv[i]}");
     }
 
     [SimdFact]

@@ -23,7 +23,8 @@ public static class SimdAgreement
         }
         for (int i = 0; i < amplitudes.Count; i++)
         {
-            Assert.True(scalar[i].SpikesInStep == simd[i].SpikesInStep, $"{label} at {amplitudes[i]:G3} uA/cm2: scalar {scalar[i].SpikesInStep} spikes, SIMD {simd[i].SpikesInStep}");
+            Assert.True(scalar[i].SpikesInStep == simd[i].SpikesInStep,
+                $"{label} at {amplitudes[i]:G3} uA/cm2: scalar {scalar[i].SpikesInStep} spikes, SIMD {simd[i].SpikesInStep}");
             for (int k = 0; k < scalar[i].SpikeTimesMs.Count; k++)
                 Assert.Equal(scalar[i].SpikeTimesMs[k], simd[i].SpikeTimesMs[k], 1e-6);
         }

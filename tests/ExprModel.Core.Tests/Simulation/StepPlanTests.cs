@@ -17,7 +17,8 @@ public sealed class StepPlanTests
     private static CompiledCell Cell()
     {
         var src = new Citation { Authors = "test", Year = 2026, Journal = "none" };
-        var gates = HillCoefficients.Select((n, i) => new GateSpec { Name = $"q{i}", Power = 1 + i % 3, Kind = GateKind.Calcium, Calcium = new CalciumSensitivity(3e-4 * (1 + i), n, 5) }).ToArray();
+        var gates = HillCoefficients.Select((n, i) =>
+            new GateSpec { Name = $"q{i}", Power = 1 + i % 3, Kind = GateKind.Calcium, Calcium = new CalciumSensitivity(3e-4 * (1 + i), n, 5) }).ToArray();
         var hill = new ChannelEntry
         {
             Id = "test-hill",
@@ -97,7 +98,8 @@ public sealed class StepPlanTests
             }
         }
         var rng = new Random(6);
-        var x = Enumerable.Range(0, cell.GateCount).Select(_ => Vector256.Create(rng.NextDouble(), rng.NextDouble(), rng.NextDouble(), rng.NextDouble())).ToArray();
+        var x = Enumerable.Range(0, cell.GateCount).Select(_ => Vector256.Create(rng.NextDouble(), rng.NextDouble(), rng.NextDouble(), rng.NextDouble()))
+            .ToArray();
         for (int c = 0; c < cell.ChannelCount; c++)
         {
             var lanes = plan.Conductance<VectorLanes, Vector256<double>>(c, Vector256.Create(cell.Gbar[c]), x);

@@ -29,21 +29,44 @@ public class SweepKernelTests
         var src = new Citation { Authors = "test", Year = 2026, Journal = "none" };
         var calcium = new ChannelEntry
         {
-            Id = "test-cav", Version = 1, Name = "test calcium", Family = "Cav-HVA", Ion = Ion.Calcium, Reversal = rule,
-            Gates = [new GateSpec { Name = "m", Power = 2, Kind = GateKind.SteadyStateAndTau, SteadyState = GateRate.Boltzmann(-20, 6), TimeConstantMs = GateRate.Constant(1) }],
-            ReferenceTemperatureC = 6.3, Q10 = 3, TypicalDensityMsPerCm2 = 1, MinDensityMsPerCm2 = 0, MaxDensityMsPerCm2 = 10, Source = src,
+            Id = "test-cav",
+            Version = 1,
+            Name = "test calcium",
+            Family = "Cav-HVA",
+            Ion = Ion.Calcium,
+            Reversal = rule,
+            Gates = [new GateSpec { Name = "m", Power = 2, Kind = GateKind.SteadyStateAndTau, SteadyState = GateRate.Boltzmann(-20, 6),
+                TimeConstantMs = GateRate.Constant(1) }],
+            ReferenceTemperatureC = 6.3,
+            Q10 = 3,
+            TypicalDensityMsPerCm2 = 1,
+            MinDensityMsPerCm2 = 0,
+            MaxDensityMsPerCm2 = 10,
+            Source = src,
         };
         var sk = new ChannelEntry
         {
-            Id = "test-sk", Version = 1, Name = "test SK", Family = "SK", Ion = Ion.Potassium, Reversal = ReversalRule.Fixed, ReversalMv = -77,
+            Id = "test-sk",
+            Version = 1,
+            Name = "test SK",
+            Family = "SK",
+            Ion = Ion.Potassium,
+            Reversal = ReversalRule.Fixed,
+            ReversalMv = -77,
             Gates = [new GateSpec { Name = "q", Power = 1, Kind = GateKind.Calcium, Calcium = new CalciumSensitivity(5e-4, 4, 5) }],
-            ReferenceTemperatureC = 6.3, Q10 = 1, TypicalDensityMsPerCm2 = 1, MinDensityMsPerCm2 = 0, MaxDensityMsPerCm2 = 10, Source = src,
+            ReferenceTemperatureC = 6.3,
+            Q10 = 1,
+            TypicalDensityMsPerCm2 = 1,
+            MinDensityMsPerCm2 = 0,
+            MaxDensityMsPerCm2 = 10,
+            Source = src,
         };
         var preset = cat.BuildCell(cat.Preset("hh1952"));
         var model = preset with
         {
             CalciumShell = new CalciumShell { DepthUm = 0.1, DecayMs = 50, RestMm = 5e-5, BufferCapacity = 0 },
-            Channels = [.. preset.Channels, new ChannelInstance { Entry = calcium, DensityMsPerCm2 = 0.1 }, new ChannelInstance { Entry = sk, DensityMsPerCm2 = 0.5 }],
+            Channels =
+                [.. preset.Channels, new ChannelInstance { Entry = calcium, DensityMsPerCm2 = 0.1 }, new ChannelInstance { Entry = sk, DensityMsPerCm2 = 0.5 }],
         };
         var cell = new CompiledCell(model);
         var amps = new[] { 0.0, 5, 10, 15, 20, 30 };

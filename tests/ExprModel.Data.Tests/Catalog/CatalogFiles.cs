@@ -15,7 +15,8 @@ public static class CatalogFiles
 
     /// <summary>Entry file names (entries/ID.vN.json) relative to catalog/.</summary>
     public static IEnumerable<string> EntryFileNames() =>
-        System.IO.Directory.EnumerateFiles(Path.Combine(Directory, "entries"), "*.json").Select(p => "entries/" + Path.GetFileName(p)).Order(StringComparer.Ordinal);
+        System.IO.Directory.EnumerateFiles(Path.Combine(Directory, "entries"), "*.json").Select(p => "entries/" + Path.GetFileName(p))
+            .Order(StringComparer.Ordinal);
 
     public static TheoryData<string> EntryKeys()
     {

@@ -26,8 +26,11 @@ public class EntrySimulationTests
             channels.Add(new() { Entry = entry, DensityMsPerCm2 = entry.TypicalDensityMsPerCm2 });
         var model = new CellModel
         {
-            Geometry = Geometry.FromDiameter(30), TemperatureC = 36, InitialVoltageMv = -70,
-            CalciumShell = new CalciumShell(), Channels = channels,
+            Geometry = Geometry.FromDiameter(30),
+            TemperatureC = 36,
+            InitialVoltageMv = -70,
+            CalciumShell = new CalciumShell(),
+            Channels = channels,
         };
         var cell = new CompiledCell(model);
         var trace = Simulator.Run(cell, new StepCurrent(20, 150, 3), 200);
@@ -44,11 +47,19 @@ public class GateStateCurrentsTests
     public void Currents_from_gate_states_match_recorded_currents_in_a_calcium_cell()
     {
         // Calcium through GHK and Nernst entries, calcium-gated SK and BK: every kind of driving term and gate.
-        var ids = new[] { "traub-na", "traub-kdr", "leak", "cav-hva-reuveni1993", "cav3-t-destexhe1996", "cav1-l-jaffe1994", "sk2-kohler1996", "bk-moczydlowski1983", "hcn-vcn-rothman2003" };
+        var ids = new[] { "traub-na", "traub-kdr", "leak", "cav-hva-reuveni1993", "cav3-t-destexhe1996", "cav1-l-jaffe1994", "sk2-kohler1996",
+            "bk-moczydlowski1983", "hcn-vcn-rothman2003" };
         var cell = new CompiledCell(new CellModel
         {
-            Geometry = Geometry.FromDiameter(30), TemperatureC = 36, InitialVoltageMv = -70, CalciumShell = new CalciumShell(),
-            Channels = ids.Select(id => new ChannelInstance { Entry = E(id), DensityMsPerCm2 = id switch { "traub-na" => 50, "traub-kdr" => 5, "leak" => 0.05, _ => E(id).TypicalDensityMsPerCm2 } }).ToList(),
+            Geometry = Geometry.FromDiameter(30),
+            TemperatureC = 36,
+            InitialVoltageMv = -70,
+            CalciumShell = new CalciumShell(),
+            Channels = ids.Select(id => new ChannelInstance
+            {
+                Entry = E(id),
+                DensityMsPerCm2 = id switch { "traub-na" => 50, "traub-kdr" => 5, "leak" => 0.05, _ => E(id).TypicalDensityMsPerCm2 }
+            }).ToList(),
         });
         var stim = new StepCurrent(20, 150, 4);
         var recorded = Simulator.Run(cell, stim, 200, SimulationSettings.Default with { RecordCurrents = true });
@@ -98,7 +109,11 @@ public class EntrySweepConsistencyTests
             channels.Add(new() { Entry = entry, DensityMsPerCm2 = entry.TypicalDensityMsPerCm2 });
         var cell = new CompiledCell(new CellModel
         {
-            Geometry = Geometry.FromDiameter(30), TemperatureC = 36, InitialVoltageMv = -70, CalciumShell = new CalciumShell(), Channels = channels,
+            Geometry = Geometry.FromDiameter(30),
+            TemperatureC = 36,
+            InitialVoltageMv = -70,
+            CalciumShell = new CalciumShell(),
+            Channels = channels,
         });
         var stimuli = new[] { 2.0, 6, 12, 20 }.Select(a => (Stimulus)new StepCurrent(0, 300, a)).ToList();
         var sweep = Simulator.SpikeTimes(cell, stimuli, 300).Select(s => s.Count).ToArray();

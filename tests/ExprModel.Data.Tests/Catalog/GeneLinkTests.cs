@@ -99,7 +99,8 @@ public class GeneLinkTests
             else
             {
                 Assert.Matches("^[A-Z][a-z0-9-]+$", l.Symbol);
-                Assert.Contains(links, h => h.Species == Species.Human && h.Symbol == l.Symbol.ToUpperInvariant() && h.EntryId == l.EntryId && h.Weight == l.Weight);
+                Assert.Contains(links, h => h.Species == Species.Human && h.Symbol == l.Symbol.ToUpperInvariant() && h.EntryId == l.EntryId
+                    && h.Weight == l.Weight);
             }
         }
         foreach (var h in links.Where(l => l.Species == Species.Human))
@@ -118,6 +119,7 @@ public class GeneLinkTests
             Assert.Equal(s.Status == "linked", linkedSymbols.Contains(s.Symbol));
         }
         Assert.All(linkedSymbols, sym => Assert.Contains(human, s => s.Symbol == sym));
-        Assert.DoesNotContain(Content.GeneLinks, l => l.EntryId.StartsWith("squid-", StringComparison.Ordinal) || l.EntryId.StartsWith("wb-", StringComparison.Ordinal));
+        Assert.DoesNotContain(Content.GeneLinks, l => l.EntryId.StartsWith("squid-", StringComparison.Ordinal)
+            || l.EntryId.StartsWith("wb-", StringComparison.Ordinal));
     }
 }

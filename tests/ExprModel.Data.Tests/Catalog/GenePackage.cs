@@ -91,7 +91,8 @@ public static class GenePackage
         while (r.Read())
         {
             var row = new string[r.FieldCount];
-            for (int i = 0; i < row.Length; i++) row[i] = r.IsDBNull(i) ? "" : Convert.ToString(r.GetValue(i), System.Globalization.CultureInfo.InvariantCulture)!;
+            for (int i = 0; i < row.Length; i++)
+                row[i] = r.IsDBNull(i) ? "" : Convert.ToString(r.GetValue(i), System.Globalization.CultureInfo.InvariantCulture)!;
             rows.Add(row);
         }
         return rows;

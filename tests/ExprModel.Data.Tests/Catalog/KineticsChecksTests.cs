@@ -61,7 +61,8 @@ public class KineticsChecksTests
             {
                 Assert.True(half is not null, $"{key}.{g.Name}: steady state never crosses 0.5");
                 Assert.True(half!.Value >= band.ActivationLowMv - BandEdgeToleranceMv && half.Value <= band.ActivationHighMv + BandEdgeToleranceMv,
-                    $"{key}.{g.Name}: half-activation {half:0.00} mV outside the {e.Family} band {band.ActivationLowMv}..{band.ActivationHighMv} mV (DOMAIN.md)");
+                    $"{key}.{g.Name}: half-activation {half:0.00} mV outside the {e.Family} band " +
+                    $"{band.ActivationLowMv}..{band.ActivationHighMv} mV (DOMAIN.md)");
             }
         }
     }
@@ -85,7 +86,8 @@ public class KineticsChecksTests
                 _ => throw new Xunit.Sdk.XunitException($"{key}: unknown published quantity '{p.Quantity}'"),
             };
             Assert.True(Math.Abs(actual - p.Value) <= p.Tolerance,
-                $"{key}: {p.Quantity} of {p.Gate} is {actual:G6}, the source ({e.Source.Authors} {e.Source.Year}, {p.Where}) states {p.Value:G6} +/- {p.Tolerance:G3}");
+                $"{key}: {p.Quantity} of {p.Gate} is {actual:G6}, the source ({e.Source.Authors} {e.Source.Year}, {p.Where}) " +
+                    $"states {p.Value:G6} +/- {p.Tolerance:G3}");
         }
     }
 
@@ -184,7 +186,8 @@ public class ReversalRuleTests
         var e = CatalogFiles.Content.Entries.Single(x => x.Key == key);
         var cell = new Core.Cell.CellModel
         {
-            Geometry = Core.Cell.Geometry.FromDiameter(20), TemperatureC = 37,
+            Geometry = Core.Cell.Geometry.FromDiameter(20),
+            TemperatureC = 37,
             Channels = [new Core.Cell.ChannelInstance { Entry = e, DensityMsPerCm2 = 1 }],
         };
         double erev = cell.ReversalPotentialMv(cell.Channels[0]);

@@ -41,7 +41,8 @@ public sealed class BuildApiTests(AppFactory factory) : ApiTestBase(factory)
     [Fact]
     public async Task Builds_a_group_model_from_the_demo_survey_recording_its_derivation()
     {
-        var r = await Client.PostAsJsonAsync("/api/build", new { expression = Demo("counts.csv"), metadata = Demo("metadata.csv"), groupBy = "group", group = "T1-fast" });
+        var r = await Client.PostAsJsonAsync("/api/build",
+            new { expression = Demo("counts.csv"), metadata = Demo("metadata.csv"), groupBy = "group", group = "T1-fast" });
         Assert.Equal(200, (int)r.StatusCode);
         var body = await Json(r);
         var model = body.GetProperty("model");
@@ -59,7 +60,8 @@ public sealed class BuildApiTests(AppFactory factory) : ApiTestBase(factory)
     [Fact]
     public async Task Excluding_a_gene_changes_the_model()
     {
-        var plain = await Json(await Client.PostAsJsonAsync("/api/build", new { expression = Demo("counts.csv"), metadata = Demo("metadata.csv"), groupBy = "group", group = "T1-fast" }));
+        var plain = await Json(await Client.PostAsJsonAsync("/api/build",
+            new { expression = Demo("counts.csv"), metadata = Demo("metadata.csv"), groupBy = "group", group = "T1-fast" }));
         var densities = plain.GetProperty("densities").EnumerateArray().ToList();
         var gene = densities.SelectMany(d => d.GetProperty("genes").EnumerateArray()).First().GetProperty("gene").GetString()!;
         var without = await Json(await Client.PostAsJsonAsync("/api/build", new
@@ -80,7 +82,8 @@ public sealed class BuildApiTests(AppFactory factory) : ApiTestBase(factory)
         await AssertProblem(await Client.PostAsJsonAsync("/api/build", new { expression = ragged, cell = "c1" }), 400, "line 3");
         await AssertProblem(await Client.PostAsJsonAsync("/api/build", new { expression = "gene,c1\nScn1a,1\n", group = "x" }), 400, "metadata");
         await AssertProblem(await Client.PostAsJsonAsync("/api/build", new { cell = "c1" }), 400, "expression");
-        await AssertProblem(await Client.PostAsJsonAsync("/api/build", new { expression = Demo("counts.csv"), metadata = Demo("metadata.csv"), groupBy = "group", group = "T9-none" }), 400, "T9-none");
+        await AssertProblem(await Client.PostAsJsonAsync("/api/build",
+            new { expression = Demo("counts.csv"), metadata = Demo("metadata.csv"), groupBy = "group", group = "T9-none" }), 400, "T9-none");
     }
 
     [Fact]
@@ -131,7 +134,8 @@ public sealed class BuildApiTests(AppFactory factory) : ApiTestBase(factory)
     public async Task Read_options_take_the_same_spellings_as_the_command_line()
     {
         // "rpkm" and upper case are the library's spellings (ReadOptionsParser), which the command line accepts too.
-        var ok = await Client.PostAsJsonAsync("/api/build", new { expression = Demo("counts.csv"), metadata = Demo("metadata.csv"), groupBy = "group", group = "T1-fast", unit = "RPKM" });
+        var ok = await Client.PostAsJsonAsync("/api/build",
+            new { expression = Demo("counts.csv"), metadata = Demo("metadata.csv"), groupBy = "group", group = "T1-fast", unit = "RPKM" });
         Assert.Equal(200, (int)ok.StatusCode);
         Assert.Equal("Fpkm", (await Json(ok)).GetProperty("model").GetProperty("derivation").GetProperty("unit").GetString());
         await AssertProblem(await Client.PostAsJsonAsync("/api/build", new { expression = Demo("counts.csv"), cell = "FH1001", unit = "umi" }), 400,
@@ -145,11 +149,15 @@ public sealed class BuildApiTests(AppFactory factory) : ApiTestBase(factory)
     {
         var noTable = new MultipartFormDataContent { { new StringContent("c1"), "cell" } };
         await AssertProblem(await Client.PostAsync("/api/build", noTable), 400, "expression", "required");
-        await AssertProblem(await Client.PostAsync("/api/build", DemoForm(("groupBy", "group"), ("group", "T1-fast"), ("exponent", "two"))), 400, "exponent", "'two'");
+        await AssertProblem(await Client.PostAsync("/api/build", DemoForm(("groupBy", "group"), ("group", "T1-fast"), ("exponent", "two"))), 400, "exponent",
+            "'two'");
         await AssertProblem(await Client.PostAsync("/api/build", DemoForm(("groupBy", "group"), ("group", "T1-fast"), ("exponent", "9"))), 400, "exponent");
-        await AssertProblem(await Client.PostAsync("/api/build", DemoForm(("groupBy", "group"), ("group", "T1-fast"), ("clamp", "maybe"))), 400, "clamp", "'maybe'");
-        await AssertProblem(await Client.PostAsync("/api/build", DemoForm(("groupBy", "group"), ("group", "T1-fast"), ("overrides", "[{gene"))), 400, "overrides", "line 1");
-        await AssertProblem(await Client.PostAsync("/api/build", DemoForm(("groupBy", "group"), ("group", "T1-fast"), ("exponnent", "1"))), 400, "exponnent", "not a field");
+        await AssertProblem(await Client.PostAsync("/api/build", DemoForm(("groupBy", "group"), ("group", "T1-fast"), ("clamp", "maybe"))), 400, "clamp",
+            "'maybe'");
+        await AssertProblem(await Client.PostAsync("/api/build", DemoForm(("groupBy", "group"), ("group", "T1-fast"), ("overrides", "[{gene"))), 400,
+            "overrides", "line 1");
+        await AssertProblem(await Client.PostAsync("/api/build", DemoForm(("groupBy", "group"), ("group", "T1-fast"), ("exponnent", "1"))), 400, "exponnent",
+            "not a field");
         await AssertProblem(await Client.PostAsync("/api/build", DemoForm(("groupBy", "cluster"), ("group", "T1-fast"))), 400, "metadata.csv", "cluster");
     }
 
@@ -174,7 +182,8 @@ public sealed class BuildApiTests(AppFactory factory) : ApiTestBase(factory)
         await AssertProblem(await Client.PostAsync("/api/build", declared), 413, "upload limit of 1 MB");
 
         // Streamed without a Content-Length: the parts are counted as they arrive.
-        var streamed = new MultipartFormDataContent { { new StreamContent(new UnknownLengthStream(big)), "expression", "big.csv" }, { new StringContent("c1"), "cell" } };
+        var streamed =
+            new MultipartFormDataContent { { new StreamContent(new UnknownLengthStream(big)), "expression", "big.csv" }, { new StringContent("c1"), "cell" } };
         var request = new HttpRequestMessage(HttpMethod.Post, "/api/build") { Content = streamed };
         Assert.Null(streamed.Headers.ContentLength);
         await AssertProblem(await Client.SendAsync(request), 413, "upload limit of 1 MB");

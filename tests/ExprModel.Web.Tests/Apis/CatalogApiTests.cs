@@ -53,7 +53,8 @@ public sealed class CatalogApiTests(AppFactory factory) : ApiTestBase(factory)
     public async Task The_openapi_document_lists_every_endpoint()
     {
         var doc = await Client.GetStringAsync("/openapi/v1.json");
-        foreach (var path in new[] { "/api/catalog", "/api/catalog/{id}", "/api/models", "/api/models/{id}", "/api/simulate", "/api/fi", "/api/readouts", "/api/build" })
+        foreach (var path in new[]
+            { "/api/catalog", "/api/catalog/{id}", "/api/models", "/api/models/{id}", "/api/simulate", "/api/fi", "/api/readouts", "/api/build" })
             Assert.Contains($"\"{path}\"", doc);
     }
 }

@@ -32,7 +32,8 @@ public sealed class ModelsApiTests(AppFactory factory) : ApiTestBase(factory)
         // Re-running the stored model gives the stored read-outs exactly.
         var rerun = await Json(await Client.PostAsJsonAsync("/api/readouts", new { model = JsonNode.Parse(stored.GetRawText()) }));
         Assert.Equal(got.GetProperty("readouts").GetRawText(), rerun.GetProperty("readouts").GetRawText());
-        Assert.Contains(rerun.GetProperty("readouts").EnumerateArray(), r => r.GetProperty("name").GetString() == "rheobase" && r.GetProperty("value").ValueKind == JsonValueKind.Number);
+        Assert.Contains(rerun.GetProperty("readouts").EnumerateArray(), r => r.GetProperty("name").GetString() == "rheobase"
+            && r.GetProperty("value").ValueKind == JsonValueKind.Number);
     }
 
     [Fact]
@@ -50,7 +51,8 @@ public sealed class ModelsApiTests(AppFactory factory) : ApiTestBase(factory)
     public async Task The_expression_table_is_stored_only_when_sent()
     {
         var without = await Json(await Client.PostAsJsonAsync("/api/models", new { model = Preset("wb1996") }));
-        var with = await Json(await Client.PostAsJsonAsync("/api/models", new { model = Preset("wb1996"), expression = "gene,c1\nScn1a,3\n", expressionName = "t.csv" }));
+        var with = await Json(await Client.PostAsJsonAsync("/api/models",
+            new { model = Preset("wb1996"), expression = "gene,c1\nScn1a,3\n", expressionName = "t.csv" }));
         Assert.False((await Json(await Client.GetAsync($"/api/models/{without.GetProperty("id").GetString()}"))).GetProperty("hasExpression").GetBoolean());
         Assert.True((await Json(await Client.GetAsync($"/api/models/{with.GetProperty("id").GetString()}"))).GetProperty("hasExpression").GetBoolean());
     }
@@ -60,7 +62,8 @@ public sealed class ModelsApiTests(AppFactory factory) : ApiTestBase(factory)
     {
         await AssertProblem(await Client.GetAsync("/api/models/AAAAAAAAAAAAAAAAAAAAAA"), 404, "AAAAAAAAAAAAAAAAAAAAAA");
         await AssertProblem(await Client.PostAsJsonAsync("/api/models", new { notes = "no model" }), 400, "model");
-        await AssertProblem(await Client.PostAsJsonAsync("/api/models", new { model = Preset("wb1996"), parentId = "AAAAAAAAAAAAAAAAAAAAAA" }), 400, "parentId");
+        await AssertProblem(await Client.PostAsJsonAsync("/api/models", new { model = Preset("wb1996"), parentId = "AAAAAAAAAAAAAAAAAAAAAA" }), 400,
+            "parentId");
         var broken = Preset("wb1996");
         broken["channels"]![0]!["entry"] = "no-such-entry";
         await AssertProblem(await Client.PostAsJsonAsync("/api/models", new { model = broken }), 400, "no-such-entry");

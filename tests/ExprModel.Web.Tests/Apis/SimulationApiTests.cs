@@ -21,7 +21,8 @@ public sealed class SimulationApiTests(AppFactory factory) : ApiTestBase(factory
     [Fact]
     public async Task The_fi_curve_has_one_point_per_step_and_rises()
     {
-        var body = await Json(await Client.PostAsJsonAsync("/api/fi", new { model = Preset("wb1996"), fi = new { fromUaPerCm2 = 0, toUaPerCm2 = 4, steps = 5, durationMs = 500 } }));
+        var body = await Json(await Client.PostAsJsonAsync("/api/fi",
+            new { model = Preset("wb1996"), fi = new { fromUaPerCm2 = 0, toUaPerCm2 = 4, steps = 5, durationMs = 500 } }));
         var pts = body.GetProperty("points").EnumerateArray().ToList();
         Assert.Equal(5, pts.Count);
         Assert.Equal(0, pts[0].GetProperty("spikesInStep").GetInt32());
@@ -31,12 +32,22 @@ public sealed class SimulationApiTests(AppFactory factory) : ApiTestBase(factory
     [Fact]
     public async Task Bad_protocols_and_bodies_are_problem_details()
     {
-        await AssertProblem(await Client.PostAsJsonAsync("/api/fi", new { model = Preset("wb1996"), fi = new { fromUaPerCm2 = 5, toUaPerCm2 = 1, steps = 5 } }), 400, "toUaPerCm2");
+        await AssertProblem(await Client.PostAsJsonAsync("/api/fi", new { model = Preset("wb1996"), fi = new { fromUaPerCm2 = 5, toUaPerCm2 = 1, steps = 5 } }),
+            400, "toUaPerCm2");
         await AssertProblem(await Client.PostAsJsonAsync("/api/fi", new { model = Preset("wb1996"), fi = new { steps = 5000 } }), 400, "fi.steps");
         await AssertProblem(await Client.PostAsJsonAsync("/api/simulate", new { model = Preset("wb1996"), step = new { stepMs = 60000 } }), 400, "10000 ms");
         var truncated = new StringContent("{\"model\": {\"format\": ", Encoding.UTF8, "application/json");
         await AssertProblem(await Client.PostAsync("/api/readouts", truncated), 400, "line 1");
-        var wrongFormat = new { model = new { format = "something-else", schemaVersion = 1, cell = new { areaUm2 = 100 }, channels = new[] { new { entry = "leak", densityMsPerCm2 = 0.1 } } } };
+        var wrongFormat = new
+        {
+            model = new
+            {
+                format = "something-else",
+                schemaVersion = 1,
+                cell = new { areaUm2 = 100 },
+                channels = new[] { new { entry = "leak", densityMsPerCm2 = 0.1 } }
+            }
+        };
         await AssertProblem(await Client.PostAsJsonAsync("/api/readouts", wrongFormat), 400, "format");
     }
 

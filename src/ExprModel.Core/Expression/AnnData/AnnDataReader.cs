@@ -158,7 +158,8 @@ public static class AnnDataReader
         if (!Guard(at, () => h5.LinkExists(frame)))
             throw at.Error($"missing: the file has no {frame} data frame.");
         if (Guard(at, () => h5.Get(frame)) is not IH5Group group)
-            throw at.Error($"is a single dataset, not a group: an older AnnData layout (compound data frames) that is not read; save the file again with a current AnnData version.");
+            throw at.Error("is a single dataset, not a group: an older AnnData layout (compound data frames) that is not read; " +
+                "save the file again with a current AnnData version.");
         string indexName = ReadStringAttribute(group, "_index", at) ?? "_index";
         at.Path = $"/{frame}/{indexName}";
         if (!Guard(at, () => group.LinkExists(indexName)) || Guard(at, () => group.Get(indexName)) is not IH5Dataset index)
@@ -230,7 +231,8 @@ public static class AnnDataReader
         return labels;
     }
 
-    private static void ReadDense(IH5Dataset x, int cells, int genes, ExpressionReadOptions o, Location at, ValueStats stats, double[] library, double[]?[] kept)
+    private static void ReadDense(IH5Dataset x, int cells, int genes, ExpressionReadOptions o, Location at, ValueStats stats, double[] library,
+        double[]?[] kept)
     {
         var dims = Guard(at, () => x.Space.Dimensions);
         if (dims.Length != 2 || (long)dims[0] != cells || (long)dims[1] != genes)
@@ -256,7 +258,8 @@ public static class AnnDataReader
         }
     }
 
-    private static void ReadSparse(IH5Group x, bool csr, int cells, int genes, ExpressionReadOptions o, Location at, ValueStats stats, double[] library, double[]?[] kept)
+    private static void ReadSparse(IH5Group x, bool csr, int cells, int genes, ExpressionReadOptions o, Location at, ValueStats stats, double[] library,
+        double[]?[] kept)
     {
         string shapeAt = at.Path;
         if (Guard(at, () => x.AttributeExists("shape")))

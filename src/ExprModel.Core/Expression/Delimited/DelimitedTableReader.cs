@@ -56,7 +56,8 @@ public static class DelimitedTableReader
         TableOrientation orientation;
         string orientationNote;
         if (o.Orientation is { } given)
-            (orientation, orientationNote) = (given, given == TableOrientation.GenesAsRows ? "genes as rows (given by the user)" : "cells as rows (given by the user)");
+            (orientation, orientationNote) =
+                (given, given == TableOrientation.GenesAsRows ? "genes as rows (given by the user)" : "cells as rows (given by the user)");
         else
             (orientation, orientationNote) = OrientationDetector.Detect(file, corner, ids, firstColumn, o.KeepGene);
 
@@ -90,7 +91,8 @@ public static class DelimitedTableReader
     private static RecordReader OpenRecords(string path, string file, char delimiter, ExpressionReadOptions o) =>
         new(InputFile.Open(path, o.MaxDecompressedBytes), file, delimiter, o.MaxRecordChars, o.MaxColumns);
 
-    private static Parsed ReadGenesAsRows(RecordReader r, string file, List<string> cellIds, int offset, ExpressionReadOptions o, ValueStats stats, List<string> notes)
+    private static Parsed ReadGenesAsRows(RecordReader r, string file, List<string> cellIds, int offset, ExpressionReadOptions o, ValueStats stats,
+        List<string> notes)
     {
         var cells = new CellRegistry(file);
         for (int j = 0; j < cellIds.Count; j++) cells.Add(cellIds[j], $"line 1, column {j + 1 + offset}");
@@ -118,7 +120,8 @@ public static class DelimitedTableReader
         return new Parsed(cellIds, genes, library, registry.Total);
     }
 
-    private static Parsed ReadCellsAsRows(RecordReader r, string file, List<string> geneIds, int offset, ExpressionReadOptions o, ValueStats stats, List<string> notes)
+    private static Parsed ReadCellsAsRows(RecordReader r, string file, List<string> geneIds, int offset, ExpressionReadOptions o, ValueStats stats,
+        List<string> notes)
     {
         var registry = new GeneRegistry(file, o, notes);
         var keptColumns = new List<int>();

@@ -112,7 +112,8 @@ public static partial class GeneIdentifiers
             if (set.Count > 1)
             {
                 var ids = set.Order(StringComparer.Ordinal).ToArray();
-                issues.Add(new("case-collision", ids, $"{string.Join(", ", ids.Select(i => $"'{i}'"))} differ only in case: a human and a rodent symbol, or a typing error."));
+                issues.Add(new("case-collision", ids,
+                    $"{string.Join(", ", ids.Select(i => $"'{i}'"))} differ only in case: a human and a rodent symbol, or a typing error."));
             }
         foreach (var (key, set) in byEnsembl)
             if (set.Count > 1)

@@ -28,7 +28,8 @@ public static class SparseMatrixReader
         string? matrix = Directory.Exists(path) ? First(dir, MatrixNames) : path;
         if (matrix is null || !File.Exists(matrix))
             throw new ExpressionFormatException($"{Path.GetFileName(path)}: no matrix.mtx or matrix.mtx.gz in {dir}.");
-        string genes = First(dir, GeneNames) ?? throw new ExpressionFormatException($"{Path.GetFileName(matrix)}: no features.tsv[.gz] or genes.tsv[.gz] beside it in {dir}.");
+        string genes = First(dir, GeneNames)
+            ?? throw new ExpressionFormatException($"{Path.GetFileName(matrix)}: no features.tsv[.gz] or genes.tsv[.gz] beside it in {dir}.");
         string cells = First(dir, CellNames) ?? throw new ExpressionFormatException($"{Path.GetFileName(matrix)}: no barcodes.tsv[.gz] beside it in {dir}.");
         return new Layout(matrix, genes, cells);
     }
@@ -97,7 +98,8 @@ public static class SparseMatrixReader
             }
         }
         if (seen < entries)
-            throw new ExpressionFormatException($"{file}: line {r.LineNumber + 1}: the size line declares {entries} entries but the file ends after {seen} (truncated?).");
+            throw new ExpressionFormatException($"{file}: line {r.LineNumber + 1}: " +
+                $"the size line declares {entries} entries but the file ends after {seen} (truncated?).");
         // Zeros are implicit in a sparse matrix, so count them for the unit statistics.
         if (seen < rows * cols) stats.Add(0);
 
@@ -113,7 +115,8 @@ public static class SparseMatrixReader
             UnitNote = unitNote,
             Orientation = TableOrientation.GenesAsRows,
             OrientationNote = "genes as rows: fixed by the Matrix Market layout (rows named by the gene sidecar, columns by the cell sidecar)",
-            FormatNote = $"Matrix Market coordinate matrix {Path.GetFileName(layout.Matrix)} with {Path.GetFileName(layout.Genes)} and {Path.GetFileName(layout.Cells)}",
+            FormatNote =
+                $"Matrix Market coordinate matrix {Path.GetFileName(layout.Matrix)} with {Path.GetFileName(layout.Genes)} and {Path.GetFileName(layout.Cells)}",
             Notes = notes,
         };
     }
@@ -124,7 +127,8 @@ public static class SparseMatrixReader
             throw new ExpressionFormatException($"{file}: line 1: not a Matrix Market file (expected '%%MatrixMarket matrix coordinate real general').");
         string Lower(int k) => r.FieldString(k).ToLowerInvariant();
         if (Lower(1) != "matrix" || Lower(2) != "coordinate")
-            throw new ExpressionFormatException($"{file}: line 1: only 'matrix coordinate' Matrix Market files are read, found '{r.FieldString(1)} {r.FieldString(2)}'.");
+            throw new ExpressionFormatException($"{file}: line 1: only 'matrix coordinate' Matrix Market files are read, " +
+                $"found '{r.FieldString(1)} {r.FieldString(2)}'.");
         if (Lower(3) is not ("real" or "integer" or "double"))
             throw new ExpressionFormatException($"{file}: line 1: value type '{r.FieldString(3)}' is not read (real or integer only).");
         if (Lower(4) != "general")
@@ -157,7 +161,8 @@ public static class SparseMatrixReader
         while (r.ReadRecord())
         {
             width ??= r.FieldCount;
-            if (r.FieldCount != width) throw r.Error(Math.Min(r.FieldCount, width.Value) + 1, $"{r.FieldCount} fields where the first line has {width} (ragged sidecar).");
+            if (r.FieldCount != width)
+                throw r.Error(Math.Min(r.FieldCount, width.Value) + 1, $"{r.FieldCount} fields where the first line has {width} (ragged sidecar).");
             int column = o.FeatureColumn ?? (r.FieldCount >= 2 ? 2 : 1);
             if (column < 1 || column > r.FieldCount) throw r.Error(r.FieldCount + 1, $"no column {column} to take gene identifiers from.");
             names.Add(r.FieldString(column - 1));

@@ -86,8 +86,10 @@ public static partial class CellMetadataReader
             else
             {
                 // A column that is neither chosen as labels nor numeric: say where it stops being numeric.
-                int bad = Array.FindIndex(column, v => !Missing.Contains(v.Trim()) && !double.TryParse(v, NumberStyles.Float, CultureInfo.InvariantCulture, out _));
-                notes.Add($"column '{header[j]}' is not numeric (line {lines[bad]}: '{ValueParser.Shorten(column[bad])}') and not a chosen label column; ignored.");
+                int bad =
+                    Array.FindIndex(column, v => !Missing.Contains(v.Trim()) && !double.TryParse(v, NumberStyles.Float, CultureInfo.InvariantCulture, out _));
+                notes.Add($"column '{header[j]}' is not numeric (line {lines[bad]}: '{ValueParser.Shorten(column[bad])}') " +
+                    "and not a chosen label column; ignored.");
             }
         }
         return new CellMetadata { Source = path, CellIdColumn = header[idColumn], CellIds = cells, Labels = labels, Recorded = recorded, Notes = notes };

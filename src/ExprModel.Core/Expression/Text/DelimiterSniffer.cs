@@ -32,7 +32,8 @@ internal static class DelimiterSniffer
             if (Array.IndexOf(buffer, '\0', 0, len) >= 0)
                 throw new ExpressionFormatException($"{file}: line 1, column 1: NUL character: binary data, not a text table.");
             throw new ExpressionFormatException(
-                $"{file}: line 1: no comma, tab or semicolon in the header; a table needs an identifier column and value columns separated by one of these (spaces, '|' and other delimiters are not read).");
+                $"{file}: line 1: no comma, tab or semicolon in the header; " +
+                    "a table needs an identifier column and value columns separated by one of these (spaces, '|' and other delimiters are not read).");
         }
         return Delimiters[best];
     }

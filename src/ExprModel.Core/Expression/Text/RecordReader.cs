@@ -78,7 +78,8 @@ internal sealed class RecordReader : IDisposable
         if (_recordLen == _record.Length)
         {
             if (_record.Length >= MaxRecordChars)
-                throw new ExpressionFormatException($"{FileName}: line {LineNumber}: record longer than {MaxRecordChars:N0} characters (binary data, a missing line break, or raise the limit).");
+                throw new ExpressionFormatException($"{FileName}: line {LineNumber}: record longer than {MaxRecordChars:N0} characters (binary data, " +
+                    "a missing line break, or raise the limit).");
             Array.Resize(ref _record, (int)Math.Min((long)_record.Length * 2, MaxRecordChars));
         }
         _record[_recordLen++] = c;
@@ -87,7 +88,8 @@ internal sealed class RecordReader : IDisposable
     private void EndField(int start)
     {
         if (FieldCount == MaxColumns)
-            throw new ExpressionFormatException($"{FileName}: line {LineNumber}, column {MaxColumns + 1}: more than {MaxColumns:N0} columns (raise the limit if this is intended).");
+            throw new ExpressionFormatException($"{FileName}: line {LineNumber}, column {MaxColumns + 1}: " +
+                $"more than {MaxColumns:N0} columns (raise the limit if this is intended).");
         if (FieldCount == _starts.Length)
         {
             Array.Resize(ref _starts, _starts.Length * 2);
@@ -130,7 +132,8 @@ internal sealed class RecordReader : IDisposable
                 {
                     c = Peek();
                     if (c < 0)
-                        throw new ExpressionFormatException($"{FileName}: line {quoteLine}, column {FieldCount + 1}: quote opened at character {quoteCol} is never closed.");
+                        throw new ExpressionFormatException($"{FileName}: line {quoteLine}, column {FieldCount + 1}: " +
+                            $"quote opened at character {quoteCol} is never closed.");
                     Advance();
                     if (c == '"')
                     {

@@ -28,7 +28,8 @@ internal static class UnitDecision
             _ => "",
         };
         if (o.Unit == ExpressionUnit.LogTransformed && o.LogTransform == LogTransform.None)
-            throw new ExpressionFormatException($"{file}: the unit is stated as log-transformed but not which transform; state ln(1 + x), log2(1 + x) or log10(1 + x) so it can be undone.");
+            throw new ExpressionFormatException($"{file}: the unit is stated as log-transformed but not which transform; state ln(1 + x), log2(1 + x) " +
+                "or log10(1 + x) so it can be undone.");
 
         bool sumsToMillion = SumsToMillion(librarySizes);
         if (o.Unit is { } given && given != ExpressionUnit.LogTransformed)
@@ -36,23 +37,29 @@ internal static class UnitDecision
             if (given == ExpressionUnit.Counts && !s.AllWhole)
                 notes.Add($"unit stated as raw counts, but some values are not whole numbers (largest {s.Max:G6}); check the unit.");
             if (given is ExpressionUnit.Cpm or ExpressionUnit.Tpm && !sumsToMillion)
-                notes.Add($"unit stated as {given.ToString().ToUpperInvariant()}, but cells do not sum to one million; the file may hold a subset of genes or another unit.");
+                notes.Add($"unit stated as {given.ToString().ToUpperInvariant()}, but cells do not sum to one million; " +
+                    "the file may hold a subset of genes or another unit.");
             if (o.LogTransform == LogTransform.None && !s.AllWhole && s.Max <= LogScaleMax)
                 notes.Add($"values are not whole numbers and the largest is {s.Max:G4}: they look log-transformed although the unit was stated as {given}.");
             return (given, $"{undone}{Describe(given)} (given by the user)");
         }
 
         if (s.AllWhole)
-            return (ExpressionUnit.Counts, $"{undone}detected raw counts: every value is a whole number (largest {s.Max:G6}); normalised to CPM by each cell's library size. State the unit if these are not counts.");
+            return (ExpressionUnit.Counts, $"{undone}detected raw counts: every value is a whole number (largest {s.Max:G6}); " +
+                "normalised to CPM by each cell's library size. State the unit if these are not counts.");
         if (o.LogTransform == LogTransform.None && s.Max <= LogScaleMax)
             throw new ExpressionFormatException(
                 $"{file}: values look log-transformed (not whole numbers, largest {s.Max:G4}; linear tables reach hundreds or more). " +
-                "Refusing to guess the transform: state it (ln(1 + x), log2(1 + x), log10(1 + x)) so it can be undone, or state the unit if the values are linear.");
+                "Refusing to guess the transform: state it (ln(1 + x), log2(1 + x), log10(1 + x)) so it can be undone, " +
+                    "or state the unit if the values are linear.");
         if (sumsToMillion)
-            return (ExpressionUnit.Cpm, $"{undone}detected CPM or TPM: values are not whole numbers and every cell sums to one million (within {MillionTolerance:P0}); read as given.");
+            return (ExpressionUnit.Cpm,
+                $"{undone}detected CPM or TPM: values are not whole numbers and every cell sums to one million (within {MillionTolerance:P0}); read as given.");
         if (CommonSum(librarySizes) is { } total)
-            return (ExpressionUnit.Fpkm, $"{undone}values are not whole numbers and every cell sums to {total:G6}, not one million: normalised to another total; read as given (FPKM-like, relative levels only). State the unit to be sure.");
-        return (ExpressionUnit.Fpkm, $"{undone}detected FPKM/RPKM-like values: not whole numbers, largest {s.Max:G6}, and cells do not sum to one million; read as given. State the unit to be sure.");
+            return (ExpressionUnit.Fpkm, $"{undone}values are not whole numbers and every cell sums to {total:G6}, not one million: " +
+                "normalised to another total; read as given (FPKM-like, relative levels only). State the unit to be sure.");
+        return (ExpressionUnit.Fpkm, $"{undone}detected FPKM/RPKM-like values: not whole numbers, largest {s.Max:G6}, and cells do not sum to one million; " +
+            "read as given. State the unit to be sure.");
     }
 
     /// <summary>The total every non-empty cell sums to (within the same tolerance), or null.</summary>

@@ -11,8 +11,10 @@ public sealed class SparseMatrixReaderTests : IDisposable
     // The same 4-gene x 3-cell table as the delimited tests, as a Matrix Market coordinate matrix (NIST Matrix
     // Market exchange format: banner, size line "rows columns entries", then 1-based "row column value" lines in any
     // order). Column sums by hand: c1 = 17, c2 = 8, c3 = 8.
-    private const string Matrix = "%%MatrixMarket matrix coordinate integer general\n% a comment\n4 3 8\n1 1 5\n1 2 1\n2 2 3\n3 1 2\n3 3 7\n4 1 10\n4 2 4\n4 3 1\n";
-    private const string Features = "ENSMUSG00000064329\tScn1a\tGene Expression\nENSMUSG00000041063\tKcnc1\tGene Expression\nENSMUSG00000057666\tGapdh\tGene Expression\nENSMUSG00000029580\tActb\tGene Expression\n";
+    private const string Matrix =
+        "%%MatrixMarket matrix coordinate integer general\n% a comment\n4 3 8\n1 1 5\n1 2 1\n2 2 3\n3 1 2\n3 3 7\n4 1 10\n4 2 4\n4 3 1\n";
+    private const string Features = "ENSMUSG00000064329\tScn1a\tGene Expression\nENSMUSG00000041063\tKcnc1\tGene Expression\n"
+        + "ENSMUSG00000057666\tGapdh\tGene Expression\nENSMUSG00000029580\tActb\tGene Expression\n";
     private const string Barcodes = "AAACCTGAGAAGGCCT-1\nAAACCTGAGCATCATC-1\nAAACCTGCAGGTGCCT-1\n";
 
     private string Layout(string sub, bool gzip)

@@ -71,7 +71,8 @@ public class GammaPoissonShrinkageTests(ITestOutputHelper output)
             }
         // Error measure: mean squared error of ln(1 + CPM) against the true rate, over every gene and cell.
         double rawMse = raw / n, shrunkMse = shrunk / n;
-        output.WriteLine($"seed {seed}: MSE of ln(1+CPM) raw {rawMse:F4}, shrunk {shrunkMse:F4}; at {zeros} zero counts raw {rawZeros / zeros:F4}, shrunk {shrunkZeros / zeros:F4}");
+        output.WriteLine($"seed {seed}: MSE of ln(1+CPM) raw {rawMse:F4}, shrunk {shrunkMse:F4}; at {zeros} zero counts raw {rawZeros / zeros:F4}, " +
+            $"shrunk {shrunkZeros / zeros:F4}");
         Assert.True(shrunkMse < 0.7 * rawMse, $"MSE of ln(1+CPM): raw {rawMse:F3}, shrunk {shrunkMse:F3}");
         // Where a cell reads zero the raw estimate is worst; shrinkage helps most there.
         Assert.True(zeros > 100, $"{zeros} zero counts");
