@@ -94,7 +94,7 @@ public sealed class NwbReaderTests : IDisposable
         Assert.Equal("empty.nwb: byte 0: the file is empty.", Assert.Throws<RecordingFormatException>(() => NwbReader.Read(empty)).Message);
         var text = _files.Text("text.nwb", "time,V\n0,1\n");
         Assert.Contains("text.nwb: byte 0: not an HDF5 file", Assert.Throws<RecordingFormatException>(() => NwbReader.Read(text)).Message);
-        Assert.Contains("nowhere.nwb: file not found", 
+        Assert.Contains("nowhere.nwb: file not found",
             Assert.Throws<RecordingFormatException>(() => NwbReader.Read(Path.Combine(_files.Dir, "nowhere.nwb"))).Message);
 
         // Truncated: the file is cut part-way through (a copy that stopped early); the error names the file and a dataset.
