@@ -23,7 +23,11 @@ public static class Program
         }
         if (args.Contains("whatif")) { WhatIfBenchmark.Run(); return 0; }
         if (args.Contains("recordings")) { RecordingsBenchmark.Run(); return 0; }
-        if (args.Contains("recovery")) { RecoveryBenchmark.Run(args.SkipWhile(a => a != "recovery").Skip(1).Where(a => !a.StartsWith('-')).ToArray()); return 0; }
+        if (args.Contains("recovery"))
+        {
+            RecoveryBenchmark.Run(args.SkipWhile(a => a != "recovery").Skip(1).Where(a => !a.StartsWith('-')).ToArray());
+            return 0;
+        }
         if (args.Contains("rounds")) { LiveProbe.Rounds(args.SkipWhile(a => a != "rounds").Skip(1).Where(a => !a.StartsWith("--")).ToList()); return 0; }
         if (args.Contains("kernel")) { KernelProbe.Run(args.SkipWhile(a => a != "kernel").Skip(1).FirstOrDefault(a => !a.StartsWith("--"))); return 0; }
         if (args.Contains("stages")) { LiveProbe.Stages(args.SkipWhile(a => a != "stages").Skip(1).Where(a => !a.StartsWith("--")).ToList()); return 0; }

@@ -18,7 +18,8 @@ public static class RecordingsBenchmark
         Console.WriteLine($"machine: {Environment.ProcessorCount} cores, .NET {Environment.Version}");
         var pool = Enumerable.Range(0, 4).Select(Cell).ToArray();
         long samples = pool[0].Sweeps.Sum(s => (long)s.VoltageMv.Length);
-        Console.WriteLine($"cell: {pool[0].Sweeps.Count} sweeps x {pool[0].Sweeps[0].VoltageMv.Length:N0} samples ({1000 / Dt / 1000:0} kHz, {(BaselineMs + StepMs + TailMs) / 1000:0.#} s)");
+        Console.WriteLine($"cell: {pool[0].Sweeps.Count} sweeps x {pool[0].Sweeps[0].VoltageMv.Length:N0} samples ({1000 / Dt / 1000:0} kHz, " +
+            $"{(BaselineMs + StepMs + TailMs) / 1000:0.#} s)");
         RecordingFeatures.Measure(pool[0]); // warm-up
         var sw = Stopwatch.StartNew();
         for (int c = 0; c < 100; c++) RecordingFeatures.Measure(pool[c % pool.Length]);
@@ -26,7 +27,8 @@ public static class RecordingsBenchmark
         sw.Restart();
         Parallel.For(0, 100, c => RecordingFeatures.Measure(pool[c % pool.Length]));
         double parallel = sw.Elapsed.TotalSeconds;
-        Console.WriteLine($"100 cells ({100 * samples / 1e6:0} M samples): one thread {serial:0.00} s, all cores {parallel:0.00} s; target <= 10 s: {(Math.Min(serial, parallel) <= 10 ? "met" : "NOT met")}");
+        Console.WriteLine($"100 cells ({100 * samples / 1e6:0} M samples): one thread {serial:0.00} s, all cores {parallel:0.00} s; target <= 10 s: " +
+            $"{(Math.Min(serial, parallel) <= 10 ? "met" : "NOT met")}");
     }
 
     private static RecordedCell Cell(int seed)

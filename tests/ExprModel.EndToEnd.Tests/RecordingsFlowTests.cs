@@ -2,7 +2,10 @@ using Microsoft.Playwright;
 
 namespace ExprModel.EndToEnd.Tests;
 
-/// <summary>The demo survey with its invented recordings: every cell's read-outs against the recorded values, then one recorded cell on the Workbench.</summary>
+/// <summary>
+/// The demo survey with its invented recordings: every cell's read-outs against the recorded values, then one recorded
+/// cell on the Workbench.
+/// </summary>
 [Collection("app")]
 public sealed class RecordingsFlowTests(AppFixture app)
 {
@@ -56,7 +59,8 @@ public sealed class RecordingsFlowTests(AppFixture app)
         var link = await (await page.WaitForSelectorAsync("[data-testid=share-link]"))!.GetAttributeAsync("href");
         await app.GotoAsync(page, new Uri(link!).AbsolutePath);
         await page.WaitForSelectorAsync("[data-testid=shared-recorded]");
-        Assert.Equal(recordedRheobase, await page.Locator("[data-testid=readouts] tr[data-readout=rheobase_absolute] [data-testid=recorded-value]").InnerTextAsync());
+        Assert.Equal(recordedRheobase,
+            await page.Locator("[data-testid=readouts] tr[data-readout=rheobase_absolute] [data-testid=recorded-value]").InnerTextAsync());
         await page.WaitForTimeoutAsync(1000);
         await app.ScreenshotAsync(page, "shared-recorded");
         Assert.True(errors.Count == 0, string.Join("\n", errors));

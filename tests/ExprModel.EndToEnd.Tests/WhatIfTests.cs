@@ -16,7 +16,8 @@ public sealed class WhatIfTests(AppFixture app)
         await page.WaitForSelectorAsync("[data-testid=tornado]", new PageWaitForSelectorOptions { Timeout = 120_000 });
         // The tornado is drawn by the plot library: its bars are SVG paths inside the figure (a zero-length bar is
         // attached but not visible, hence Attached).
-        await page.WaitForSelectorAsync("[data-testid=tornado] .main-svg .barlayer path", new PageWaitForSelectorOptions { Timeout = 10_000, State = WaitForSelectorState.Attached });
+        await page.WaitForSelectorAsync("[data-testid=tornado] .main-svg .barlayer path",
+            new PageWaitForSelectorOptions { Timeout = 10_000, State = WaitForSelectorState.Attached });
         Assert.Equal("rheobase", await page.Locator("[data-testid=tornado]").GetAttributeAsync("data-readout"));
         Assert.Equal(4, await page.Locator("[data-testid=kd-table] tbody tr").CountAsync());
         Assert.Contains("Research use only", await area.Locator("[data-testid=whatif-caution]").InnerTextAsync());

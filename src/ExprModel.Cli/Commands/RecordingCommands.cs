@@ -18,8 +18,13 @@ public static class RecordingCommands
     public static Command Create(CliContext ctx)
     {
         var recording = new Command("recording", "Read recorded current-clamp sweeps and measure them.");
-        var features = new Command("features", "Read-outs per recorded cell (the simulator's definitions, measured on the sweeps): rest, input resistance, time constant, sag, rheobase with the family's step spacing, spike shape, f-I gain, adaptation.");
-        var path = new Argument<string>("path") { Description = "An NWB file (.nwb), a trace table (.csv/.tsv/.txt: time, V, I with units in the headers; optional sweep column) or a directory of them." };
+        var features = new Command("features", "Read-outs per recorded cell (the simulator's definitions, measured on the sweeps): rest, input resistance, " +
+            "time constant, sag, rheobase with the family's step spacing, spike shape, f-I gain, adaptation.");
+        var path = new Argument<string>("path")
+        {
+            Description = "An NWB file (.nwb), a trace table (.csv/.tsv/.txt: time, V, I with units in the headers; " +
+            "optional sweep column) or a directory of them."
+        };
         var format = new Option<string>("--format") { Description = "csv or json", DefaultValueFactory = _ => "csv" };
         var output = new Option<string?>("--out") { Description = "Write to this file (default: standard output)." };
         features.Arguments.Add(path);
@@ -46,7 +51,8 @@ public static class RecordingCommands
 
     private static Command OverlayCommand(CliContext ctx)
     {
-        var c = new Command("overlay", "A recorded sweep and a model's response to the same step (same onset, duration and holding current; pA converted with the model's area) on one time base, as CSV.");
+        var c = new Command("overlay", "A recorded sweep and a model's response to the same step (same onset, duration and holding current; pA converted " +
+            "with the model's area) on one time base, as CSV.");
         var path = new Argument<string>("path") { Description = "An NWB file, a trace table or a directory of them." };
         var model = new Option<string?>("--model") { Description = "Model file (exprmodel JSON), e.g. from exprmodel build --cell ID." };
         var preset = new Option<string?>("--preset") { Description = "A published preset instead of a model file." };
@@ -67,8 +73,10 @@ public static class RecordingCommands
             catch (RecordingFormatException e) { throw new CliException(e.Message); }
             var id = p.GetValue(cell);
             var recorded = id is null
-                ? cells.Count == 1 ? cells[0] : throw new CliException($"{p.GetValue(path)} holds {cells.Count} cells; name one with --cell ({string.Join(", ", cells.Select(x => x.CellId))}).")
-                : cells.FirstOrDefault(x => x.CellId == id) ?? throw new CliException($"{p.GetValue(path)}: no recorded cell '{id}' (cells: {string.Join(", ", cells.Select(x => x.CellId))}).");
+                ? cells.Count == 1 ? cells[0] : throw new CliException($"{p.GetValue(path)} holds {cells.Count} cells; name one with --cell " +
+                    $"({string.Join(", ", cells.Select(x => x.CellId))}).")
+                : cells.FirstOrDefault(x => x.CellId == id) ?? throw new CliException($"{p.GetValue(path)}: no recorded cell '{id}' (cells: " +
+                    $"{string.Join(", ", cells.Select(x => x.CellId))}).");
             var doc = presetId is not null ? ctx.Catalog.Preset(presetId) : ModelDocument.Parse(File.ReadAllText(file!), file!);
             TraceOverlay overlay;
             try { overlay = TraceOverlay.Of(recorded, p.GetValue(sweep), ctx.Catalog.BuildCell(doc)); }
@@ -76,7 +84,9 @@ public static class RecordingCommands
             catch (SimulationBlowUpException e) { throw new CliException($"model {doc.Name}: {e.Message}"); }
             var csv = new CsvTable(
                 [ResearchCaution.Text, $"model: {doc.Name}; recorded: cell {overlay.CellId}, sweep {overlay.SweepNumber} ({recorded.Source})",
-                 FormattableString.Invariant($"step {overlay.Step.AmplitudePa:0.###} pA ({overlay.StepUaPerCm2:0.####} uA/cm2 on the model's area) from {overlay.Step.OnsetMs:0.###} ms for {overlay.Step.DurationMs:0.###} ms, holding {overlay.Step.HoldingPa:0.###} pA"),
+                 FormattableString.Invariant($"step {overlay.Step.AmplitudePa:0.###} pA ({overlay.StepUaPerCm2:0.####} uA/cm2 on the model's area) from ") +
+                     FormattableString.Invariant($"{overlay.Step.OnsetMs:0.###} ms for {overlay.Step.DurationMs:0.###} ms, holding ") +
+                     FormattableString.Invariant($"{overlay.Step.HoldingPa:0.###} pA"),
                  .. overlay.Notes],
                 ["time_ms", "recorded_mv", "predicted_mv", "command_pa"]);
             for (int i = 0; i < overlay.TimeMs.Length; i++) csv.Row(overlay.TimeMs[i], overlay.RecordedMv[i], overlay.PredictedMv[i], overlay.CommandPa[i]);
@@ -101,7 +111,8 @@ public static class RecordingCommands
         header.AddRange(first.Select(x => Column(x.Name, x.Unit)));
         header.Add("notes");
         var csv = new CsvTable(
-            ["Recorded read-outs: measurements from current-clamp sweeps, not model predictions. Definitions as the simulator's (DEVELOPERS.md, Read-outs and Recordings).",
+            ["Recorded read-outs: measurements from current-clamp sweeps, not model predictions. Definitions as the simulator's (DEVELOPERS.md, Read-outs " +
+                "and Recordings).",
              "rheobase_absolute_pa is the smallest recorded step that spikes; the true rheobase lies within rheobase_step_spacing_pa below it."],
             header);
         for (int i = 0; i < measured.Count; i++)
@@ -130,8 +141,12 @@ public static class RecordingCommands
                 ["readouts"] = values,
                 ["fi_curve"] = new JsonArray(r.FiCurve.Select(p => (JsonNode)new JsonObject
                 {
-                    ["sweep"] = p.SweepNumber, ["amplitude_pa"] = p.CurrentPa, ["spike_count"] = p.Rates.SpikesInStep,
-                    ["whole_step_rate_hz"] = p.Rates.WholeStepRateHz, ["first_isi_rate_hz"] = p.Rates.FirstIsiRateHz, ["late_rate_hz"] = p.Rates.LateRateHz,
+                    ["sweep"] = p.SweepNumber,
+                    ["amplitude_pa"] = p.CurrentPa,
+                    ["spike_count"] = p.Rates.SpikesInStep,
+                    ["whole_step_rate_hz"] = p.Rates.WholeStepRateHz,
+                    ["first_isi_rate_hz"] = p.Rates.FirstIsiRateHz,
+                    ["late_rate_hz"] = p.Rates.LateRateHz,
                 }).ToArray()),
                 ["notes"] = new JsonArray(r.Readouts.Notes.Select(n => (JsonNode)JsonValue.Create(n)!).ToArray()),
             });

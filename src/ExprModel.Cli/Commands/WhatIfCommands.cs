@@ -13,7 +13,11 @@ public static class WhatIfCommands
     private sealed class ModelSource
     {
         public readonly Argument<string?> Model = new("model") { Description = "Model file (exprmodel JSON).", Arity = ArgumentArity.ZeroOrOne };
-        public readonly Option<string?> Preset = new("--preset") { Description = "Use a published preset instead of a file (hh1952, wb1996, cortex-rs2008, cortex-fs2008)." };
+        public readonly Option<string?> Preset = new("--preset")
+        {
+            Description = "Use a published preset instead of a file (hh1952, wb1996, cortex-rs2008, " +
+            "cortex-fs2008)."
+        };
         public readonly Option<string?> Out = new("--out") { Description = "Write to this file instead of standard output." };
         public readonly Option<string?> Db = new("--db") { Description = "Catalog database file." };
 
@@ -46,7 +50,8 @@ public static class WhatIfCommands
 
     private static Command KnockdownCommand(CliContext ctx)
     {
-        var c = new Command("knockdown", "Each channel entry (or, with --genes, each gene of a model built from expression) reduced to --level: every read-out's change, ranked.");
+        var c = new Command("knockdown", "Each channel entry (or, with --genes, each gene of a model built from expression) reduced to --level: every " +
+            "read-out's change, ranked.");
         var source = new ModelSource();
         source.AddTo(c);
         var level = new Option<double>("--level") { Description = "Fraction left: 0 = removed, 0.5 = half.", DefaultValueFactory = _ => 0 };
@@ -59,16 +64,22 @@ public static class WhatIfCommands
             var fmt = p.GetValue(format);
             if (fmt is not ("csv" or "table")) throw new CliException("--format must be csv or table.");
             var name = p.GetValue(readout);
-            if (name is not null && ReadoutValues.UnitOf(name) is null) throw new CliException($"--readout: '{name}' is not a read-out (read-outs: {string.Join(", ", ReadoutValues.Names.Select(n => n.Name))}).");
+            if (name is not null && ReadoutValues.UnitOf(name) is null) throw new CliException($"--readout: '{name}' is not a read-out (read-outs: " +
+                $"{string.Join(", ", ReadoutValues.Names.Select(n => n.Name))}).");
             var (doc, cell) = source.Load(p, ctx);
             double lv = p.GetValue(level);
-            var targets = p.GetValue(genes) ? GeneKnockdowns.Targets(doc, cell, lv) : KnockdownTarget.Channels(new DensityProbe(cell, Knockdown.DefaultSettings).ChannelLabels, lv);
-            var report = Knockdown.Run(cell, targets, lv, progress: (done, all) => { if (done == all) ctx.Error.WriteLine($"knockdown: {all} variants measured"); });
+            var targets = p.GetValue(genes) ? GeneKnockdowns.Targets(doc, cell, lv)
+                : KnockdownTarget.Channels(new DensityProbe(cell, Knockdown.DefaultSettings).ChannelLabels, lv);
+            var report = Knockdown.Run(cell, targets, lv,
+                progress: (done, all) => { if (done == all) ctx.Error.WriteLine($"knockdown: {all} variants measured"); });
             var rows = name is null ? report.AllRanked() : report.Ranked(name);
-            var notes = Caution(doc).Concat([$"level {lv.ToString(CultureInfo.InvariantCulture)} of each {(p.GetValue(genes) ? "gene's expression" : "channel's density")}; read-outs with {ReadoutScales.Percent(Knockdown.DefaultSettings.RheobaseRelativeTolerance)} rheobase grid"])
+            var notes = Caution(doc).Concat([$"level {lv.ToString(CultureInfo.InvariantCulture)} of each " +
+                $"{(p.GetValue(genes) ? "gene's expression" : "channel's density")}; read-outs with " +
+                $"{ReadoutScales.Percent(Knockdown.DefaultSettings.RheobaseRelativeTolerance)} rheobase grid"])
                 .Concat(report.Failures.Select(f => $"{f.Key}: {f.Value}")).ToArray();
             var header = new[] { "readout", "unit", "target", "kind", "intact", "knocked_down", "change", "relative_change", "lost" };
-            var cells = rows.Select(r => new object?[] { r.Readout, r.Unit, r.Target, r.Kind.ToString().ToLowerInvariant(), r.Intact, r.KnockedDown, r.Change, r.RelativeChange, r.Lost }).ToArray();
+            var cells = rows.Select(r => new object?[] { r.Readout, r.Unit, r.Target, r.Kind.ToString().ToLowerInvariant(), r.Intact, r.KnockedDown, r.Change,
+                r.RelativeChange, r.Lost }).ToArray();
             ctx.Emit(fmt == "csv" ? Csv(notes, header, cells) : Table(notes, header, cells), p.GetValue(source.Out));
             return 0;
         });
@@ -77,7 +88,8 @@ public static class WhatIfCommands
 
     private static Command SensitivityCommand(CliContext ctx)
     {
-        var c = new Command("sensitivity", "Sensitivity of every read-out to every channel density (central differences in ln density) as CSV: channels x read-outs.");
+        var c = new Command("sensitivity", "Sensitivity of every read-out to every channel density (central differences in ln density) as CSV: channels x " +
+            "read-outs.");
         var source = new ModelSource();
         source.AddTo(c);
         var step = new Option<double>("--step-ln") { Description = "Step in ln(density) (default ln 1.2 = +-20 %).", DefaultValueFactory = _ => Math.Log(1.2) };
@@ -94,16 +106,25 @@ public static class WhatIfCommands
 
     private static Command FitCommand(CliContext ctx)
     {
-        var c = new Command("fit", "Fits relative densities to recorded read-outs under an expression prior; prints the report and writes the fitted model with --out.");
+        var c = new Command("fit", "Fits relative densities to recorded read-outs under an expression prior; prints the report and writes the fitted model " +
+            "with --out.");
         var source = new ModelSource();
         source.AddTo(c);
-        var target = new Option<string[]>("--target") { Description = "A recorded read-out, NAME=VALUE[UNIT] (repeat), e.g. rheobase=45pA.", AllowMultipleArgumentsPerToken = true };
+        var target = new Option<string[]>("--target")
+        {
+            Description = "A recorded read-out, NAME=VALUE[UNIT] (repeat), e.g. rheobase=45pA.",
+            AllowMultipleArgumentsPerToken = true
+        };
         var file = new Option<string?>("--targets") { Description = "Targets table: CSV readout,value,unit[,scale]." };
         var width = new Option<double?>("--prior-width") { Description = "Prior width in ln(relative density) (default ln 2)." };
         var noPrior = new Option<bool>("--no-prior") { Description = "Fit without the expression prior." };
         var starts = new Option<int>("--starts") { Description = "Starting points (the model, then seeded random ones).", DefaultValueFactory = _ => 3 };
         var seed = new Option<int>("--seed") { Description = "Seed of the random starting points.", DefaultValueFactory = _ => 1 };
-        var optimiser = new Option<string>("--optimiser") { Description = "lm (Levenberg-Marquardt, default) or simplex (Nelder-Mead).", DefaultValueFactory = _ => "lm" };
+        var optimiser = new Option<string>("--optimiser")
+        {
+            Description = "lm (Levenberg-Marquardt, default) or simplex (Nelder-Mead).",
+            DefaultValueFactory = _ => "lm"
+        };
         var fix = new Option<string[]>("--fixed") { Description = "Channels held at their density (repeat).", AllowMultipleArgumentsPerToken = true };
         var recorded = new RecordedTargetOptions();
         foreach (var o in new Option[] { target, file, width, noPrior, starts, seed, optimiser, fix }) c.Options.Add(o);
@@ -114,17 +135,20 @@ public static class WhatIfCommands
             var path = p.GetValue(file);
             bool fromRecordings = recorded.Given(p);
             if ((typed.Length > 0 ? 1 : 0) + (path is null ? 0 : 1) + (fromRecordings ? 1 : 0) != 1)
-                throw new CliException("Give the recorded read-outs one way: --target NAME=VALUE[UNIT] ..., --targets FILE, or --recorded FILE / --recordings PATH with --cell ID or --group G.");
+                throw new CliException("Give the recorded read-outs one way: --target NAME=VALUE[UNIT] ..., --targets FILE, or --recorded FILE / " +
+                    "--recordings PATH with --cell ID or --group G.");
             if (p.GetValue(noPrior) && p.GetValue(width) is not null) throw new CliException("--prior-width and --no-prior exclude each other.");
             if (path is not null && !File.Exists(path)) throw new CliException($"{path}: no such targets file.");
             var (doc, cell) = source.Load(p, ctx);
             var fromRecorded = fromRecordings ? recorded.Targets(p, cell.Geometry.AreaUm2) : null;
             foreach (var n in fromRecorded?.Notes ?? []) ctx.Error.WriteLine($"target: {n}");
-            var targets = fromRecorded?.Targets ?? (path is not null ? FitTargetReader.ReadCsv(File.ReadAllText(path), path) : typed.Select(t => FitTargetReader.ParseTyped(t)).ToArray());
+            var targets = fromRecorded?.Targets ?? (path is not null ? FitTargetReader.ReadCsv(File.ReadAllText(path), path)
+                : typed.Select(t => FitTargetReader.ParseTyped(t)).ToArray());
             var settings = FitSettings.Default with
             {
                 // Read-outs from sweeps are measured on the recorded step; the model is measured on the same.
-                Readouts = fromRecorded?.StepDurationMs is { } stepMs ? FitSettings.Default.Readouts with { StepDurationMs = stepMs } : FitSettings.Default.Readouts,
+                Readouts = fromRecorded?.StepDurationMs is { } stepMs ? FitSettings.Default.Readouts with { StepDurationMs = stepMs }
+                    : FitSettings.Default.Readouts,
                 PriorWidth = p.GetValue(noPrior) ? null : p.GetValue(width) ?? FitSettings.Default.PriorWidth,
                 Starts = p.GetValue(starts),
                 Seed = p.GetValue(seed),
@@ -155,13 +179,17 @@ public static class WhatIfCommands
         var sb = new StringBuilder();
         sb.AppendLine(Table([.. Caution(doc), fit.Summary],
             ["channel", "start_relative", "fitted_relative", "fold_change_from_expression", "pinned_by_data", "data_sd_ln", "at_bound"],
-            fit.Channels.Select(ch => new object?[] { ch.Channel, ch.StartRelative, ch.FittedRelative, ch.FoldChange, ch.Fixed ? "fixed" : ch.Pinned ? "yes" : "no (free)", double.IsFinite(ch.DataSdLn) ? ch.DataSdLn : null, ch.AtBound }).ToArray()));
+            fit.Channels.Select(ch => new object?[] { ch.Channel, ch.StartRelative, ch.FittedRelative, ch.FoldChange,
+                ch.Fixed ? "fixed" : ch.Pinned ? "yes" : "no (free)", double.IsFinite(ch.DataSdLn) ? ch.DataSdLn : null, ch.AtBound }).ToArray()));
         sb.AppendLine(Table([], ["readout", "unit", "recorded", "scale", "before", "after", "scaled_residual_after"],
             fit.Residuals.Select(r => new object?[] { r.Readout, r.Unit, r.Recorded, r.Scale, r.Before, r.After, r.ScaledAfter }).ToArray()));
-        sb.AppendLine(Table([$"singular values of the scaled sensitivity matrix (a direction is pinned when 1/s <= {fit.Settings.PinnedWithinLn:0.###} ln units)"],
+        sb.AppendLine(Table([$"singular values of the scaled sensitivity matrix (a direction is pinned " +
+            $"when 1/s <= {fit.Settings.PinnedWithinLn:0.###} ln units)"],
             ["singular_value", "pinned", "direction"],
-            fit.Identifiability.SingularValues.Select((v, k) => new object?[] { v, fit.Identifiability.DirectionPinned[k] ? "yes" : "no", fit.Identifiability.Directions[k] }).ToArray()));
-        sb.AppendLine(FormattableString.Invariant($"objective {fit.ObjectiveBefore:G4} -> {fit.ObjectiveAfter:G4}; {fit.Evaluations} evaluations; seed {fit.Settings.Seed}; ") +
+            fit.Identifiability.SingularValues.Select((v, k) => new object?[] { v, fit.Identifiability.DirectionPinned[k] ? "yes" : "no",
+                fit.Identifiability.Directions[k] }).ToArray()));
+        sb.AppendLine(FormattableString.Invariant($"objective {fit.ObjectiveBefore:G4} -> {fit.ObjectiveAfter:G4}; ") +
+            FormattableString.Invariant($"{fit.Evaluations} evaluations; seed {fit.Settings.Seed}; ") +
             string.Join("; ", fit.Starts.Select(s => FormattableString.Invariant($"start {s.Index}: {s.Objective:G4} ({s.Exit})"))));
         if (noFile) sb.AppendLine("(give --out MODEL.json to save the fitted model)");
         return sb.ToString();
@@ -177,7 +205,13 @@ public static class WhatIfCommands
     /// <summary>Aligned text columns for the terminal, numbers to four significant digits; notes first as '#' lines.</summary>
     private static string Table(IEnumerable<string> notes, string[] header, object?[][] rows)
     {
-        string Cell(object? v) => v switch { null => "-", double d => d.ToString("G4", CultureInfo.InvariantCulture), bool b => b ? "yes" : "", _ => Convert.ToString(v, CultureInfo.InvariantCulture) ?? "" };
+        string Cell(object? v) => v switch
+        {
+            null => "-",
+            double d => d.ToString("G4", CultureInfo.InvariantCulture),
+            bool b => b ? "yes" : "",
+            _ => Convert.ToString(v, CultureInfo.InvariantCulture) ?? ""
+        };
         var text = rows.Select(r => r.Select(Cell).ToArray()).Prepend(header).ToArray();
         var widths = header.Select((_, j) => text.Max(r => r[j].Length)).ToArray();
         var sb = new StringBuilder();

@@ -8,6 +8,9 @@ namespace ExprModel.Core.Confrontation;
 public sealed record CellComparison(string CellId, string? Group, string Model, string Readout, string Unit, double? Predicted, double? Recorded,
     double? Difference, double? ZScore, string Note)
 {
-    /// <summary>Where the recorded value came from ("sweeps FH1001.nwb", "table metadata.csv, column '...'"); empty when the one table gave every value.</summary>
+    /// <summary>
+    /// Where the recorded value came from ("sweeps FH1001.nwb", "table metadata.csv, column '...'"); empty when the one
+    /// table gave every value.
+    /// </summary>
     public string RecordedSource { get; init; } = "";
 }

@@ -23,15 +23,18 @@ public static class PredictedVersusRecorded
             var targets = recorded.RecordedCells.Select(ModelTarget.ForCell).ToArray();
             PerCellShrinkage? shrink = shrinkage == ShrinkageMode.Group ? data.Shrink(report) : null;
             note = shrink?.Note ?? "per-cell expression as read (not shrunk).";
-            var rows = BatchReadouts.Run(data.Table, report, data.Catalog, rule, targets, data.Groups, 0, targets.Length, n => progress?.Invoke(n, targets.Length), cancel, shrink);
+            var rows = BatchReadouts.Run(data.Table, report, data.Catalog, rule, targets, data.Groups, 0, targets.Length,
+                n => progress?.Invoke(n, targets.Length), cancel, shrink);
             foreach (var r in rows) predictions[r.Item] = new CellPrediction(r.Item, r.Readouts, r.Warnings);
         }
         else
         {
             if (data.Groups is null) throw new ArgumentException("Group models need a metadata table and a group column.");
-            var groups = recorded.RecordedCells.Select(c => groupOf.GetValueOrDefault(c)).OfType<string>().Distinct(StringComparer.Ordinal).Order(StringComparer.Ordinal).ToArray();
+            var groups = recorded.RecordedCells.Select(c => groupOf.GetValueOrDefault(c)).OfType<string>().Distinct(StringComparer.Ordinal)
+                .Order(StringComparer.Ordinal).ToArray();
             var targets = groups.Select(ModelTarget.ForGroup).ToArray();
-            var rows = BatchReadouts.Run(data.Table, report, data.Catalog, rule, targets, data.Groups, 0, targets.Length, n => progress?.Invoke(n, targets.Length), cancel);
+            var rows = BatchReadouts.Run(data.Table, report, data.Catalog, rule, targets, data.Groups, 0, targets.Length,
+                n => progress?.Invoke(n, targets.Length), cancel);
             var byGroup = rows.ToDictionary(r => r.Item, StringComparer.Ordinal);
             foreach (var cell in recorded.RecordedCells)
                 predictions[cell] = groupOf.TryGetValue(cell, out var g)
@@ -61,12 +64,17 @@ public static class PredictedVersusRecorded
                 double? area = p?.Readouts?.AreaUm2 is > 0 and var a ? a : null;
                 double? rec = r.ColumnUnit.Quantity == r.ReadoutUnit.Quantity || area is not null ? r.InReadoutUnit(raw, area) : null;
                 double? pred = p?.Readouts?.Rows().First(x => x.Name == r.Readout).Value is { } v && double.IsFinite(v) ? v : null;
-                string why = p is null ? "not predicted." : p.Readouts is null ? p.Warnings : pred is null ? $"the model gives no {r.Readout}" + (p.Warnings.Length > 0 ? $" ({p.Warnings})" : ".") : "";
+                string why = p is null ? "not predicted."
+                    : p.Readouts is null ? p.Warnings
+                    : pred is null ? $"the model gives no {r.Readout}" + (p.Warnings.Length > 0 ? $" ({p.Warnings})" : ".")
+                    : "";
                 if (rec is null) why = $"recorded {r.ColumnUnit.Symbol} needs the model's area to convert; " + why;
                 string source = r.SourceByCell?.GetValueOrDefault(cell) ?? "";
                 // With several sources every row names its own; the table-only output stays as it was.
-                if (source.Length > 0) why = string.Join(" ", new[] { $"recorded: {source}.", r.NoteByCell?.GetValueOrDefault(cell) ?? "", why }.Where(x => x.Length > 0));
-                rows.Add(new CellComparison(cell, groupOf(cell), p?.Model ?? "-", r.Readout, unit, pred, rec, pred - rec, null, why) { RecordedSource = source });
+                if (source.Length > 0)
+                    why = string.Join(" ", new[] { $"recorded: {source}.", r.NoteByCell?.GetValueOrDefault(cell) ?? "", why }.Where(x => x.Length > 0));
+                rows.Add(new CellComparison(cell, groupOf(cell), p?.Model ?? "-", r.Readout, unit, pred, rec, pred - rec, null, why)
+                    { RecordedSource = source });
             }
             foreach (var g in rows.GroupBy(c => c.Group ?? "", StringComparer.Ordinal).OrderBy(g => g.Key, StringComparer.Ordinal))
             {
@@ -76,7 +84,9 @@ public static class PredictedVersusRecorded
                 double? recMean = rec.Length > 0 ? rec.Average() : null;
                 double? predMean = both.Length > 0 ? both.Average(c => c.Predicted!.Value) : null;
                 double? diff = both.Length > 0 ? both.Average(c => c.Predicted!.Value) - both.Average(c => c.Recorded!.Value) : null;
-                string note = sd is null ? $"z-score undefined: {rec.Length} recorded cell(s), fewer than {AgreementStatistics.MinimumCells}." : sd == 0 ? "z-score undefined: no recorded spread." : "";
+                string note = sd is null ? $"z-score undefined: {rec.Length} recorded cell(s), fewer than {AgreementStatistics.MinimumCells}."
+                    : sd == 0 ? "z-score undefined: no recorded spread."
+                    : "";
                 double? scale = sd is > 0 ? sd : null;
                 if (g.Key.Length > 0)
                     groups.Add(new GroupComparison(g.Key, r.Readout, unit, rec.Length, recMean, sd, both.Length, predMean, diff, diff / scale, note));
@@ -88,9 +98,11 @@ public static class PredictedVersusRecorded
                     });
             }
             var paired = rows.Where(c => c.Predicted is not null && c.Recorded is not null).ToArray();
-            agreement.Add(AgreementStatistics.Of(r.Readout, unit, paired.Select(c => c.Predicted!.Value).ToArray(), paired.Select(c => c.Recorded!.Value).ToArray()));
+            agreement.Add(AgreementStatistics.Of(r.Readout, unit, paired.Select(c => c.Predicted!.Value).ToArray(),
+                paired.Select(c => c.Recorded!.Value).ToArray()));
         }
-        return new ConfrontationResult { Recorded = recorded, Per = per, ExpressionNote = expressionNote, Cells = cells, Groups = groups, Agreement = agreement };
+        return new ConfrontationResult { Recorded = recorded, Per = per, ExpressionNote = expressionNote, Cells = cells, Groups = groups,
+            Agreement = agreement };
     }
 
     private static Dictionary<string, string> GroupOf(ExpressionDataset data)

@@ -34,7 +34,8 @@ public static class ReadoutMatcher
 
     /// <param name="isExpressionCell">True for a cell id of the expression table; a recorded cell that is not is an error.</param>
     /// <param name="overrides">Column (header, or header without its unit) to read-out name, or to "none".</param>
-    /// <exception cref="ExpressionFormatException">Unknown unit of a matched column, a value that is not a number, a cell not in the expression table.</exception>
+    /// <exception cref="ExpressionFormatException">Unknown unit of a matched column, a value that is not a number, a
+    /// cell not in the expression table.</exception>
     /// <exception cref="ArgumentException">An override naming no column or no read-out, or joining units that do not convert.</exception>
     public static RecordedFeatures Match(RecordedFeatureTable table, Func<string, bool> isExpressionCell, IReadOnlyDictionary<string, string>? overrides = null)
     {
@@ -47,11 +48,13 @@ public static class ReadoutMatcher
             if (j == table.CellIdColumnNumber - 1) continue;
             var (match, values) = MatchColumn(table, j, byColumn.GetValueOrDefault(j));
             if (match.Readout is { } name && taken.TryGetValue(name, out var earlier))
-                match = match with { Readout = null, ReadoutUnit = null, Reason = $"read-out {name} is already matched to column '{earlier}'; map one of them elsewhere or to none." };
+                match = match with { Readout = null, ReadoutUnit = null,
+                    Reason = $"read-out {name} is already matched to column '{earlier}'; map one of them elsewhere or to none." };
             matches.Add(match);
             if (match.Readout is null || values is null) continue;
             taken[match.Readout] = match.Header;
-            readouts.Add(new RecordedReadout(match.Readout, match.Header, MeasurementUnits.Parse(match.ColumnUnit)!, MeasurementUnits.Parse(match.ReadoutUnit)!, values));
+            readouts.Add(new RecordedReadout(match.Readout, match.Header, MeasurementUnits.Parse(match.ColumnUnit)!,
+                MeasurementUnits.Parse(match.ReadoutUnit)!, values));
         }
         var recorded = new List<string>();
         for (int i = 0; i < table.CellIds.Count; i++)
@@ -59,7 +62,8 @@ public static class ReadoutMatcher
             string cell = table.CellIds[i];
             if (!readouts.Any(r => r.ValueByCell.ContainsKey(cell))) continue;
             if (!isExpressionCell(cell))
-                throw new ExpressionFormatException($"{table.Source}: line {table.Lines[i]}, column {table.CellIdColumnNumber}: cell '{cell}' has recorded values but is not in the expression table.");
+                throw new ExpressionFormatException($"{table.Source}: line {table.Lines[i]}, column {table.CellIdColumnNumber}: cell '{cell}' has recorded " +
+                    "values but is not in the expression table.");
             recorded.Add(cell);
         }
         return new RecordedFeatures { Source = table.Source, Matches = matches, Readouts = readouts, RecordedCells = recorded, Notes = table.Notes };
@@ -92,22 +96,26 @@ public static class ReadoutMatcher
         {
             if (!anyValue) return (Out("empty column."), null);
             if (!IsNumeric(table, j)) return (Out("text, not numbers (a label column)."), null);
-            return (Out(DifferentDefinitions.TryGetValue(key, out var why) ? why : $"no read-out is named '{key}' (map it with {header}=READOUT if one measures the same)."), null);
+            return (Out(DifferentDefinitions.TryGetValue(key, out var why) ? why
+                : $"no read-out is named '{key}' (map it with {header}=READOUT if one measures the same)."), null);
         }
         if (unitText is null)
         {
-            if (byUser) throw new ArgumentException($"{table.Source}: column '{header}' states no unit; write it in the header, e.g. '{name} (mV)', to map it.");
+            if (byUser) throw new ArgumentException($"{table.Source}: column '{header}' states no unit; write it in the header, e.g. '{name} (mV)', to map " +
+                "it.");
             return (Out($"the header states no unit; write it as '{name} (unit)' to compare it with {candidates[0].Name}."), null);
         }
         var unit = MeasurementUnits.Parse(unitText)
-            ?? throw new ExpressionFormatException($"{table.Source}: line 1, column {j + 1}: unknown unit '{unitText}' in header '{header}' (known: {MeasurementUnits.KnownSymbols}).");
+            ?? throw new ExpressionFormatException($"{table.Source}: line 1, column {j + 1}: unknown unit '{unitText}' in header '{header}' (known: " +
+                $"{MeasurementUnits.KnownSymbols}).");
         var same = candidates.FirstOrDefault(c => MeasurementUnits.CanConvert(unit, MeasurementUnits.Parse(c.Unit)!, withArea: false));
         var withArea = candidates.FirstOrDefault(c => MeasurementUnits.CanConvert(unit, MeasurementUnits.Parse(c.Unit)!, withArea: true));
         var target = same.Name is not null ? same : withArea;
         if (target.Name is null)
         {
             string what = string.Join(" or ", candidates.Select(c => $"{c.Name} ({c.Unit})"));
-            if (byUser) throw new ArgumentException($"{table.Source}: column '{header}' is in {unitText} ({unit.Quantity}); read-out {what} cannot be compared with it.");
+            if (byUser) throw new ArgumentException($"{table.Source}: column '{header}' is in {unitText} ({unit.Quantity}); read-out {what} cannot be " +
+                "compared with it.");
             return (Out($"its unit {unitText} ({unit.Quantity}) does not measure {what}."), null);
         }
         var values = Parse(table, j);
@@ -117,7 +125,8 @@ public static class ReadoutMatcher
     }
 
     private static bool IsNumeric(RecordedFeatureTable table, int j) =>
-        table.Rows.All(row => CellMetadataReader.Missing.Contains(row[j].Trim()) || double.TryParse(row[j], NumberStyles.Float, CultureInfo.InvariantCulture, out _));
+        table.Rows.All(row => CellMetadataReader.Missing.Contains(row[j].Trim())
+            || double.TryParse(row[j], NumberStyles.Float, CultureInfo.InvariantCulture, out _));
 
     private static Dictionary<string, double> Parse(RecordedFeatureTable table, int j)
     {
@@ -127,7 +136,8 @@ public static class ReadoutMatcher
             string text = table.Rows[i][j].Trim();
             if (CellMetadataReader.Missing.Contains(text)) continue;
             if (!double.TryParse(text, NumberStyles.Float, CultureInfo.InvariantCulture, out double v) || !double.IsFinite(v))
-                throw new ExpressionFormatException($"{table.Source}: line {table.Lines[i]}, column {j + 1}: '{text}' in '{table.Headers[j]}' is not a number (use a decimal point; leave a missing value empty).");
+                throw new ExpressionFormatException($"{table.Source}: line {table.Lines[i]}, column {j + 1}: '{text}' in '{table.Headers[j]}' is not a " +
+                    "number (use a decimal point; leave a missing value empty).");
             values[table.CellIds[i]] = v;
         }
         return values;

@@ -56,10 +56,12 @@ public static class RecordedFitTargets
     /// rheobase lies in the spacing below the smallest spiking step, so the target is the spacing's midpoint and its
     /// scale at least the SD of a value uniform over it (spacing / sqrt 12).</param>
     /// <param name="readouts">Read-outs to use (default <see cref="DefaultReadouts"/>).</param>
-    public static RecordedTargets ForCell(RecordedFeatures recorded, string cellId, double? areaUm2, double? rheobaseStepSpacingPa = null, IReadOnlyCollection<string>? readouts = null)
+    public static RecordedTargets ForCell(RecordedFeatures recorded, string cellId, double? areaUm2, double? rheobaseStepSpacingPa = null,
+        IReadOnlyCollection<string>? readouts = null)
     {
         if (!recorded.RecordedCells.Contains(cellId))
-            throw new ArgumentException($"{recorded.Source}: no recorded values for cell '{cellId}' (recorded cells: {string.Join(", ", recorded.RecordedCells.Take(20))}{(recorded.RecordedCells.Count > 20 ? ", ..." : "")}).");
+            throw new ArgumentException($"{recorded.Source}: no recorded values for cell '{cellId}' (recorded cells: " +
+                $"{string.Join(", ", recorded.RecordedCells.Take(20))}{(recorded.RecordedCells.Count > 20 ? ", ..." : "")}).");
         var targets = new List<FitTarget>();
         var notes = new List<string>();
         foreach (var r in Chosen(recorded, readouts, notes))
@@ -70,17 +72,20 @@ public static class RecordedFitTargets
             if (r.Readout == "rheobase_absolute" && rheobaseStepSpacingPa is > 0 and var spacing)
             {
                 t = new FitTarget(r.Readout, v - spacing / 2, Math.Max(t.Scale, spacing / Math.Sqrt(12)));
-                notes.Add(FormattableString.Invariant($"rheobase_absolute: the smallest spiking step is {v:G4} pA and the step below it {v - spacing:G4} pA; target the midpoint {t.Value:G4} pA, scale {t.Scale:G3} pA."));
+                notes.Add(FormattableString.Invariant($"rheobase_absolute: the smallest spiking step is {v:G4} pA and the step below it {v - spacing:G4} ") +
+                    FormattableString.Invariant($"pA; target the midpoint {t.Value:G4} pA, scale {t.Scale:G3} pA."));
             }
             targets.Add(t);
         }
         if (targets.Count == 0) throw new ArgumentException($"{recorded.Source}: cell '{cellId}' has no recorded value of a read-out that can be fitted.");
-        notes.Add($"cell {cellId}: {targets.Count} target(s), each with the read-out's default scale (1 mV for potentials, 5 % otherwise; sag ratio at least {MinimumSagScale}).");
+        notes.Add($"cell {cellId}: {targets.Count} target(s), each with the read-out's default scale (1 mV for potentials, 5 % otherwise; sag ratio at least " +
+            $"{MinimumSagScale}).");
         return new RecordedTargets(targets, notes);
     }
 
     /// <summary>A group's recorded mean per read-out, scaled by its recorded SD (default scale below 3 cells).</summary>
-    public static RecordedTargets ForGroup(RecordedFeatures recorded, string group, IReadOnlyCollection<string> members, double? areaUm2, IReadOnlyCollection<string>? readouts = null)
+    public static RecordedTargets ForGroup(RecordedFeatures recorded, string group, IReadOnlyCollection<string> members, double? areaUm2,
+        IReadOnlyCollection<string>? readouts = null)
     {
         var targets = new List<FitTarget>();
         var notes = new List<string>();
@@ -97,10 +102,12 @@ public static class RecordedFitTargets
                 t = t with { Scale = sd };
                 notes.Add(FormattableString.Invariant($"{r.Readout}: mean of {values.Length} cells {mean:G4} {t.Unit}, scale their SD {sd:G3}."));
             }
-            else notes.Add(FormattableString.Invariant($"{r.Readout}: mean of {values.Length} cell(s) {mean:G4} {t.Unit}; fewer than {AgreementStatistics.MinimumCells} (or no spread), so the default scale {t.Scale:G3}."));
+            else notes.Add(FormattableString.Invariant($"{r.Readout}: mean of {values.Length} cell(s) {mean:G4} {t.Unit}; fewer than ") +
+                FormattableString.Invariant($"{AgreementStatistics.MinimumCells} (or no spread), so the default scale {t.Scale:G3}."));
             targets.Add(t);
         }
-        if (targets.Count == 0) throw new ArgumentException($"{recorded.Source}: no cell of group '{group}' has a recorded value of a read-out that can be fitted.");
+        if (targets.Count == 0) throw new ArgumentException($"{recorded.Source}: no cell of group '{group}' has a recorded value of a read-out that can be " +
+            "fitted.");
         return new RecordedTargets(targets, notes);
     }
 
@@ -116,12 +123,14 @@ public static class RecordedFitTargets
     {
         var wanted = readouts ?? DefaultReadouts;
         foreach (var name in wanted)
-            if (ReadoutValues.UnitOf(name) is null) throw new ArgumentException($"'{name}' is not a read-out (read-outs: {string.Join(", ", ReadoutValues.Names.Select(n => n.Name))}).");
+            if (ReadoutValues.UnitOf(name) is null) throw new ArgumentException($"'{name}' is not a read-out (read-outs: " +
+                $"{string.Join(", ", ReadoutValues.Names.Select(n => n.Name))}).");
         foreach (var r in recorded.Readouts)
         {
             if (!wanted.Contains(r.Readout))
             {
-                notes.Add($"{r.Readout}: recorded but not fitted ({(ReadoutScales.KindOf(r.Readout) == ElasticityKind.None ? "discrete" : "not among the read-outs chosen")}).");
+                notes.Add($"{r.Readout}: recorded but not fitted " +
+                    $"({(ReadoutScales.KindOf(r.Readout) == ElasticityKind.None ? "discrete" : "not among the read-outs chosen")}).");
                 continue;
             }
             if (ReadoutScales.KindOf(r.Readout) == ElasticityKind.None) throw new ArgumentException($"'{r.Readout}' is discrete and cannot be fitted.");

@@ -6,7 +6,8 @@ namespace ExprModel.Core.Confrontation;
 /// <param name="Readout">The read-out's name (as in <c>CellReadouts.Rows()</c>).</param>
 /// <param name="Header">The column the values came from.</param>
 /// <param name="ValueByCell">Recorded value per cell id, in <paramref name="ColumnUnit"/>; cells without a value are absent.</param>
-public sealed record RecordedReadout(string Readout, string Header, MeasurementUnit ColumnUnit, MeasurementUnit ReadoutUnit, IReadOnlyDictionary<string, double> ValueByCell)
+public sealed record RecordedReadout(string Readout, string Header, MeasurementUnit ColumnUnit, MeasurementUnit ReadoutUnit,
+    IReadOnlyDictionary<string, double> ValueByCell)
 {
     /// <summary>A recorded value in the read-out's unit; <paramref name="areaUm2"/> is the model cell's area for current versus
     /// current density.</summary>

@@ -29,11 +29,13 @@ public static class RecordedSweepFeatures
     {
         foreach (var m in measured)
             if (!isExpressionCell(m.CellId))
-                throw new RecordingFormatException($"{m.Source}: recorded cell '{m.CellId}' is not in the expression table (its cell ids must match the recordings' cell ids).");
+                throw new RecordingFormatException($"{m.Source}: recorded cell '{m.CellId}' is not in the expression table (its cell ids must match the " +
+                    "recordings' cell ids).");
         var matches = new List<ReadoutMatch>();
         var readouts = new List<RecordedReadout>();
         int column = 0;
-        foreach (var (name, unit) in ReadoutMatcher.Readouts.Where(r => MeasurementUnits.Parse(r.Unit)!.Quantity is not (Quantity.CurrentDensity or Quantity.RatePerCurrentDensity)))
+        foreach (var (name, unit) in ReadoutMatcher.Readouts.Where(r =>
+                     MeasurementUnits.Parse(r.Unit)!.Quantity is not (Quantity.CurrentDensity or Quantity.RatePerCurrentDensity)))
         {
             column++;
             string header = $"{name} ({unit}), from the sweeps";
@@ -56,7 +58,8 @@ public static class RecordedSweepFeatures
                 continue;
             }
             var u = MeasurementUnits.Parse(unit)!;
-            matches.Add(new ReadoutMatch(column, header, name, unit, unit, false, $"measured from the sweeps with the simulator's definition -> {name} ({unit})."));
+            matches.Add(new ReadoutMatch(column, header, name, unit, unit, false,
+                $"measured from the sweeps with the simulator's definition -> {name} ({unit})."));
             readouts.Add(new RecordedReadout(name, header, u, u, values) { SourceByCell = sources });
         }
         var cells = measured.Where(m => readouts.Any(r => r.ValueByCell.ContainsKey(m.CellId))).Select(m => m.CellId).ToArray();
@@ -83,7 +86,8 @@ public static class RecordedSweepFeatures
             }
             if (!MeasurementUnits.CanConvert(t.ColumnUnit, s.ReadoutUnit, withArea: false))
             {
-                notes.Add($"{table.Source}: column '{t.Header}' ({t.ColumnUnit.Symbol}) needs the cell's area to become {s.Readout} ({s.ReadoutUnit.Symbol}); the sweeps' values alone are compared.");
+                notes.Add($"{table.Source}: column '{t.Header}' ({t.ColumnUnit.Symbol}) needs the cell's area to become {s.Readout} " +
+                    $"({s.ReadoutUnit.Symbol}); the sweeps' values alone are compared.");
                 readouts.Add(s);
                 continue;
             }
@@ -94,7 +98,8 @@ public static class RecordedSweepFeatures
             {
                 double v = MeasurementUnits.Convert(raw, t.ColumnUnit, s.ReadoutUnit, null);
                 if (values.TryGetValue(cell, out var swept))
-                    cellNotes[cell] = FormattableString.Invariant($"the table {table.Source} ('{t.Header}') gives {v:G4} {s.ReadoutUnit.Symbol}; the sweeps' {swept:G4} is used.");
+                    cellNotes[cell] = FormattableString.Invariant($"the table {table.Source} ('{t.Header}') gives {v:G4} {s.ReadoutUnit.Symbol}; the ") +
+                        FormattableString.Invariant($"sweeps' {swept:G4} is used.");
                 else
                 {
                     values[cell] = v;

@@ -26,24 +26,28 @@ public sealed record TraceOverlay
     public IReadOnlyList<string> Notes { get; init; } = [];
 
     /// <summary>Simulates <paramref name="model"/> with a sweep's step and pairs it with the recording.</summary>
-    /// <param name="sweepNumber">The sweep; null picks the recorded rheobase sweep (the smallest step with a regenerative spike), else the largest usable step.</param>
+    /// <param name="sweepNumber">The sweep; null picks the recorded rheobase sweep (the smallest step with a
+    /// regenerative spike), else the largest usable step.</param>
     /// <exception cref="ArgumentException">No such sweep, or a sweep without a usable step (the reason is named).</exception>
     /// <exception cref="SimulationBlowUpException">The model has no stable response to the step.</exception>
     public static TraceOverlay Of(RecordedCell cell, int? sweepNumber, CellModel model, ReadoutSettings? settings = null, CancellationToken cancel = default)
     {
         var s = settings ?? ReadoutSettings.Default;
         var sweep = sweepNumber is { } n
-            ? cell.Sweeps.FirstOrDefault(w => w.SweepNumber == n) ?? throw new ArgumentException($"{cell.Source}: cell {cell.CellId} has no sweep {n} (sweeps: {string.Join(", ", cell.Sweeps.Select(w => w.SweepNumber))}).")
+            ? cell.Sweeps.FirstOrDefault(w => w.SweepNumber == n) ?? throw new ArgumentException($"{cell.Source}: cell {cell.CellId} has no sweep {n} " +
+                $"(sweeps: {string.Join(", ", cell.Sweeps.Select(w => w.SweepNumber))}).")
             : DefaultSweep(cell);
         var step = sweep.Step ?? throw new ArgumentException($"{sweep.Source}: {sweep.StepProblem ?? "no step"}; nothing to simulate.");
         var notes = new List<string>();
-        if (sweep.CommandDurationMs is not null) notes.Add($"{sweep.Source}: the recording stops at {sweep.DurationMs:0.#} ms, before its command ends; the model runs as long as the recording.");
+        if (sweep.CommandDurationMs is not null) notes.Add($"{sweep.Source}: the recording stops at {sweep.DurationMs:0.#} ms, before its command ends; the " +
+            "model runs as long as the recording.");
         double stepDensity = CurrentUnits.ToDensity(step.AmplitudePa, CurrentUnit.Pa, model.Geometry);
         double holdingDensity = CurrentUnits.ToDensity(step.HoldingPa, CurrentUnit.Pa, model.Geometry);
         var compiled = new CompiledCell(model);
         var sim = s.Simulation;
         var rest = Simulator.Run(compiled, new StepCurrent(0, 0, 0, holdingDensity), s.SettleMs, sim with { RecordEvery = 0 }, null, cancel).FinalState;
-        var trace = Simulator.Run(compiled, new StepCurrent(step.OnsetMs, step.DurationMs, stepDensity, holdingDensity), sweep.DurationMs, sim with { RecordEvery = 1 }, rest, cancel);
+        var trace = Simulator.Run(compiled, new StepCurrent(step.OnsetMs, step.DurationMs, stepDensity, holdingDensity), sweep.DurationMs,
+            sim with { RecordEvery = 1 }, rest, cancel);
         int count = sweep.VoltageMv.Length;
         var time = new double[count];
         var predicted = new double[count];
@@ -54,7 +58,8 @@ public sealed record TraceOverlay
         }
         double recordedBase = SweepAnalysis.Mean(sweep.VoltageMv.AsSpan(0, Math.Max(1, (int)(step.OnsetMs / sweep.SampleIntervalMs))));
         double predictedBase = SweepAnalysis.Mean(predicted.AsSpan(0, Math.Max(1, (int)(step.OnsetMs / sweep.SampleIntervalMs))));
-        notes.Add(FormattableString.Invariant($"Baseline before the step: recorded {recordedBase:0.##} mV, model {predictedBase:0.##} mV (no offset is applied to either trace)."));
+        notes.Add(FormattableString.Invariant($"Baseline before the step: recorded {recordedBase:0.##} mV, model {predictedBase:0.##} mV (no offset is ") +
+            "applied to either trace).");
         return new TraceOverlay
         {
             CellId = cell.CellId, SweepNumber = sweep.SweepNumber, Step = step, StepUaPerCm2 = stepDensity, HoldingUaPerCm2 = holdingDensity,

@@ -24,8 +24,10 @@ public static class DensityFit
         foreach (var dup in targets.GroupBy(t => t.Readout).Where(g => g.Count() > 1)) throw new ArgumentException($"target {dup.Key} is given twice.");
         var probe = DensityProbe.For(model, s.Readouts, targets.Select(t => t.Readout));
         var labels = probe.ChannelLabels;
-        foreach (var f in s.FixedChannels) if (!labels.Contains(f)) throw new ArgumentException($"fixed channel '{f}' is not in the model (channels: {string.Join(", ", labels)}).");
-        var fitted = Enumerable.Range(0, labels.Count).Where(k => model.Channels[k].EffectiveDensityMsPerCm2 > 0 && !s.FixedChannels.Contains(labels[k])).ToArray();
+        foreach (var f in s.FixedChannels) if (!labels.Contains(f)) throw new ArgumentException($"fixed channel '{f}' is not in the model (channels: " +
+            $"{string.Join(", ", labels)}).");
+        var fitted = Enumerable.Range(0, labels.Count).Where(k => model.Channels[k].EffectiveDensityMsPerCm2 > 0
+            && !s.FixedChannels.Contains(labels[k])).ToArray();
         if (fitted.Length == 0) throw new ArgumentException("No channel is left to fit (all fixed or at zero density).");
         var (lower, upper) = Bounds(model, fitted, s.MaxFoldChange);
         var objective = new FitObjective(probe, targets, fitted, lower, upper, s.PriorWidth);
@@ -62,11 +64,15 @@ public static class DensityFit
         double misfitBefore = Rms(objective.TargetResiduals(x0, cancel)), misfitAfter = Rms(objective.TargetResiduals(xBest, cancel));
         var startRecords = results.Select((r, i) => new FitStart(i + 1, starts[i].Select(Math.Exp).ToArray(), r.Cost, r.Exit)).ToArray();
         var summary = FitReport.Summary(residuals, channels, misfitBefore, misfitAfter);
-        var partial = new FitResult(doc, channels, residuals, ident, costBefore, costAfter, misfitBefore, misfitAfter, startRecords, probe.Evaluations, s, summary);
+        var partial = new FitResult(doc, channels, residuals, ident, costBefore, costAfter, misfitBefore, misfitAfter, startRecords,
+            probe.Evaluations, s, summary);
         return partial with { Document = FitReport.Document(doc, partial) };
     }
 
-    /// <summary>Bounds of ln(rel) per fitted channel from the entry's plausible range, at most the fold change given, and always containing the start.</summary>
+    /// <summary>
+    /// Bounds of ln(rel) per fitted channel from the entry's plausible range, at most the fold change given, and always
+    /// containing the start.
+    /// </summary>
     private static (double[] Lower, double[] Upper) Bounds(CellModel model, int[] fitted, double maxFold)
     {
         double cap = Math.Log(maxFold);

@@ -10,7 +10,8 @@ namespace ExprModel.Core.Perturbation;
 /// </summary>
 internal static class FitOptimisers
 {
-    public static (double[] Point, double Cost, string Exit) Run(FitObjective objective, double[] start, FitSettings s, Action onEvaluation, CancellationToken cancel)
+    public static (double[] Point, double Cost, string Exit) Run(FitObjective objective, double[] start, FitSettings s, Action onEvaluation,
+        CancellationToken cancel)
     {
         double[] best = start;
         double bestCost = double.PositiveInfinity;
@@ -76,7 +77,8 @@ internal static class FitOptimisers
         var model = ObjectiveFunction.NonlinearModel((p, _) => F(p), (p, _) => J(p), Vector<double>.Build.Dense(m, i => i), y);
         // Each iteration costs a Jacobian (n evaluations) and at least one trial point.
         int iterations = Math.Max(2, s.MaxEvaluationsPerStart / (n + 2));
-        var lm = new LevenbergMarquardtMinimizer(initialMu: 1e-3, gradientTolerance: 1e-6, stepTolerance: 1e-3, functionTolerance: 1e-6, maximumIterations: iterations);
+        var lm = new LevenbergMarquardtMinimizer(initialMu: 1e-3, gradientTolerance: 1e-6, stepTolerance: 1e-3, functionTolerance: 1e-6,
+            maximumIterations: iterations);
         try
         {
             var r = lm.FindMinimum(model, Vector<double>.Build.DenseOfArray(start),

@@ -31,9 +31,11 @@ public static class FitReport
         var s = fit.Settings;
         var record = new JsonObject
         {
-            ["method"] = "minimise sum ((predicted - recorded) / scale)^2 + sum (ln(relativeDensity) / priorWidth)^2 over ln(relativeDensity), bounded by each entry's plausible density range",
+            ["method"] = "minimise sum ((predicted - recorded) / scale)^2 + sum (ln(relativeDensity) / priorWidth)^2 over ln(relativeDensity), bounded by " +
+                "each entry's plausible density range",
             ["priorWidthLn"] = s.PriorWidth is { } w ? JsonValue.Create(w) : JsonValue.Create("none"),
-            ["optimiser"] = s.Optimiser == FitOptimiser.Simplex ? "MathNet.Numerics NelderMeadSimplex" : "MathNet.Numerics LevenbergMarquardtMinimizer (forward differences in ln density)",
+            ["optimiser"] = s.Optimiser == FitOptimiser.Simplex ? "MathNet.Numerics NelderMeadSimplex"
+                : "MathNet.Numerics LevenbergMarquardtMinimizer (forward differences in ln density)",
             ["jacobianStepLn"] = s.JacobianStepLn,
             ["seed"] = s.Seed,
             ["starts"] = s.Starts,

@@ -58,7 +58,8 @@ public static partial class FitTargetReader
             if (targets.Any(x => x.Readout == t.Readout)) throw new ArgumentException($"{where}: {t.Readout} is given twice.");
             targets.Add(t);
         }
-        if (targets.Count == 0) throw new ArgumentException($"{fileName}: no targets (expected a header readout,value,unit[,scale] and one line per read-out).");
+        if (targets.Count == 0) throw new ArgumentException($"{fileName}: no targets (expected a header readout,value,unit[,scale] and one line per " +
+            "read-out).");
         return targets;
     }
 

@@ -21,7 +21,8 @@ public static class GeneKnockdowns
             throw new ArgumentException($"model '{doc.Name}': no derivation.densities; gene knock-downs need a model built from expression (exprmodel build).");
         double exponent = Number(doc.Derivation, "exponent", "derivation");
         bool clamp = doc.Derivation["clamp"]?.GetValue<bool>() ?? true;
-        var perEntry = new List<(string Entry, double Expression, double Reference, double Typical, double Density, List<(string Gene, double Weight, double Expression)> Genes)>();
+        var perEntry = new List<(string Entry, double Expression, double Reference, double Typical, double Density,
+            List<(string Gene, double Weight, double Expression)> Genes)>();
         for (int i = 0; i < densities.Count; i++)
         {
             var where = $"derivation.densities[{i}]";
@@ -35,7 +36,8 @@ public static class GeneKnockdowns
                     genes.Add((g["gene"]?.GetValue<string>() ?? throw new ArgumentException($"model '{doc.Name}': {where}.genes[{j}].gene is missing."),
                         Number(g, "weight", $"{where}.genes[{j}]"), Number(g, "expression", $"{where}.genes[{j}]")));
                 }
-            perEntry.Add((entry, Number(d, "expression", where), Number(d, "reference", where), Number(d, "typicalMsPerCm2", where), Number(d, "densityMsPerCm2", where), genes));
+            perEntry.Add((entry, Number(d, "expression", where), Number(d, "reference", where), Number(d, "typicalMsPerCm2", where),
+                Number(d, "densityMsPerCm2", where), genes));
         }
 
         var geneNames = perEntry.SelectMany(e => e.Genes.Select(g => g.Gene)).Distinct(StringComparer.Ordinal).ToArray();

@@ -11,7 +11,8 @@ namespace ExprModel.Core.Perturbation;
 public static class Sensitivity
 {
     /// <param name="progress">Called with (variants done, variants in all).</param>
-    public static SensitivityMatrix Run(CellModel model, SensitivitySettings? settings = null, Action<int, int>? progress = null, CancellationToken cancel = default)
+    public static SensitivityMatrix Run(CellModel model, SensitivitySettings? settings = null, Action<int, int>? progress = null,
+        CancellationToken cancel = default)
     {
         var s = settings ?? SensitivitySettings.Default;
         if (s.Problem() is { } p) throw new ArgumentException("sensitivity settings: " + p);
@@ -37,12 +38,15 @@ public static class Sensitivity
         if (intact.Failure is { } f) throw new ArgumentException("The intact model cannot be measured: " + f);
 
         var columns = ReadoutValues.Names.Where(r => ReadoutScales.KindOf(r.Name) != ElasticityKind.None)
-            .Select(r => new SensitivityColumn(r.Name, r.Unit, ReadoutScales.KindOf(r.Name), ReadoutScales.Quantisation(r.Name, s.Readouts), s.Resolution(r.Name)))
+            .Select(r => new SensitivityColumn(r.Name, r.Unit, ReadoutScales.KindOf(r.Name),
+                ReadoutScales.Quantisation(r.Name, s.Readouts), s.Resolution(r.Name)))
             .ToArray();
         var notes = new List<string>
         {
-            FormattableString.Invariant($"central differences at ln(density) +- {s.StepLn:0.###} (x{Math.Exp(-s.StepLn):0.###} and x{Math.Exp(s.StepLn):0.###}), every other channel unchanged"),
-            $"rheobase grid {ReadoutScales.Percent(s.Readouts.RheobaseRelativeTolerance)}, sustained-onset grid {ReadoutScales.Percent(s.Readouts.ClassRelativeTolerance)} (tightened for this run so each step moves them across several grid points)",
+            FormattableString.Invariant($"central differences at ln(density) +- {s.StepLn:0.###} (x{Math.Exp(-s.StepLn):0.###} and ") +
+                FormattableString.Invariant($"x{Math.Exp(s.StepLn):0.###}), every other channel unchanged"),
+            $"rheobase grid {ReadoutScales.Percent(s.Readouts.RheobaseRelativeTolerance)}, sustained-onset grid " +
+                $"{ReadoutScales.Percent(s.Readouts.ClassRelativeTolerance)} (tightened for this run so each step moves them across several grid points)",
         };
         var values = new double?[n][];
         for (int k = 0; k < n; k++)

@@ -26,7 +26,8 @@ public sealed record SensitivityMatrix(
     {
         var head = comments.Concat(Notes).Concat(Columns.Where(c => c.Kind == ElasticityKind.PerLogDensity)
             .Select(c => $"{c.Readout}: {c.EntryUnit} (its sign can cross zero, so no log ratio)"))
-            .Concat(Columns.Where(c => c.Resolution is not null).Select(c => FormattableString.Invariant($"{c.Readout}: {c.Quantisation}; entries below {c.Resolution:0.###} in size are within one grid step")));
+            .Concat(Columns.Where(c => c.Resolution is not null).Select(c => FormattableString.Invariant($"{c.Readout}: {c.Quantisation}; entries below ") +
+                FormattableString.Invariant($"{c.Resolution:0.###} in size are within one grid step")));
         var csv = new CsvTable(head, ["channel", .. Columns.Select(c => c.Readout)]);
         csv.Row(["unit", .. Columns.Select(c => (object?)c.EntryUnit)]);
         for (int i = 0; i < Channels.Count; i++) csv.Row([Channels[i], .. Values[i].Select(v => (object?)v)]);

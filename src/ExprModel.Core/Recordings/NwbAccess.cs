@@ -71,7 +71,8 @@ internal sealed class NwbAccess(string file)
         var t = Guard(path, () => a.Type);
         return t.Class switch
         {
-            H5DataTypeClass.FloatingPoint when t.Size == 4 => double.Parse(Guard(path, () => a.Read<float>()).ToString("R", CultureInfo.InvariantCulture), CultureInfo.InvariantCulture),
+            H5DataTypeClass.FloatingPoint when t.Size == 4 =>
+                double.Parse(Guard(path, () => a.Read<float>()).ToString("R", CultureInfo.InvariantCulture), CultureInfo.InvariantCulture),
             H5DataTypeClass.FloatingPoint => Guard(path, () => a.Read<double>()),
             H5DataTypeClass.FixedPoint => (t.Size, t.FixedPoint.IsSigned) switch
             {
@@ -88,14 +89,18 @@ internal sealed class NwbAccess(string file)
         };
     }
 
-    /// <summary>Reads a one-dimensional numeric dataset as doubles, refusing one that claims more than <see cref="MaxSamples"/> before reading it, and any NaN or infinite value.</summary>
+    /// <summary>
+    /// Reads a one-dimensional numeric dataset as doubles, refusing one that claims more than <see cref="MaxSamples"/>
+    /// before reading it, and any NaN or infinite value.
+    /// </summary>
     public double[] Samples(IH5Dataset d, string path)
     {
         var dims = Guard(path, () => d.Space.Dimensions);
         if (dims.Length != 1) throw Error(path, $"has shape [{string.Join(", ", dims)}]; a sweep is one-dimensional.");
         var t = Guard(path, () => d.Type);
         if ((long)dims[0] > MaxSamples)
-            throw Error(path, $"claims {dims[0]:N0} samples ({(double)dims[0] * t.Size / 1e9:0.#} GB); sweeps longer than {MaxSamples:N0} samples (200 s at 100 kHz) are refused before reading.");
+            throw Error(path, $"claims {dims[0]:N0} samples ({(double)dims[0] * t.Size / 1e9:0.#} GB); sweeps longer than {MaxSamples:N0} samples (200 s at " +
+                "100 kHz) are refused before reading.");
         if (dims[0] == 0) throw Error(path, "is empty (no samples).");
         double[] values = t.Class switch
         {

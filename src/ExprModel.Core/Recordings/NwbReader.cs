@@ -24,7 +24,8 @@ public static class NwbReader
         using var h5 = NwbAccess.Open(path);
         var type = at.StringAttribute(h5, NeurodataType, "/");
         if (type != NwbFile)
-            throw at.Error("/", $"root attribute {NeurodataType} is {(type is null ? "missing" : $"'{type}'")}, not '{NwbFile}': an HDF5 file, but not an NWB file.");
+            throw at.Error("/", $"root attribute {NeurodataType} is {(type is null ? "missing" : $"'{type}'")}, not '{NwbFile}': an HDF5 file, but not an " +
+                "NWB file.");
         var version = at.StringAttribute(h5, NwbVersion, "/");
         if (version is null || !version.StartsWith("2.", StringComparison.Ordinal))
             throw at.Error("/", $"{NwbVersion} is {(version is null ? "missing" : $"'{version}'")}: only NWB 2.x files are read.");
@@ -39,7 +40,8 @@ public static class NwbReader
         if (at.Child(h5, Stimulus, "/" + Stimulus) is IH5Group stimulus && at.Child(stimulus, Presentation, presentationPath) is IH5Group presentation)
             foreach (var s in ReadGroup(at, presentation, presentationPath, CurrentClampStimulusSeries, "amperes", notes))
                 if (!stimuli.TryAdd((s.CellKey, s.SweepNumber), s))
-                    throw at.Error(s.Path, $"a second stimulus with {SweepNumber} {s.SweepNumber} for the same electrode (the first is {stimuli[(s.CellKey, s.SweepNumber)].Path}).");
+                    throw at.Error(s.Path, $"a second stimulus with {SweepNumber} {s.SweepNumber} for the same electrode (the first is " +
+                        $"{stimuli[(s.CellKey, s.SweepNumber)].Path}).");
 
         var cells = new List<RecordedCell>();
         foreach (var cell in responses.GroupBy(r => r.CellKey))
@@ -51,14 +53,18 @@ public static class NwbReader
                 if (!seen.TryAdd(r.SweepNumber, r.Path))
                     throw at.Error(r.Path, $"{SweepNumber} {r.SweepNumber} is also used by {seen[r.SweepNumber]} for the same electrode.");
                 if (!stimuli.TryGetValue((r.CellKey, r.SweepNumber), out var s))
-                    throw at.Error(r.Path, $"sweep {r.SweepNumber} has no stimulus: no {CurrentClampStimulusSeries} with {SweepNumber} {r.SweepNumber} and the same electrode under {presentationPath}.");
+                    throw at.Error(r.Path, $"sweep {r.SweepNumber} has no stimulus: no {CurrentClampStimulusSeries} with {SweepNumber} {r.SweepNumber} and " +
+                        $"the same electrode under {presentationPath}.");
                 if (Math.Abs(s.SampleIntervalMs - r.SampleIntervalMs) > 1e-9 * r.SampleIntervalMs)
-                    throw at.Error(r.Path, $"sampled at {1000 / r.SampleIntervalMs:0.###} Hz but its stimulus {s.Path} at {1000 / s.SampleIntervalMs:0.###} Hz.");
+                    throw at.Error(r.Path, $"sampled at {1000 / r.SampleIntervalMs:0.###} Hz but its stimulus {s.Path} at {1000 / s.SampleIntervalMs:0.###} " +
+                        "Hz.");
                 if (r.Values.Length > s.Values.Length)
-                    throw at.Error(r.Path + "/" + Data, $"mismatched lengths: {r.Values.Length:N0} voltage samples but only {s.Values.Length:N0} stimulus samples in {s.Path}/{Data}.");
+                    throw at.Error(r.Path + "/" + Data, $"mismatched lengths: {r.Values.Length:N0} voltage samples but only {s.Values.Length:N0} stimulus " +
+                        $"samples in {s.Path}/{Data}.");
                 sweeps.Add(RecordedSweep.Create(r.SweepNumber, r.SampleIntervalMs, r.Values, s.Values, $"{file}: {r.Path}"));
             }
-            string id = cell.Key.StartsWith("cell:", StringComparison.Ordinal) ? cell.Key[5..] : Path.GetFileNameWithoutExtension(file) + (responses.Select(x => x.CellKey).Distinct().Count() > 1 ? "/" + cell.Key : "");
+            string id = cell.Key.StartsWith("cell:", StringComparison.Ordinal) ? cell.Key[5..] : Path.GetFileNameWithoutExtension(file)
+                + (responses.Select(x => x.CellKey).Distinct().Count() > 1 ? "/" + cell.Key : "");
             cells.Add(new RecordedCell { CellId = id, Source = file, Sweeps = sweeps, Notes = [.. notes, .. RecordedCell.GapNotes(sweeps)] });
         }
         return cells;
@@ -80,7 +86,8 @@ public static class NwbReader
             else if (type is not null && (OtherCoreSeries.Contains(type) || type is CurrentClampSeries or CurrentClampStimulusSeries))
                 notes.Add($"{path}: {type} skipped (not a {wanted}).");
             else
-                throw at.Error(path, $"unknown series type {(type is null ? "(no neurodata_type attribute)" : $"'{type}'")}: current-clamp sweeps are {CurrentClampSeries} under /{Acquisition} with their {CurrentClampStimulusSeries} under /{Stimulus}/{Presentation}.");
+                throw at.Error(path, $"unknown series type {(type is null ? "(no neurodata_type attribute)" : $"'{type}'")}: current-clamp sweeps are " +
+                    $"{CurrentClampSeries} under /{Acquisition} with their {CurrentClampStimulusSeries} under /{Stimulus}/{Presentation}.");
         }
         return found;
     }
@@ -95,10 +102,12 @@ public static class NwbReader
         var unit = at.StringAttribute(data, Unit, dataPath) ?? throw at.Error(dataPath, $"attribute '{Unit}' missing: the values' unit is unknown.");
         bool voltage = baseUnit == "volts";
         double factor = (voltage ? SignalUnits.ToMillivolts(unit) : SignalUnits.ToPicoamps(unit))
-            ?? throw at.Error(dataPath, $"attribute '{Unit}' is '{unit}', not a {(voltage ? "voltage" : "current")} unit ({(voltage ? SignalUnits.VoltageUnits : SignalUnits.CurrentUnits)}); the schema fixes it to '{baseUnit}'.");
+            ?? throw at.Error(dataPath, $"attribute '{Unit}' is '{unit}', not a {(voltage ? "voltage" : "current")} unit " +
+                $"({(voltage ? SignalUnits.VoltageUnits : SignalUnits.CurrentUnits)}); the schema fixes it to '{baseUnit}'.");
         double conversion = at.NumberAttribute(data, Conversion, dataPath) ?? 1;
         double offset = at.NumberAttribute(data, Offset, dataPath) ?? 0;
-        if (!double.IsFinite(conversion) || conversion == 0) throw at.Error(dataPath, $"attribute '{Conversion}' is {conversion}; it must be a finite, non-zero factor.");
+        if (!double.IsFinite(conversion) || conversion == 0) throw at.Error(dataPath,
+            $"attribute '{Conversion}' is {conversion}; it must be a finite, non-zero factor.");
         if (!double.IsFinite(offset)) throw at.Error(dataPath, $"attribute '{Offset}' is {offset}; it must be finite.");
         double dt = SampleIntervalMs(at, g, path);
         var values = at.Samples(data, dataPath);
@@ -122,12 +131,14 @@ public static class NwbReader
             double step = (t[^1] - t[0]) / (t.Length - 1);
             for (int i = 1; i < t.Length; i++)
                 if (Math.Abs(t[i] - t[i - 1] - step) > 0.01 * step)
-                    throw at.Error(tp, $"element {i}: timestamps are not evenly spaced ({t[i] - t[i - 1]:G4} s after the previous, {step:G4} s on average); sweeps must be sampled at a fixed rate.");
+                    throw at.Error(tp, $"element {i}: timestamps are not evenly spaced ({t[i] - t[i - 1]:G4} s after the previous, {step:G4} s on average); " +
+                        "sweeps must be sampled at a fixed rate.");
             rate = 1 / step;
         }
         else throw at.Error(path, $"neither {StartingTime} (with its {Rate}) nor {Timestamps}: the sampling rate is unknown.");
         if (!(rate >= MinRateHz && rate <= MaxRateHz))
-            throw at.Error($"{path}/{StartingTime}", $"sampling rate {rate:G6} Hz is outside {MinRateHz / 1000:0}-{MaxRateHz / 1000:0} kHz; spike shapes need at least {MinRateHz / 1000:0} kHz.");
+            throw at.Error($"{path}/{StartingTime}", $"sampling rate {rate:G6} Hz is outside {MinRateHz / 1000:0}-{MaxRateHz / 1000:0} kHz; spike shapes " +
+                $"need at least {MinRateHz / 1000:0} kHz.");
         return 1000 / rate;
     }
 
@@ -136,7 +147,8 @@ public static class NwbReader
     {
         string ep = $"{path}/{Electrode}";
         if (at.Child(g, Electrode, ep) is not IH5Group electrode) return "electrode:?";
-        if (at.Child(electrode, CellId, ep + "/" + CellId) is IH5Dataset id && at.Guard(ep, () => id.Read<string>()) is { Length: > 0 } cell) return "cell:" + cell;
+        if (at.Child(electrode, CellId, ep + "/" + CellId) is IH5Dataset id && at.Guard(ep, () => id.Read<string>()) is { Length: > 0 } cell)
+            return "cell:" + cell;
         return "electrode:" + electrode.Name;
     }
 }

@@ -4,23 +4,6 @@ using PureHDF;
 
 namespace ExprModel.Core.Recordings;
 
-/// <summary>What an NWB file written by <see cref="NwbWriter"/> holds: one session, one or more cells, each with its sweeps.</summary>
-public sealed record NwbSession
-{
-    public required string Identifier { get; init; }
-    public string Description { get; init; } = "current-clamp step family";
-    /// <summary>Session start; also written as the file's creation date so the same input gives the same bytes.</summary>
-    public DateTimeOffset StartTime { get; init; } = new(2026, 1, 1, 9, 0, 0, TimeSpan.Zero);
-    public required IReadOnlyList<RecordedCell> Cells { get; init; }
-    /// <summary>
-    /// Store voltage as 16-bit integers in steps of this many mV (as a 16-bit digitiser does; the conversion attribute
-    /// carries the step), instead of float32. Null keeps float32.
-    /// </summary>
-    public double? VoltageResolutionMv { get; init; }
-    /// <summary>Chunk and deflate-compress the data (a command current is mostly constant and shrinks to almost nothing).</summary>
-    public bool Compress { get; init; }
-}
-
 /// <summary>
 /// Writes current-clamp sweep families as NWB 2.x files (names in <see cref="NwbSchema"/>): per sweep a
 /// CurrentClampSeries under /acquisition and its CurrentClampStimulusSeries under /stimulus/presentation, both with the
@@ -57,7 +40,8 @@ public static class NwbWriter
         var acquisition = new H5Group();
         var presentation = new H5Group();
         var electrodes = new H5Group();
-        var device = Typed(new H5Group { Attributes = new() { ["description"] = "current-clamp amplifier" } }, NwbSchema.Device, Id("/general/devices/amplifier"));
+        var device = Typed(new H5Group { Attributes = new() { ["description"] = "current-clamp amplifier" } }, NwbSchema.Device,
+            Id("/general/devices/amplifier"));
         for (int c = 0; c < session.Cells.Count; c++)
         {
             var cell = session.Cells[c];
@@ -72,8 +56,11 @@ public static class NwbWriter
             foreach (var sweep in cell.Sweeps)
             {
                 string name = session.Cells.Count == 1 ? $"sweep_{sweep.SweepNumber:D3}" : $"cell_{c}_sweep_{sweep.SweepNumber:D3}";
-                acquisition[name] = Series(NwbSchema.CurrentClampSeries, VoltageData(sweep.VoltageMv, session), sweep, electrodePath, Id($"/acquisition/{name}"));
-                presentation[name] = Series(NwbSchema.CurrentClampStimulusSeries, Data(Floats(sweep.FullCommandPa ?? sweep.CurrentPa), "amperes", 1e-12f, session.Compress), sweep, electrodePath, Id($"/stimulus/presentation/{name}"));
+                acquisition[name] = Series(NwbSchema.CurrentClampSeries, VoltageData(sweep.VoltageMv, session), sweep, electrodePath,
+                    Id($"/acquisition/{name}"));
+                presentation[name] = Series(NwbSchema.CurrentClampStimulusSeries,
+                    Data(Floats(sweep.FullCommandPa ?? sweep.CurrentPa), "amperes", 1e-12f, session.Compress),
+                    sweep, electrodePath, Id($"/stimulus/presentation/{name}"));
             }
         }
         var file = new H5File
@@ -122,9 +109,11 @@ public static class NwbWriter
 
     private static H5Dataset Data<T>(T[] values, string unit, float conversion, bool compress)
     {
-        var attributes = new Dictionary<string, object> { [NwbSchema.Unit] = unit, [NwbSchema.Conversion] = conversion, [NwbSchema.Offset] = 0f, [NwbSchema.Resolution] = -1f };
+        var attributes = new Dictionary<string, object> { [NwbSchema.Unit] = unit, [NwbSchema.Conversion] = conversion, [NwbSchema.Offset] = 0f,
+            [NwbSchema.Resolution] = -1f };
         return compress
-            ? new H5Dataset(values, chunks: [(uint)Math.Min(values.Length, 1 << 16)], datasetCreation: new PureHDF.VOL.Native.H5DatasetCreation { Filters = [PureHDF.Filters.DeflateFilter.Id] }) { Attributes = attributes }
+            ? new H5Dataset(values, chunks: [(uint)Math.Min(values.Length, 1 << 16)],
+                datasetCreation: new PureHDF.VOL.Native.H5DatasetCreation { Filters = [PureHDF.Filters.DeflateFilter.Id] }) { Attributes = attributes }
             : new H5Dataset(values) { Attributes = attributes };
     }
 
@@ -133,7 +122,8 @@ public static class NwbWriter
         return Typed(new H5Group
         {
             [NwbSchema.Data] = data,
-            [NwbSchema.StartingTime] = new H5Dataset(0.0) { Attributes = new() { [NwbSchema.Rate] = (float)sweep.SamplingRateHz, [NwbSchema.Unit] = "seconds" } },
+            [NwbSchema.StartingTime] = new H5Dataset(0.0) { Attributes = new() { [NwbSchema.Rate] = (float)sweep.SamplingRateHz,
+                [NwbSchema.Unit] = "seconds" } },
             [NwbSchema.Electrode] = new H5SoftLink(electrodePath),
             Attributes = new()
             {

@@ -43,7 +43,8 @@ public sealed record RecordedStep(double OnsetMs, double OffsetMs, double Amplit
         double tolerance = 0.1 * Math.Abs(amplitude) + MinimumAmplitudePa;
         for (int i = first; i <= last; i++) if (Math.Abs(currentPa[i] - holding - amplitude) > tolerance) off++;
         if (off > 0.02 * (last - first + 1))
-            return (null, $"not a rectangular step: {off} of the {last - first + 1} samples from {first * dtMs:0.###} to {(last + 1) * dtMs:0.###} ms depart from their mean by more than 10 %");
+            return (null, $"not a rectangular step: {off} of the {last - first + 1} samples from {first * dtMs:0.###} to {(last + 1) * dtMs:0.###} ms depart " +
+                "from their mean by more than 10 %");
         return (new RecordedStep(first * dtMs, (last + 1) * dtMs, amplitude, holding, last == n - 1), null);
     }
 }

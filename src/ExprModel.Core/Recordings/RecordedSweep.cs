@@ -31,7 +31,8 @@ public sealed record RecordedSweep
     /// <see cref="FullCommandPa"/> and cut to the voltage's length, and the step is found on the whole command.</param>
     public static RecordedSweep Create(int sweepNumber, double sampleIntervalMs, double[] voltageMv, double[] commandPa, string source)
     {
-        if (voltageMv.Length > commandPa.Length) throw new ArgumentException($"{source}: {voltageMv.Length} voltage samples but only {commandPa.Length} command samples.");
+        if (voltageMv.Length > commandPa.Length) throw new ArgumentException($"{source}: {voltageMv.Length} voltage samples but only {commandPa.Length} " +
+            "command samples.");
         bool aborted = commandPa.Length > voltageMv.Length;
         var currentPa = aborted ? commandPa[..voltageMv.Length] : commandPa;
         var (step, problem) = RecordedStep.Find(commandPa, sampleIntervalMs);

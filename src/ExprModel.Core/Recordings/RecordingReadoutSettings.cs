@@ -17,7 +17,10 @@ public sealed record RecordingReadoutSettings
     public double SagSteadyWindowMs { get; init; } = 50;
     /// <summary>Baseline of a sweep: mean over up to this long before the step (ms).</summary>
     public double BaselineWindowMs { get; init; } = 50;
-    /// <summary>Hyperpolarising sweeps whose steady deflection is at most this (mV) count as small for input resistance (little sag or rectification).</summary>
+    /// <summary>
+    /// Hyperpolarising sweeps whose steady deflection is at most this (mV) count as small for input resistance (little
+    /// sag or rectification).
+    /// </summary>
     public double SmallDeflectionMv { get; init; } = 10;
     /// <summary>
     /// Smoothing aims for a noise of at most this (mV/ms, rms) on the sample-to-sample slope: a fifth of the 20 mV/ms

@@ -47,7 +47,8 @@ public sealed record SweepAnalysis
         // Baseline: up to 50 ms before the step (or the whole sweep without one).
         int onset = step is null ? v.Length : (int)Math.Round(step.OnsetMs / dt);
         int baseFrom = Math.Max(0, onset - (int)Math.Round(settings.BaselineWindowMs / dt));
-        if (excluded is null && onset - baseFrom < Math.Max(8, (int)(2 / dt))) excluded = $"{sweep.Source}: less than 2 ms before the step: no baseline, left out.";
+        if (excluded is null && onset - baseFrom < Math.Max(8, (int)(2 / dt))) excluded = $"{sweep.Source}: less than 2 ms before the step: no baseline, " +
+            "left out.";
         var baseline = v.AsSpan(baseFrom, Math.Max(1, onset - baseFrom));
         double baselineMv = Mean(baseline);
         double noise = NoiseSmoothing.NoiseMv(baseline);

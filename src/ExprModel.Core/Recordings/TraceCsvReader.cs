@@ -50,7 +50,8 @@ public static partial class TraceCsvReader
         var dup = sweeps.GroupBy(s => s.SweepNumber).FirstOrDefault(g => g.Count() > 1);
         if (dup is not null) throw new RecordingFormatException($"{dup.First().Source}: sweep {dup.Key} appears twice (also {dup.Skip(1).First().Source}).");
         var ordered = sweeps.OrderBy(s => s.SweepNumber).ToArray();
-        return new RecordedCell { CellId = cellId, Source = string.Join(", ", files.Select(Path.GetFileName)), Sweeps = ordered, Notes = [.. RecordedCell.GapNotes(ordered)] };
+        return new RecordedCell { CellId = cellId, Source = string.Join(", ", files.Select(Path.GetFileName)), Sweeps = ordered,
+            Notes = [.. RecordedCell.GapNotes(ordered)] };
     }
 
     private sealed record Columns(int Time, double TimeToMs, int Voltage, double VoltageToMv, int Current, double CurrentToPa, int Sweep, int Count);
@@ -84,7 +85,8 @@ public static partial class TraceCsvReader
             if (!isTime && !isV && !isI) continue;
             string kind = isTime ? "time" : isV ? "membrane potential" : "command current";
             string units = isTime ? SignalUnits.TimeUnits : isV ? SignalUnits.VoltageUnits : SignalUnits.CurrentUnits;
-            if (unit is null) throw r.Error(j + 1, $"the {kind} column '{r.FieldString(j)}' states no unit: write it in the header, e.g. '{name} ({(isTime ? "ms" : isV ? "mV" : "pA")})' ({units}).");
+            if (unit is null) throw r.Error(j + 1, $"the {kind} column '{r.FieldString(j)}' states no unit: write it in the header, e.g. '{name} " +
+                $"({(isTime ? "ms" : isV ? "mV" : "pA")})' ({units}).");
             double? f = isTime ? SignalUnits.ToMilliseconds(unit) : isV ? SignalUnits.ToMillivolts(unit) : SignalUnits.ToPicoamps(unit);
             if (f is null) throw r.Error(j + 1, $"unit '{unit}' of the {kind} column is not one of {units}.");
             if ((isTime ? time : isV ? voltage : current) >= 0) throw r.Error(j + 1, $"a second {kind} column.");
@@ -104,7 +106,8 @@ public static partial class TraceCsvReader
         using var r = new RecordReader(InputFile.Open(path, MaxBytes), file, delimiter, 1 << 16, 64);
         if (!r.ReadRecord()) throw new RecordingFormatException($"{file}: line 1: the file is empty.");
         var c = Parse(r, file);
-        int fileSweep = LastNumber().Match(Path.GetFileNameWithoutExtension(path)) is { Success: true } m && int.TryParse(m.Value, out var k) ? k : defaultSweep;
+        int fileSweep = LastNumber().Match(Path.GetFileNameWithoutExtension(path)) is { Success: true } m
+            && int.TryParse(m.Value, out var k) ? k : defaultSweep;
         var sweeps = new List<RecordedSweep>();
         var done = new HashSet<int>();
         int current = int.MinValue;
@@ -136,9 +139,11 @@ public static partial class TraceCsvReader
             i.Add(Number(r, c.Current, "command current") * c.CurrentToPa);
             int n = t.Count;
             if (n >= 2 && !(t[n - 1] > t[n - 2]))
-                throw r.Error(c.Time + 1, $"time does not increase ({t[n - 2] / c.TimeToMs:G6} then {t[n - 1] / c.TimeToMs:G6}); rows must be in time order within a sweep.");
+                throw r.Error(c.Time + 1, $"time does not increase ({t[n - 2] / c.TimeToMs:G6} then {t[n - 1] / c.TimeToMs:G6}); rows must be in time order " +
+                    "within a sweep.");
             if (n >= 3 && Math.Abs(t[n - 1] - t[n - 2] - (t[1] - t[0])) > 0.01 * (t[1] - t[0]))
-                throw r.Error(c.Time + 1, $"time step {(t[n - 1] - t[n - 2]):G4} ms differs from the sweep's first step {(t[1] - t[0]):G4} ms: sweeps must be sampled at a fixed rate.");
+                throw r.Error(c.Time + 1, $"time step {(t[n - 1] - t[n - 2]):G4} ms differs from the sweep's first step {(t[1] - t[0]):G4} ms: sweeps must " +
+                    "be sampled at a fixed rate.");
         }
         Finish();
         if (sweeps.Count == 0) throw new RecordingFormatException($"{file}: line 2: no data rows.");
@@ -151,7 +156,8 @@ public static partial class TraceCsvReader
         double dt = (t[^1] - t[0]) / (t.Count - 1);
         double rate = 1000 / dt;
         if (!(rate >= NwbReader.MinRateHz && rate <= NwbReader.MaxRateHz))
-            throw new RecordingFormatException($"{file}: line {firstLine}: sweep {number} is sampled at {rate:G6} Hz, outside {NwbReader.MinRateHz / 1000:0}-{NwbReader.MaxRateHz / 1000:0} kHz; spike shapes need at least {NwbReader.MinRateHz / 1000:0} kHz.");
+            throw new RecordingFormatException($"{file}: line {firstLine}: sweep {number} is sampled at {rate:G6} Hz, outside " +
+                $"{NwbReader.MinRateHz / 1000:0}-{NwbReader.MaxRateHz / 1000:0} kHz; spike shapes need at least {NwbReader.MinRateHz / 1000:0} kHz.");
         return RecordedSweep.Create(number, dt, [.. v], [.. i], string.Create(CultureInfo.InvariantCulture, $"{file}, sweep {number} (from line {firstLine})"));
     }
 

@@ -5,4 +5,5 @@ namespace ExprModel.Data.Demo;
 /// <param name="Firing">The firing the channel complement is designed to give.</param>
 /// <param name="ChannelCpm">Target expression of channel genes in this group, in counts per million.</param>
 /// <param name="Recorded">Typical recorded read-outs of the group: resting potential mV, input resistance MOhm, rheobase pA, max firing rate Hz.</param>
-public sealed record DemoGroup(string Name, string Firing, IReadOnlyDictionary<string, double> ChannelCpm, (double RestMv, double InputMOhm, double RheobasePa, double MaxRateHz) Recorded);
+public sealed record DemoGroup(string Name, string Firing, IReadOnlyDictionary<string, double> ChannelCpm,
+    (double RestMv, double InputMOhm, double RheobasePa, double MaxRateHz) Recorded);

@@ -43,7 +43,8 @@ public static class DemoRecordedFeatures
     /// <summary>Read-outs a recording measures (not current densities: a recording has no area), and the step spacing that bounds the rheobase.</summary>
     private static bool Kept((string Name, string Unit, double? Value) row) =>
         row.Name == "rheobase_step_spacing" ||
-        (ReadoutMatcher.Readouts.Any(r => r.Name == row.Name) && MeasurementUnits.Parse(row.Unit)!.Quantity is not (Quantity.CurrentDensity or Quantity.RatePerCurrentDensity));
+        (ReadoutMatcher.Readouts.Any(r => r.Name == row.Name)
+            && MeasurementUnits.Parse(row.Unit)!.Quantity is not (Quantity.CurrentDensity or Quantity.RatePerCurrentDensity));
 
     private static double Round(double v) => double.Parse(v.ToString("G6", CultureInfo.InvariantCulture), CultureInfo.InvariantCulture);
 }

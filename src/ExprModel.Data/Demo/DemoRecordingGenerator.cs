@@ -32,7 +32,10 @@ public static class DemoRecordingGenerator
     public static IReadOnlyList<double> StepsPa { get; } = [-90, -60, -30, .. Enumerable.Range(1, 10).Select(k => 40.0 * k)];
     /// <summary>Spread of the hidden per-channel factors: ln(factor) ~ N(0, 0.3^2), about +-35 % (our choice).</summary>
     public const double FactorLogSd = 0.3;
-    /// <summary>Noise and drift (our choices, within what patch recordings show, from memory): rms 0.15 mV; baseline steps of sd 0.4 mV between sweeps; up to +-0.5 mV drift within a sweep.</summary>
+    /// <summary>
+    /// Noise and drift (our choices, within what patch recordings show, from memory): rms 0.15 mV; baseline steps of sd
+    /// 0.4 mV between sweeps; up to +-0.5 mV drift within a sweep.
+    /// </summary>
     public const double NoiseMv = 0.15, SweepOffsetSdMv = 0.4, WithinSweepDriftMv = 0.5;
     /// <summary>16-bit storage step (mV): fine against the noise.</summary>
     public const double VoltageResolutionMv = 0.01;
@@ -60,8 +63,11 @@ public static class DemoRecordingGenerator
                 var (sweeps, notes) = Record(cell, rng, missing, aborted, id);
                 var session = new NwbSession
                 {
-                    Identifier = $"fernhollow-demo-{id}", Description = $"Invented demo recording of cell {id} (group {DemoDataGenerator.Groups[g].Name}); simulated, not measured.",
-                    Cells = [new RecordedCell { CellId = id, Source = id + ".nwb", Sweeps = sweeps }], VoltageResolutionMv = VoltageResolutionMv, Compress = true,
+                    Identifier = $"fernhollow-demo-{id}",
+                    Description = $"Invented demo recording of cell {id} (group {DemoDataGenerator.Groups[g].Name}); simulated, not measured.",
+                    Cells = [new RecordedCell { CellId = id, Source = id + ".nwb", Sweeps = sweeps }],
+                    VoltageResolutionMv = VoltageResolutionMv,
+                    Compress = true,
                 };
                 using var ms = new MemoryStream();
                 NwbWriter.Build(session).Write(ms);
@@ -71,14 +77,23 @@ public static class DemoRecordingGenerator
                 sidecar.Add(new JsonObject
                 {
                     ["cell"] = id, ["group"] = DemoDataGenerator.Groups[g].Name, ["file"] = id + ".nwb", ["density_factors"] = f,
-                    ["missing_sweep"] = missing, ["aborted_sweep"] = aborted, ["notes"] = new JsonArray(notes.Select(n => (JsonNode)JsonValue.Create(n)!).ToArray()),
+                    ["missing_sweep"] = missing,
+                    ["aborted_sweep"] = aborted,
+                    ["notes"] = new JsonArray(notes.Select(n => (JsonNode)JsonValue.Create(n)!).ToArray()),
                 });
             }
         var root = new JsonObject
         {
-            ["about"] = "Invented: hidden per-channel density factors (relative to the expression-built per-cell model) of the simulated demo recordings. Not measured.",
-            ["seed"] = seed, ["factor_log_sd"] = FactorLogSd, ["noise_mv"] = NoiseMv, ["sweep_offset_sd_mv"] = SweepOffsetSdMv, ["within_sweep_drift_mv"] = WithinSweepDriftMv,
-            ["sample_interval_ms"] = SampleIntervalMs, ["steps_pa"] = new JsonArray(StepsPa.Select(a => (JsonNode)JsonValue.Create(a)!).ToArray()), ["cells"] = sidecar,
+            ["about"] = "Invented: hidden per-channel density factors (relative to the expression-built per-cell model) of the simulated demo recordings. " +
+                "Not measured.",
+            ["seed"] = seed,
+            ["factor_log_sd"] = FactorLogSd,
+            ["noise_mv"] = NoiseMv,
+            ["sweep_offset_sd_mv"] = SweepOffsetSdMv,
+            ["within_sweep_drift_mv"] = WithinSweepDriftMv,
+            ["sample_interval_ms"] = SampleIntervalMs,
+            ["steps_pa"] = new JsonArray(StepsPa.Select(a => (JsonNode)JsonValue.Create(a)!).ToArray()),
+            ["cells"] = sidecar,
         };
         files[SidecarFileName] = Encoding.UTF8.GetBytes(root.ToJsonString(new JsonSerializerOptions { WriteIndented = true }) + "\n");
         return files;
@@ -99,7 +114,8 @@ public static class DemoRecordingGenerator
         return paths;
     }
 
-    private static (List<RecordedSweep> Sweeps, List<string> Notes) Record(CompiledCell cell, DemoDataGenerator.Draws rng, int? missing, int? aborted, string id)
+    private static (List<RecordedSweep> Sweeps, List<string> Notes) Record(CompiledCell cell, DemoDataGenerator.Draws rng, int? missing,
+        int? aborted, string id)
     {
         var sim = SimulationSettings.Default with { RecordEvery = (int)Math.Round(SampleIntervalMs / SimulationSettings.Default.DtMs) };
         var notes = new List<string>();

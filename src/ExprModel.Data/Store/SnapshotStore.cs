@@ -127,8 +127,9 @@ public sealed class SnapshotStore
                 throw new SnapshotException($"parentId: no snapshot '{snap.ParentId}' exists.");
             cmd.Parameters.Clear();
         }
-        cmd.CommandText = "INSERT INTO snapshots (snapshot_id, parent_id, created_utc, model_json, catalog_versions, protocol_json, readouts_json, notes, expression, "
-            + "expression_name, recorded_json) VALUES ($id, $parent, $created, $model, $versions, $protocol, $readouts, $notes, $expr, $exprName, $recorded)";
+        cmd.CommandText = "INSERT INTO snapshots (snapshot_id, parent_id, created_utc, model_json, catalog_versions, protocol_json, readouts_json, notes, "
+            + "expression, expression_name, recorded_json) "
+            + "VALUES ($id, $parent, $created, $model, $versions, $protocol, $readouts, $notes, $expr, $exprName, $recorded)";
         cmd.Parameters.AddWithValue("$id", snap.Id);
         cmd.Parameters.AddWithValue("$parent", (object?)snap.ParentId ?? DBNull.Value);
         cmd.Parameters.AddWithValue("$created", snap.CreatedUtc.ToString("O", CultureInfo.InvariantCulture));

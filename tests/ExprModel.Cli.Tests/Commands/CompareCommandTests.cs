@@ -48,7 +48,8 @@ public sealed class CompareCommandTests : IDisposable
     public void PerCellModelsShrinkByDefaultAndCanBeAskedNotTo()
     {
         // Four recorded T1-fast cells in a separate file, one of them with the rheobase in nA.
-        var recorded = Write("recorded.tsv", "cell\tVrest (mV)\trheobase (nA)\nFH1001\t-71.3\t0.167\nFH1002\t-68.7\t0.1632\nFH1003\t-62.8\t\nFH1004\t-69.6\t0.1201\n");
+        var recorded = Write("recorded.tsv", "cell\tVrest (mV)\trheobase (nA)\n" +
+            "FH1001\t-71.3\t0.167\nFH1002\t-68.7\t0.1632\nFH1003\t-62.8\t\nFH1004\t-69.6\t0.1201\n");
         var shrunk = Path.Combine(_dir, "shrunk.csv");
         var a = CliRunner.Run(["compare", .. Inputs, "--recorded", recorded, "--map", "Vrest (mV)=resting_potential", "--out", shrunk]);
         Assert.True(a.Exit == 0, a.Err);

@@ -62,7 +62,8 @@ public sealed class RecordingCommandsTests : IDisposable
         var tau = cell.GetProperty("readouts").GetProperty("membrane_time_constant");
         Assert.Equal("ms", tau.GetProperty("unit").GetString());
         Assert.Equal(10, tau.GetProperty("value").GetDouble(), 6);
-        Assert.Contains(cell.GetProperty("notes").EnumerateArray(), n => n.GetString()!.Contains("rheobase is not defined") || n.GetString()!.Contains("No usable depolarising step"));
+        Assert.Contains(cell.GetProperty("notes").EnumerateArray(), n => n.GetString()!.Contains("rheobase is not defined")
+            || n.GetString()!.Contains("No usable depolarising step"));
     }
 
     [Fact]

@@ -64,7 +64,8 @@ public sealed class RecordedFitTargetsTests : IDisposable
     public void Bad_requests_name_what_is_wrong()
     {
         Assert.Contains("no recorded values for cell 'zz'", Assert.Throws<ArgumentException>(() => RecordedFitTargets.ForCell(Features(), "zz", 5000)).Message);
-        Assert.Contains("'rheobas' is not a read-out", Assert.Throws<ArgumentException>(() => RecordedFitTargets.ForCell(Features(), "a1", 5000, readouts: ["rheobas"])).Message);
+        Assert.Contains("'rheobas' is not a read-out", Assert.Throws<ArgumentException>(() => RecordedFitTargets.ForCell(Features(), "a1", 5000,
+            readouts: ["rheobas"])).Message);
         Assert.Contains("one of the two", Assert.Throws<ArgumentException>(() => RecordedFitTargets.For(Features(), [], "a1", "A", ["a1"], 5000)).Message);
     }
     /// <summary>
@@ -78,12 +79,14 @@ public sealed class RecordedFitTargetsTests : IDisposable
     public void Fitting_a_demo_cell_to_its_recording_recovers_the_hidden_factors_of_its_pinned_channels()
     {
         var dir = Path.Combine(ExprModel.Data.Catalog.CatalogLocator.FindSourceDirectory()!, "demo");
-        var data = ExprModel.Core.Mapping.ExpressionDataset.Read(TestCatalog.Catalog.ForMapping(), Path.Combine(dir, "counts.csv"), new ExprModel.Core.Expression.ExpressionReadOptions(),
+        var data = ExprModel.Core.Mapping.ExpressionDataset.Read(TestCatalog.Catalog.ForMapping(), Path.Combine(dir, "counts.csv"),
+            new ExprModel.Core.Expression.ExpressionReadOptions(),
             Path.Combine(dir, "metadata.csv"), "group");
         var doc = data.Build(data.Map(), new ExprModel.Core.Mapping.DensityRule(), ExprModel.Core.Mapping.ModelTarget.ForCell("FH1001")).Document;
         var model = TestCatalog.Catalog.BuildCell(doc);
         var measured = RecordingReader.Read(Path.Combine(dir, "recordings", "FH1001.nwb")).Select(c => RecordingFeatures.Measure(c)).ToArray();
-        var targets = RecordedFitTargets.For(RecordedSweepFeatures.From(measured, "FH1001.nwb", _ => true), measured, "FH1001", null, null, model.Geometry.AreaUm2);
+        var targets = RecordedFitTargets.For(RecordedSweepFeatures.From(measured, "FH1001.nwb", _ => true), measured, "FH1001", null, null,
+            model.Geometry.AreaUm2);
         var settings = FitSettings.Default with { Starts = 1, Readouts = FitSettings.Default.Readouts with { StepDurationMs = targets.StepDurationMs!.Value } };
         var fit = DensityFit.Run(doc, model, targets.Targets, settings);
 

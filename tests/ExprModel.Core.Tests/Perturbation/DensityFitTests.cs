@@ -43,9 +43,11 @@ public class DensityFitTests
     {
         // Wang & Buzsaki 1996: the published densities are the answer; the start is 25 % off on sodium and potassium.
         var published = TestCatalog.Catalog.Preset("wb1996");
-        var targets = TargetsOf(published.ToCellModel(TestCatalog.Catalog.Resolve), ["rheobase", "resting_potential", "input_resistance", "spike_half_width", "spike_peak", "fi_gain"]);
+        var targets = TargetsOf(published.ToCellModel(TestCatalog.Catalog.Resolve),
+            ["rheobase", "resting_potential", "input_resistance", "spike_half_width", "spike_peak", "fi_gain"]);
         var displaced = published.WithRelativeDensities(new Dictionary<string, double> { ["wb-na-1996"] = 1.25, ["wb-k-1996"] = 0.8 });
-        var fit = DensityFit.Run(displaced, displaced.ToCellModel(TestCatalog.Catalog.Resolve), targets, new FitSettings { PriorWidth = null, Starts = 2, Seed = 7 });
+        var fit = DensityFit.Run(displaced, displaced.ToCellModel(TestCatalog.Catalog.Resolve), targets,
+            new FitSettings { PriorWidth = null, Starts = 2, Seed = 7 });
         foreach (var c in fit.Channels.Where(c => c.Pinned)) Assert.InRange(c.FittedRelative, 0.95, 1.05);
         Assert.Contains(fit.Channels, c => c.Channel == "wb-na-1996" && c.Pinned);
         Assert.Equal(2, fit.Starts.Count);
@@ -83,6 +85,7 @@ public class DensityFitTests
         var t = FitTarget.WithDefaultScale("rheobase", 1);
         Assert.Contains("priorWidth", Assert.Throws<ArgumentException>(() => DensityFit.Run(doc, model, [t], new FitSettings { PriorWidth = -1 })).Message);
         Assert.Contains("twice", Assert.Throws<ArgumentException>(() => DensityFit.Run(doc, model, [t, t])).Message);
-        Assert.Contains("'kv7'", Assert.Throws<ArgumentException>(() => DensityFit.Run(doc, model, [t], new FitSettings { FixedChannels = new HashSet<string> { "kv7" } })).Message);
+        Assert.Contains("'kv7'", Assert.Throws<ArgumentException>(() => DensityFit.Run(doc, model, [t],
+            new FitSettings { FixedChannels = new HashSet<string> { "kv7" } })).Message);
     }
 }

@@ -32,9 +32,12 @@ public class FitTargetReaderTests
         Assert.Equal(2, t.Count);
         Assert.Equal(5, t[0].Scale);
         Assert.Equal(1, t[1].Scale);
-        Assert.Contains("t.csv: line 2, column 2", Assert.Throws<ArgumentException>(() => FitTargetReader.ReadCsv("readout,value,unit\nrheobase,x,uA/cm2\n", "t.csv")).Message);
-        Assert.Contains("line 3: rheobase is given twice", Assert.Throws<ArgumentException>(() => FitTargetReader.ReadCsv("readout,value,unit\nrheobase,1,\nrheobase,2,\n", "t.csv")).Message);
+        Assert.Contains("t.csv: line 2, column 2", Assert.Throws<ArgumentException>(() => FitTargetReader.ReadCsv("readout,value,unit\nrheobase,x,uA/cm2\n",
+            "t.csv")).Message);
+        Assert.Contains("line 3: rheobase is given twice",
+            Assert.Throws<ArgumentException>(() => FitTargetReader.ReadCsv("readout,value,unit\nrheobase,1,\nrheobase,2,\n", "t.csv")).Message);
         Assert.Contains("header", Assert.Throws<ArgumentException>(() => FitTargetReader.ReadCsv("rheobase,1,uA/cm2\n", "t.csv")).Message);
-        Assert.Contains("column 4", Assert.Throws<ArgumentException>(() => FitTargetReader.ReadCsv("readout,value,unit,scale\nrheobase,1,,-2\n", "t.csv")).Message);
+        Assert.Contains("column 4", Assert.Throws<ArgumentException>(() => FitTargetReader.ReadCsv("readout,value,unit,scale\nrheobase,1,,-2\n",
+            "t.csv")).Message);
     }
 }

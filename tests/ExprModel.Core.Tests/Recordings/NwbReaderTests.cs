@@ -23,7 +23,8 @@ public sealed class NwbReaderTests : IDisposable
     private static H5Dataset Data(H5File f, string series) => (H5Dataset)At(f, series)["data"];
     private static H5Dataset Start(H5File f, string series) => (H5Dataset)At(f, series)["starting_time"];
 
-    private const string R1 = "/acquisition/sweep_001", R2 = "/acquisition/sweep_002", S1 = "/stimulus/presentation/sweep_001", S2 = "/stimulus/presentation/sweep_002";
+    private const string R1 = "/acquisition/sweep_001", R2 = "/acquisition/sweep_002";
+    private const string S1 = "/stimulus/presentation/sweep_001", S2 = "/stimulus/presentation/sweep_002";
 
     private static float[] Floats(RecordedSweep s) => s.VoltageMv.Select(x => (float)x).ToArray();
 
@@ -36,20 +37,24 @@ public sealed class NwbReaderTests : IDisposable
         { "no_stimulus", f => At(f, "/stimulus/presentation").Remove("sweep_002"), "dataset /acquisition/sweep_002", "has no stimulus" },
         { "nan_run", f => At(f, R1)["data"] = NanRun(f), "dataset /acquisition/sweep_001/data", "samples 100 to 119 are NaN (a run of 20)" },
         { "one_hz", f => Start(f, R2).Attributes!["rate"] = 1f, "dataset /acquisition/sweep_002/starting_time", "sampling rate 1 Hz" },
-        { "unknown_type", f => At(f, R1).Attributes!["neurodata_type"] = "MysterySeries", "dataset /acquisition/sweep_001", "unknown series type 'MysterySeries'" },
+        { "unknown_type", f => At(f, R1).Attributes!["neurodata_type"] = "MysterySeries", "dataset /acquisition/sweep_001",
+            "unknown series type 'MysterySeries'" },
         { "claims_2gb", f => At(f, R1)["data"] = Huge(), "dataset /acquisition/sweep_001/data", "claims 500,000,000 samples (2 GB)" },
-        { "mismatched_lengths", f => At(f, S2)["data"] = new H5Dataset(new float[100]) { Attributes = new() { ["unit"] = "amperes", ["conversion"] = 1e-12f } }, "dataset /acquisition/sweep_002/data", "mismatched lengths" },
+        { "mismatched_lengths", f => At(f, S2)["data"] = new H5Dataset(new float[100]) { Attributes = new() { ["unit"] = "amperes", ["conversion"] = 1e-12f } },
+            "dataset /acquisition/sweep_002/data", "mismatched lengths" },
         { "no_sweep_number", f => At(f, R1).Attributes!.Remove("sweep_number"), "dataset /acquisition/sweep_001", "no sweep_number" },
         { "no_data", f => At(f, R2).Remove("data"), "dataset /acquisition/sweep_002/data", "missing" },
         { "conversion_zero", f => Data(f, R1).Attributes!["conversion"] = 0f, "dataset /acquisition/sweep_001/data", "'conversion' is 0" },
-        { "two_dimensional", f => At(f, R1)["data"] = new H5Dataset(new float[3, 4]) { Attributes = new() { ["unit"] = "volts" } }, "dataset /acquisition/sweep_001/data", "has shape [3, 4]" },
+        { "two_dimensional", f => At(f, R1)["data"] = new H5Dataset(new float[3, 4]) { Attributes = new() { ["unit"] = "volts" } },
+            "dataset /acquisition/sweep_001/data", "has shape [3, 4]" },
         { "duplicate_sweep_number", f => At(f, R2).Attributes!["sweep_number"] = 1u, "dataset /acquisition/sweep_002", "also used by /acquisition/sweep_001" },
         { "stimulus_rate_differs", f => Start(f, S1).Attributes!["rate"] = 20000f, "dataset /acquisition/sweep_001", "but its stimulus" },
         { "nwb_version_1", f => f.Attributes!["nwb_version"] = "1.0.6", "dataset /", "only NWB 2.x" },
         { "not_nwb", f => f.Attributes!.Remove("neurodata_type"), "dataset /", "not an NWB file" },
         { "no_acquisition", f => f.Remove("acquisition"), "dataset /acquisition", "missing" },
         { "no_timing", f => At(f, R1).Remove("starting_time"), "dataset /acquisition/sweep_001", "sampling rate is unknown" },
-        { "uneven_timestamps", f => { At(f, R1).Remove("starting_time"); At(f, R1)["timestamps"] = Uneven(); }, "dataset /acquisition/sweep_001/timestamps", "not evenly spaced" },
+        { "uneven_timestamps", f => { At(f, R1).Remove("starting_time"); At(f, R1)["timestamps"] = Uneven(); },
+            "dataset /acquisition/sweep_001/timestamps", "not evenly spaced" },
     };
 
     private static H5Dataset NanRun(H5File f)
@@ -89,7 +94,8 @@ public sealed class NwbReaderTests : IDisposable
         Assert.Equal("empty.nwb: byte 0: the file is empty.", Assert.Throws<RecordingFormatException>(() => NwbReader.Read(empty)).Message);
         var text = _files.Text("text.nwb", "time,V\n0,1\n");
         Assert.Contains("text.nwb: byte 0: not an HDF5 file", Assert.Throws<RecordingFormatException>(() => NwbReader.Read(text)).Message);
-        Assert.Contains("nowhere.nwb: file not found", Assert.Throws<RecordingFormatException>(() => NwbReader.Read(Path.Combine(_files.Dir, "nowhere.nwb"))).Message);
+        Assert.Contains("nowhere.nwb: file not found",
+            Assert.Throws<RecordingFormatException>(() => NwbReader.Read(Path.Combine(_files.Dir, "nowhere.nwb"))).Message);
 
         // Truncated: the file is cut part-way through (a copy that stopped early); the error names the file and a dataset.
         var whole = Path.Combine(_files.Dir, "whole.nwb");

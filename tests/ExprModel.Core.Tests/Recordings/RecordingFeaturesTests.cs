@@ -115,7 +115,8 @@ public sealed class RecordingFeaturesTests
     public void WhatCannotBeMeasured_IsNullWithAReason()
     {
         // Only depolarising steps that never spike: no passive read-outs, no rheobase, no spike shape.
-        var sweeps = new[] { 20.0, 40 }.Select((a, k) => SyntheticSweeps.Sweep(k + 1, Dt, SyntheticSweeps.Passive(a, 200, 20, Dt), SyntheticSweeps.Command(a, Dt))).ToArray();
+        var sweeps = new[] { 20.0, 40 }.Select((a, k) => SyntheticSweeps.Sweep(k + 1, Dt, SyntheticSweeps.Passive(a, 200, 20, Dt),
+            SyntheticSweeps.Command(a, Dt))).ToArray();
         var r = RecordingFeatures.Measure(new RecordedCell { CellId = "c", Source = "s", Sweeps = sweeps }).Readouts;
         Assert.Null(r.InputResistanceMOhm);
         Assert.Null(r.MembraneTimeConstantMs);

@@ -40,7 +40,11 @@ public sealed class RecordingIdentityTests : IDisposable
             return RecordedSweep.Create(n + 1, dt, trace.VoltageMv, pa, "simulated");
         }).ToArray();
         var path = Path.Combine(_files.Dir, "wb1996.nwb");
-        NwbWriter.Write(path, new NwbSession { Identifier = "wb1996", Cells = [new RecordedCell { CellId = "wb1996", Source = "simulated", Sweeps = sweeps }] });
+        NwbWriter.Write(path, new NwbSession
+        {
+            Identifier = "wb1996",
+            Cells = [new RecordedCell { CellId = "wb1996", Source = "simulated", Sweeps = sweeps }],
+        });
         var recorded = RecordingFeatures.Measure(Assert.Single(NwbReader.Read(path)));
         var r = recorded.Readouts;
 

@@ -60,7 +60,8 @@ internal static class SyntheticSweeps
         return v;
     }
 
-    public static RecordedSweep Sweep(int number, double dtMs, double[] v, double[] i) => RecordedSweep.Create(number, dtMs, v, i, $"synthetic, sweep {number}");
+    public static RecordedSweep Sweep(int number, double dtMs, double[] v, double[] i) =>
+        RecordedSweep.Create(number, dtMs, v, i, $"synthetic, sweep {number}");
 
     /// <summary>Seeded Gaussian noise (Box-Muller) of rms <paramref name="sdMv"/> added to a copy.</summary>
     public static double[] WithNoise(double[] v, double sdMv, Random rng)

@@ -64,7 +64,8 @@ public sealed class TraceCsvReaderTests : IDisposable
         { "slow.csv", "time (ms),V (mV),I (pA)\n0,-65,0\n1,-65,0\n2,-65,0\n", "slow.csv: line 2: sweep 1 is sampled at 1000 Hz" },
         { "ragged.csv", "time (ms),V (mV),I (pA)\n0,-65\n", "ragged.csv: line 2, column 3: 2 fields" },
         { "empty_value.csv", "time (ms),V (mV),I (pA)\n0,,0\n", "empty_value.csv: line 2, column 2: empty membrane potential" },
-        { "split_sweep.csv", "sweep,time (ms),V (mV),I (pA)\n1,0,-65,0\n1,0.05,-65,0\n1,0.1,-65,0\n2,0,-65,0\n2,0.05,-65,0\n2,0.1,-65,0\n1,0.15,-65,0\n", "split_sweep.csv: line 8, column 1: sweep 1 starts again" },
+        { "split_sweep.csv", "sweep,time (ms),V (mV),I (pA)\n1,0,-65,0\n1,0.05,-65,0\n1,0.1,-65,0\n2,0,-65,0\n2,0.05,-65,0\n2,0.1,-65,0\n1,0.15,-65,0\n",
+            "split_sweep.csv: line 8, column 1: sweep 1 starts again" },
         { "empty.csv", "", "empty.csv: line 1: the file is empty" },
     };
 

@@ -28,7 +28,8 @@ public sealed class DemoRecordedFeaturesTests
         Assert.Equal(15, table.CellIds.Count);
         var features = ReadoutMatcher.Match(table, _ => true);
         var matched = features.Readouts.Select(r => r.Readout).ToHashSet();
-        foreach (var name in new[] { "resting_potential", "input_resistance", "membrane_time_constant", "sag_ratio", "rheobase_absolute", "spike_threshold", "fi_gain_absolute" })
+        foreach (var name in new[] { "resting_potential", "input_resistance", "membrane_time_constant", "sag_ratio", "rheobase_absolute",
+            "spike_threshold", "fi_gain_absolute" })
             Assert.Contains(name, matched);
         // FH3002's only crossing of the detection level is not regenerative (largest rise under 1 mV/ms): no rheobase.
         var rheobase = features.Readouts.Single(r => r.Readout == "rheobase_absolute");

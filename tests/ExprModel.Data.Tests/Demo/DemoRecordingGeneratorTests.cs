@@ -23,7 +23,8 @@ public sealed class DemoRecordingGeneratorTests
         if (Environment.GetEnvironmentVariable("EXPRMODEL_WRITE_DEMO") == "1") DemoRecordingGenerator.WriteTo(Catalog.Value, DemoDir);
         var fresh = DemoRecordingGenerator.Generate(Catalog.Value, DemoDir);
         Assert.Equal(fresh.Keys.Order(StringComparer.Ordinal), Directory.GetFiles(RecordingsDir).Select(Path.GetFileName).Order(StringComparer.Ordinal));
-        foreach (var (name, bytes) in fresh) Assert.True(bytes.AsSpan().SequenceEqual(File.ReadAllBytes(Path.Combine(RecordingsDir, name))), $"{name} differs from the generator's output");
+        foreach (var (name, bytes) in fresh) Assert.True(bytes.AsSpan().SequenceEqual(File.ReadAllBytes(Path.Combine(RecordingsDir, name))),
+            $"{name} differs from the generator's output");
         // Modest size: a few MB for all recordings.
         Assert.True(fresh.Values.Sum(b => (long)b.Length) < 5_000_000);
     }

@@ -148,7 +148,8 @@ public sealed class SnapshotStoreTests : IDisposable
                     expression BLOB, expression_name TEXT);
                 CREATE TRIGGER snapshots_immutable_update BEFORE UPDATE ON snapshots BEGIN SELECT RAISE(ABORT, 'snapshots are immutable'); END;
                 CREATE TRIGGER snapshots_immutable_delete BEFORE DELETE ON snapshots BEGIN SELECT RAISE(ABORT, 'snapshots are immutable'); END;
-                INSERT INTO snapshots VALUES ('AAAAAAAAAAAAAAAAAAAAAA', NULL, '2026-01-02T03:04:05.0000000+00:00', '{}', 'leak@1', '{}', '[]', 'old one', NULL, NULL);
+                INSERT INTO snapshots VALUES ('AAAAAAAAAAAAAAAAAAAAAA', NULL, '2026-01-02T03:04:05.0000000+00:00', '{}', 'leak@1', '{}',
+                    '[]', 'old one', NULL, NULL);
                 """;
             cmd.ExecuteNonQuery();
         }
