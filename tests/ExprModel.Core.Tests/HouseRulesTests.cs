@@ -9,24 +9,6 @@ namespace ExprModel.Core.Tests;
 /// </summary>
 public sealed class HouseRulesTests
 {
-    /// <summary>
-    /// Paths (files, or folders ending in '/') exempt from the line limit and the one-type-per-file rule for now: they are
-    /// being reshaped on other branches; the coordinator removes this list after merging.
-    /// </summary>
-    private static readonly string[] TemporarilyExempt =
-    [
-        "src/ExprModel.Web/Components/",
-        "src/ExprModel.Web/Workspace/",
-        "src/ExprModel.Web/Apis/CompareApi.cs",
-        "src/ExprModel.Web/Apis/WhatIfApi.cs",
-        "src/ExprModel.Web/Apis/WhatIfApiModels.cs",
-        "src/ExprModel.Web/Simulation/Protocols.cs",
-        "tests/ExprModel.Web.Tests/Workspace/",
-        "tests/ExprModel.Web.Tests/Components/",
-        "tests/ExprModel.Web.Tests/Apis/CompareApiTests.cs",
-        "tests/ExprModel.Web.Tests/Apis/WhatIfApiTests.cs",
-    ];
-
     private static readonly string Root = FindRoot();
 
     private static string FindRoot()
@@ -38,14 +20,8 @@ public sealed class HouseRulesTests
         throw new InvalidOperationException("ExprModel.sln not found above the test directory");
     }
 
-    /// <summary>A path relative to the checkout, with '/' separators (as the exempt list writes them).</summary>
+    /// <summary>A path relative to the checkout, with '/' separators.</summary>
     private static string Relative(string path) => Path.GetRelativePath(Root, path).Replace('\\', '/');
-
-    private static bool Exempt(string file)
-    {
-        string rel = Relative(file);
-        return TemporarilyExempt.Any(e => e.EndsWith('/') ? rel.StartsWith(e, StringComparison.Ordinal) : rel == e);
-    }
 
     private static IEnumerable<string> Files(string top, params string[] patterns) =>
         patterns.SelectMany(p => Directory.EnumerateFiles(Path.Combine(Root, top), p, SearchOption.AllDirectories))
@@ -101,7 +77,7 @@ public sealed class HouseRulesTests
     {
         int limit = MaxLineLength();
         var long_ = new List<string>();
-        foreach (var file in Files("src", "*.cs", "*.razor").Concat(Files("tests", "*.cs", "*.razor")).Where(f => !Exempt(f)))
+        foreach (var file in Files("src", "*.cs", "*.razor").Concat(Files("tests", "*.cs", "*.razor")))
         {
             var lines = File.ReadAllLines(file);
             for (int i = 0; i < lines.Length; i++)
@@ -120,7 +96,7 @@ public sealed class HouseRulesTests
     public void Every_source_file_holds_one_top_level_type_named_after_it()
     {
         var wrong = new List<string>();
-        foreach (var file in Files("src", "*.cs").Where(f => !Exempt(f)))
+        foreach (var file in Files("src", "*.cs"))
         {
             string stem = Path.GetFileNameWithoutExtension(file);
             if (stem is "Program" or "Usings" || stem.EndsWith(".razor", StringComparison.Ordinal)) continue;

@@ -74,7 +74,7 @@ public static class PredictedVersusRecorded
                 if (source.Length > 0)
                     why = string.Join(" ", new[] { $"recorded: {source}.", r.NoteByCell?.GetValueOrDefault(cell) ?? "", why }.Where(x => x.Length > 0));
                 rows.Add(new CellComparison(cell, groupOf(cell), p?.Model ?? "-", r.Readout, unit, pred, rec, pred - rec, null, why)
-                    { RecordedSource = source });
+                { RecordedSource = source });
             }
             foreach (var g in rows.GroupBy(c => c.Group ?? "", StringComparer.Ordinal).OrderBy(g => g.Key, StringComparer.Ordinal))
             {
@@ -101,8 +101,15 @@ public static class PredictedVersusRecorded
             agreement.Add(AgreementStatistics.Of(r.Readout, unit, paired.Select(c => c.Predicted!.Value).ToArray(),
                 paired.Select(c => c.Recorded!.Value).ToArray()));
         }
-        return new ConfrontationResult { Recorded = recorded, Per = per, ExpressionNote = expressionNote, Cells = cells, Groups = groups,
-            Agreement = agreement };
+        return new ConfrontationResult
+        {
+            Recorded = recorded,
+            Per = per,
+            ExpressionNote = expressionNote,
+            Cells = cells,
+            Groups = groups,
+            Agreement = agreement
+        };
     }
 
     private static Dictionary<string, string> GroupOf(ExpressionDataset data)

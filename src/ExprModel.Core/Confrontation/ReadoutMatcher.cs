@@ -48,8 +48,12 @@ public static class ReadoutMatcher
             if (j == table.CellIdColumnNumber - 1) continue;
             var (match, values) = MatchColumn(table, j, byColumn.GetValueOrDefault(j));
             if (match.Readout is { } name && taken.TryGetValue(name, out var earlier))
-                match = match with { Readout = null, ReadoutUnit = null,
-                    Reason = $"read-out {name} is already matched to column '{earlier}'; map one of them elsewhere or to none." };
+                match = match with
+                {
+                    Readout = null,
+                    ReadoutUnit = null,
+                    Reason = $"read-out {name} is already matched to column '{earlier}'; map one of them elsewhere or to none."
+                };
             matches.Add(match);
             if (match.Readout is null || values is null) continue;
             taken[match.Readout] = match.Header;

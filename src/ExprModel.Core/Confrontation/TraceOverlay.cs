@@ -62,8 +62,16 @@ public sealed record TraceOverlay
             "applied to either trace).");
         return new TraceOverlay
         {
-            CellId = cell.CellId, SweepNumber = sweep.SweepNumber, Step = step, StepUaPerCm2 = stepDensity, HoldingUaPerCm2 = holdingDensity,
-            TimeMs = time, RecordedMv = sweep.VoltageMv, PredictedMv = predicted, CommandPa = sweep.CurrentPa, Notes = notes,
+            CellId = cell.CellId,
+            SweepNumber = sweep.SweepNumber,
+            Step = step,
+            StepUaPerCm2 = stepDensity,
+            HoldingUaPerCm2 = holdingDensity,
+            TimeMs = time,
+            RecordedMv = sweep.VoltageMv,
+            PredictedMv = predicted,
+            CommandPa = sweep.CurrentPa,
+            Notes = notes,
         };
     }
 

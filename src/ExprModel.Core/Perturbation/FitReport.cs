@@ -45,13 +45,24 @@ public static class FitReport
             ["objectiveAfter"] = fit.ObjectiveAfter,
             ["targets"] = new JsonArray(fit.Residuals.Select(r => (JsonNode)new JsonObject
             {
-                ["readout"] = r.Readout, ["unit"] = r.Unit, ["recorded"] = r.Recorded, ["scale"] = r.Scale, ["weight"] = 1 / (r.Scale * r.Scale),
-                ["before"] = r.Before, ["after"] = r.After, ["scaledResidualAfter"] = r.ScaledAfter,
+                ["readout"] = r.Readout,
+                ["unit"] = r.Unit,
+                ["recorded"] = r.Recorded,
+                ["scale"] = r.Scale,
+                ["weight"] = 1 / (r.Scale * r.Scale),
+                ["before"] = r.Before,
+                ["after"] = r.After,
+                ["scaledResidualAfter"] = r.ScaledAfter,
             }).ToArray()),
             ["channels"] = new JsonArray(fit.Channels.Select(c => (JsonNode)new JsonObject
             {
-                ["channel"] = c.Channel, ["startRelative"] = c.StartRelative, ["fittedRelative"] = c.FittedRelative, ["fixed"] = c.Fixed,
-                ["pinned"] = c.Pinned, ["dataSdLn"] = double.IsFinite(c.DataSdLn) ? c.DataSdLn : null, ["atBound"] = c.AtBound,
+                ["channel"] = c.Channel,
+                ["startRelative"] = c.StartRelative,
+                ["fittedRelative"] = c.FittedRelative,
+                ["fixed"] = c.Fixed,
+                ["pinned"] = c.Pinned,
+                ["dataSdLn"] = double.IsFinite(c.DataSdLn) ? c.DataSdLn : null,
+                ["atBound"] = c.AtBound,
             }).ToArray()),
             ["singularValues"] = new JsonArray(fit.Identifiability.SingularValues.Select(v => (JsonNode?)JsonValue.Create(v)).ToArray()),
             ["summary"] = fit.Summary,

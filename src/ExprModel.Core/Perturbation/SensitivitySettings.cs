@@ -17,7 +17,9 @@ public sealed record SensitivitySettings
     /// <summary>The live settings with the rheobase grid at 0.5 % and the sustained-onset grid at 1 %.</summary>
     public static ReadoutSettings TightReadouts { get; } = ReadoutSettings.Live with
     {
-        RheobaseRelativeTolerance = 0.005, RheobaseAbsoluteToleranceUaPerCm2 = 0.001, ClassRelativeTolerance = 0.01,
+        RheobaseRelativeTolerance = 0.005,
+        RheobaseAbsoluteToleranceUaPerCm2 = 0.001,
+        ClassRelativeTolerance = 0.01,
     };
 
     public static SensitivitySettings Default { get; } = new();

@@ -109,11 +109,17 @@ public static class NwbWriter
 
     private static H5Dataset Data<T>(T[] values, string unit, float conversion, bool compress)
     {
-        var attributes = new Dictionary<string, object> { [NwbSchema.Unit] = unit, [NwbSchema.Conversion] = conversion, [NwbSchema.Offset] = 0f,
-            [NwbSchema.Resolution] = -1f };
+        var attributes = new Dictionary<string, object>
+        {
+            [NwbSchema.Unit] = unit,
+            [NwbSchema.Conversion] = conversion,
+            [NwbSchema.Offset] = 0f,
+            [NwbSchema.Resolution] = -1f
+        };
         return compress
             ? new H5Dataset(values, chunks: [(uint)Math.Min(values.Length, 1 << 16)],
-                datasetCreation: new PureHDF.VOL.Native.H5DatasetCreation { Filters = [PureHDF.Filters.DeflateFilter.Id] }) { Attributes = attributes }
+                datasetCreation: new PureHDF.VOL.Native.H5DatasetCreation { Filters = [PureHDF.Filters.DeflateFilter.Id] })
+            { Attributes = attributes }
             : new H5Dataset(values) { Attributes = attributes };
     }
 
@@ -122,8 +128,14 @@ public static class NwbWriter
         return Typed(new H5Group
         {
             [NwbSchema.Data] = data,
-            [NwbSchema.StartingTime] = new H5Dataset(0.0) { Attributes = new() { [NwbSchema.Rate] = (float)sweep.SamplingRateHz,
-                [NwbSchema.Unit] = "seconds" } },
+            [NwbSchema.StartingTime] = new H5Dataset(0.0)
+            {
+                Attributes = new()
+                {
+                    [NwbSchema.Rate] = (float)sweep.SamplingRateHz,
+                    [NwbSchema.Unit] = "seconds"
+                }
+            },
             [NwbSchema.Electrode] = new H5SoftLink(electrodePath),
             Attributes = new()
             {

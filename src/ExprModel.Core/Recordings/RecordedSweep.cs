@@ -38,8 +38,14 @@ public sealed record RecordedSweep
         var (step, problem) = RecordedStep.Find(commandPa, sampleIntervalMs);
         return new RecordedSweep
         {
-            SweepNumber = sweepNumber, SampleIntervalMs = sampleIntervalMs, VoltageMv = voltageMv, CurrentPa = currentPa, Source = source,
-            Step = step, StepProblem = problem, FullCommandPa = aborted ? commandPa : null,
+            SweepNumber = sweepNumber,
+            SampleIntervalMs = sampleIntervalMs,
+            VoltageMv = voltageMv,
+            CurrentPa = currentPa,
+            Source = source,
+            Step = step,
+            StepProblem = problem,
+            FullCommandPa = aborted ? commandPa : null,
         };
     }
 }

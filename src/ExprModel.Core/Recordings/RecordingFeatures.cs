@@ -106,8 +106,15 @@ public static class RecordingFeatures
         };
         return new RecordedReadouts
         {
-            CellId = cell.CellId, Source = cell.Source, Readouts = readouts, RheobaseStepSpacingPa = spacing, SustainedFiringOnsetPa = sustained?.CurrentPa,
-            AdaptationStepPa = adaptStep, SmoothingMs = sweeps.Length == 0 ? 0 : sweeps.Max(w => w.SmoothingMs), FiCurve = fi, Sweeps = sweeps,
+            CellId = cell.CellId,
+            Source = cell.Source,
+            Readouts = readouts,
+            RheobaseStepSpacingPa = spacing,
+            SustainedFiringOnsetPa = sustained?.CurrentPa,
+            AdaptationStepPa = adaptStep,
+            SmoothingMs = sweeps.Length == 0 ? 0 : sweeps.Max(w => w.SmoothingMs),
+            FiCurve = fi,
+            Sweeps = sweeps,
         };
     }
 

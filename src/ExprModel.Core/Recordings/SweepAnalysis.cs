@@ -67,8 +67,16 @@ public sealed record SweepAnalysis
         }
         return new SweepAnalysis
         {
-            Sweep = sweep, BaselineMv = baselineMv, NoiseMv = noise, SmoothingMs = window > 1 ? window * dt : 0, MeasuredMv = measured,
-            SpikeTimesMs = spikes, SpikesBeforeStep = before, SteadyMv = steady, Rates = rates, Excluded = excluded,
+            Sweep = sweep,
+            BaselineMv = baselineMv,
+            NoiseMv = noise,
+            SmoothingMs = window > 1 ? window * dt : 0,
+            MeasuredMv = measured,
+            SpikeTimesMs = spikes,
+            SpikesBeforeStep = before,
+            SteadyMv = steady,
+            Rates = rates,
+            Excluded = excluded,
         };
     }
 

@@ -50,8 +50,13 @@ public static partial class TraceCsvReader
         var dup = sweeps.GroupBy(s => s.SweepNumber).FirstOrDefault(g => g.Count() > 1);
         if (dup is not null) throw new RecordingFormatException($"{dup.First().Source}: sweep {dup.Key} appears twice (also {dup.Skip(1).First().Source}).");
         var ordered = sweeps.OrderBy(s => s.SweepNumber).ToArray();
-        return new RecordedCell { CellId = cellId, Source = string.Join(", ", files.Select(Path.GetFileName)), Sweeps = ordered,
-            Notes = [.. RecordedCell.GapNotes(ordered)] };
+        return new RecordedCell
+        {
+            CellId = cellId,
+            Source = string.Join(", ", files.Select(Path.GetFileName)),
+            Sweeps = ordered,
+            Notes = [.. RecordedCell.GapNotes(ordered)]
+        };
     }
 
     private sealed record Columns(int Time, double TimeToMs, int Voltage, double VoltageToMv, int Current, double CurrentToPa, int Sweep, int Count);

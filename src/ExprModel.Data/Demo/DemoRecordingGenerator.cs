@@ -76,7 +76,10 @@ public static class DemoRecordingGenerator
                 foreach (var (entry, factor) in factors.OrderBy(p => p.Key, StringComparer.Ordinal)) f[entry] = Math.Round(factor, 6);
                 sidecar.Add(new JsonObject
                 {
-                    ["cell"] = id, ["group"] = DemoDataGenerator.Groups[g].Name, ["file"] = id + ".nwb", ["density_factors"] = f,
+                    ["cell"] = id,
+                    ["group"] = DemoDataGenerator.Groups[g].Name,
+                    ["file"] = id + ".nwb",
+                    ["density_factors"] = f,
                     ["missing_sweep"] = missing,
                     ["aborted_sweep"] = aborted,
                     ["notes"] = new JsonArray(notes.Select(n => (JsonNode)JsonValue.Create(n)!).ToArray()),

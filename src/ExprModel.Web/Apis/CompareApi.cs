@@ -14,39 +14,6 @@ using Microsoft.Extensions.Options;
 
 namespace ExprModel.Web.Apis;
 
-/// <summary>A compare request: a build request's inputs, the recorded table (default: the metadata) and how to compare.</summary>
-public sealed record CompareRequest
-{
-    public string? Expression { get; init; }
-    public string ExpressionName { get; init; } = "expression.csv";
-    public string? Metadata { get; init; }
-    public string MetadataName { get; init; } = "metadata.csv";
-    public string? GroupBy { get; init; }
-    /// <summary>Per-cell recorded values with units in the headers, as CSV or TSV text; absent = the metadata table.</summary>
-    public string? Recorded { get; init; }
-    public string RecordedName { get; init; } = "recorded.csv";
-    /// <summary>Cell id column of the recorded table; absent = a column named like a cell id.</summary>
-    public string? RecordedCellColumn { get; init; }
-    /// <summary>Column (header, or header without its unit) to read-out name, or to "none".</summary>
-    public IReadOnlyDictionary<string, string>? Map { get; init; }
-    /// <summary>cell (each recorded cell's own model) or group (its group's model).</summary>
-    public string Per { get; init; } = "cell";
-    /// <summary>Per-cell models: group (gamma-Poisson shrinkage towards the cell's group) or none.</summary>
-    public string Shrink { get; init; } = "group";
-    public string? Orientation { get; init; }
-    public string? Unit { get; init; }
-    public IReadOnlyList<GeneOverride>? Overrides { get; init; }
-    public string? ReferenceGroup { get; init; }
-    public double Exponent { get; init; } = 1;
-    public bool Clamp { get; init; } = true;
-    public double CapacitancePf { get; init; } = 50;
-    public double TemperatureC { get; init; } = 34;
-}
-
-/// <param name="Csv">The same table as <c>exprmodel compare</c> writes (research caution first).</param>
-public sealed record CompareResponse(IReadOnlyList<ReadoutMatch> Matches, string Per, string ExpressionNote, IReadOnlyList<ReadoutAgreement> Agreement,
-    IReadOnlyList<GroupComparison> Groups, IReadOnlyList<CellComparison> Cells, IReadOnlyList<string> Warnings, string Csv, string Caution);
-
 /// <summary>
 /// Predicted against recorded read-outs (the library's <see cref="PredictedVersusRecorded"/>, as <c>exprmodel compare</c>
 /// uses it): a JSON body with the tables as text, or a multipart form with the tables as file parts, like the build API.
@@ -54,10 +21,11 @@ public sealed record CompareResponse(IReadOnlyList<ReadoutMatch> Matches, string
 public static class CompareApi
 {
     private static readonly string[] FormFields =
-        ["expression", "metadata", "recorded", "groupBy", "recordedCellColumn", "map", "per", "shrink", "orientation", "unit", "referenceGroup", "exponent", "clamp",
-         "capacitancePf", "temperatureC", "overrides"];
+        ["expression", "metadata", "recorded", "groupBy", "recordedCellColumn", "map", "per", "shrink", "orientation", "unit", "referenceGroup", "exponent",
+         "clamp", "capacitancePf", "temperatureC", "overrides"];
 
-    private sealed record CompareUpload(CompareRequest Options, byte[] Expression, string ExpressionName, byte[]? Metadata, string MetadataName, byte[]? Recorded, string RecordedName)
+    private sealed record CompareUpload(CompareRequest Options, byte[] Expression, string ExpressionName, byte[]? Metadata, string MetadataName,
+        byte[]? Recorded, string RecordedName)
     {
         /// <summary>Recorded sweeps (multipart only): file name and bytes of each part named recording, recording2, ...</summary>
         public IReadOnlyList<(string FileName, byte[] Bytes)> Recordings { get; init; } = [];
@@ -70,19 +38,22 @@ public static class CompareApi
     public static IEndpointRouteBuilder MapCompareApi(this IEndpointRouteBuilder app)
     {
         var api = app.MapGroup("/api").WithTags("Compare");
-        api.MapPost("/compare", async Task<Ok<CompareResponse>> (HttpRequest request, IOptions<WebOptions> options, ChannelCatalog catalog, SimulationGate gate, CancellationToken cancel) =>
+        api.MapPost("/compare", async Task<Ok<CompareResponse>> (HttpRequest request, IOptions<WebOptions> options, ChannelCatalog catalog,
+            SimulationGate gate, CancellationToken cancel) =>
             {
                 long limit = options.Value.MaxUploadBytes;
                 var upload = MultipartForm.IsMultipart(request)
                     ? FromForm(await MultipartForm.ReadAsync(request, limit, "The upload (expression, metadata and recorded files)", cancel))
-                    : FromJson(await BoundedUpload.ReadAsync(request.Body, request.ContentLength, limit, "The request (expression and recorded tables)", cancel));
+                    : FromJson(await BoundedUpload.ReadAsync(request.Body, request.ContentLength, limit, "The request (expression and recorded tables)",
+                        cancel));
                 return TypedResults.Ok(await Compare(catalog, gate, upload, cancel));
             })
             .WithName("CompareWithRecordings")
             .WithSummary("Builds a model per recorded cell (or per group), measures it and compares every read-out the recorded table has (columns matched by "
                 + "header name and unit): per cell the difference and a z-score against the group's recorded SD, per group, and across cells Pearson and "
-                + "Spearman r, mean absolute error and bias. JSON body (tables as text) or multipart form (expression, metadata, recorded as file parts; recorded sweeps as "
-                + "file parts recording, recording2, ... (NWB or trace tables), measured per cell; where a table is also sent, a cell's sweeps win).")
+                + "Spearman r, mean absolute error and bias. JSON body (tables as text) or multipart form (expression, metadata, recorded as file parts; "
+                + "recorded sweeps as file parts recording, recording2, ... (NWB or trace tables), measured per cell; where a table is also sent, "
+                + "a cell's sweeps win).")
             .Accepts<CompareRequest>("application/json", "multipart/form-data")
             .ProducesProblem(400).ProducesProblem(413).ProducesProblem(503)
             // As the build API: no cookies or sign-in, so a cross-site request gains nothing; the form is read by hand.
@@ -93,8 +64,18 @@ public static class CompareApi
     private static async Task<CompareResponse> Compare(ChannelCatalog catalog, SimulationGate gate, CompareUpload upload, CancellationToken cancel)
     {
         var body = upload.Options;
-        var per = body.Per switch { "cell" => ModelPer.Cell, "group" => ModelPer.Group, var p => throw new UserInputException($"per: '{p}' is not cell or group.") };
-        var shrink = body.Shrink switch { "group" => ShrinkageMode.Group, "none" => ShrinkageMode.None, var s => throw new UserInputException($"shrink: '{s}' is not group or none.") };
+        var per = body.Per switch
+        {
+            "cell" => ModelPer.Cell,
+            "group" => ModelPer.Group,
+            var p => throw new UserInputException($"per: '{p}' is not cell or group."),
+        };
+        var shrink = body.Shrink switch
+        {
+            "group" => ShrinkageMode.Group,
+            "none" => ShrinkageMode.None,
+            var s => throw new UserInputException($"shrink: '{s}' is not group or none."),
+        };
         if (upload.Metadata is not null && body.GroupBy is null) throw new UserInputException("groupBy: needed with metadata (its group column).");
         if (per == ModelPer.Group && upload.Metadata is null) throw new UserInputException("per: group needs metadata and groupBy.");
         bool sweeps = upload.Recordings.Count > 0;
@@ -103,9 +84,11 @@ public static class CompareApi
             : upload.Metadata is not null && !sweeps ? (upload.Metadata, upload.MetadataName)
             : (null, "");
         if (tableBytes is null && !sweeps)
-            throw new UserInputException("recorded: required (per-cell recorded values with units in the headers), unless the metadata holds them or recordings are sent.");
+            throw new UserInputException("recorded: required (per-cell recorded values with units in the headers), unless the metadata holds them or "
+                + "recordings are sent.");
 
-        var session = ExpressionSession.Read(catalog, upload.Expression, upload.ExpressionName, upload.Metadata, upload.MetadataName, new ReadChoices(body.Orientation, body.Unit, body.GroupBy));
+        var session = ExpressionSession.Read(catalog, upload.Expression, upload.ExpressionName, upload.Metadata, upload.MetadataName,
+            new ReadChoices(body.Orientation, body.Unit, body.GroupBy));
         var report = session.Map(body.Overrides ?? []);
         var rule = DensityRule.RelativeTo(body.ReferenceGroup) with
         {
@@ -121,7 +104,8 @@ public static class CompareApi
         if (sweeps)
         {
             var measured = await gate.RunAsync(_ => RecordedUploads.Measure(upload.Recordings), cancel);
-            try { fromSweeps = RecordedSweepFeatures.From(measured, string.Join(", ", upload.Recordings.Select(r => Path.GetFileName(r.FileName))), cells.Contains); }
+            string sources = string.Join(", ", upload.Recordings.Select(r => Path.GetFileName(r.FileName)));
+            try { fromSweeps = RecordedSweepFeatures.From(measured, sources, cells.Contains); }
             catch (Core.Recordings.RecordingFormatException e) { throw new UserInputException(e.Message); }
         }
         var features = fromSweeps is null ? table! : table is null ? fromSweeps : RecordedSweepFeatures.Join(fromSweeps, table);
@@ -141,18 +125,21 @@ public static class CompareApi
         try { body = JsonSerializer.Deserialize<CompareRequest>(bytes, SnapshotService.Json); }
         catch (JsonException e)
         {
-            throw new UserInputException($"request body: line {(e.LineNumber ?? 0) + 1}, position {(e.BytePositionInLine ?? 0) + 1}: not valid JSON for a compare request.");
+            throw new UserInputException($"request body: line {(e.LineNumber ?? 0) + 1}, position {(e.BytePositionInLine ?? 0) + 1}: not valid JSON for a "
+                + "compare request.");
         }
         if (body?.Expression is not { Length: > 0 } table) throw new UserInputException("expression: required (the table as CSV or TSV text).");
         static byte[]? Bytes(string? text) => text is null ? null : Encoding.UTF8.GetBytes(text);
-        return new CompareUpload(body, Encoding.UTF8.GetBytes(table), body.ExpressionName, Bytes(body.Metadata), body.MetadataName, Bytes(body.Recorded), body.RecordedName);
+        return new CompareUpload(body, Encoding.UTF8.GetBytes(table), body.ExpressionName, Bytes(body.Metadata), body.MetadataName, Bytes(body.Recorded),
+            body.RecordedName);
     }
 
     private static CompareUpload FromForm(MultipartForm form)
     {
         foreach (var name in form.Names)
             if (!FormFields.Contains(name, StringComparer.OrdinalIgnoreCase) && !IsRecordingPart(name))
-                throw new UserInputException($"{name}: not a field of this endpoint (fields: {string.Join(", ", FormFields)}, and recording, recording2, ... for recorded sweeps).");
+                throw new UserInputException($"{name}: not a field of this endpoint (fields: {string.Join(", ", FormFields)}, and recording, recording2, "
+                    + "... for recorded sweeps).");
         if (form.Part("expression") is not { Bytes.Length: > 0 } expression)
             throw new UserInputException("expression: required, as a file part (CSV or TSV, optionally gzip, or AnnData .h5ad).");
         var (metadata, recorded) = (form.Part("metadata"), form.Part("recorded"));
@@ -174,7 +161,9 @@ public static class CompareApi
             Overrides = BuildApi.Overrides(form),
         };
         var recordings = form.Names.Where(IsRecordingPart).Order(StringComparer.OrdinalIgnoreCase).Select(n => form.Part(n)!)
-            .Select(p => (p.FileName ?? throw new UserInputException($"{p.Name}: send recorded sweeps as a file part with its file name (.nwb, .csv, .tsv or .txt)."), p.Bytes)).ToArray();
+            .Select(p => (p.FileName
+                ?? throw new UserInputException($"{p.Name}: send recorded sweeps as a file part with its file name (.nwb, .csv, .tsv or .txt)."),
+                p.Bytes)).ToArray();
         return new CompareUpload(options, expression.Bytes, expression.FileName ?? d.ExpressionName, metadata?.Bytes, metadata?.FileName ?? d.MetadataName,
             recorded?.Bytes, recorded?.FileName ?? d.RecordedName)
         { Recordings = recordings };
@@ -186,7 +175,8 @@ public static class CompareApi
         try { return JsonSerializer.Deserialize<Dictionary<string, string>>(json, SnapshotService.Json); }
         catch (JsonException e)
         {
-            throw new UserInputException($"map: line {(e.LineNumber ?? 0) + 1}, position {(e.BytePositionInLine ?? 0) + 1}: not a JSON object of column: read-out pairs, "
+            throw new UserInputException($"map: line {(e.LineNumber ?? 0) + 1}, position {(e.BytePositionInLine ?? 0) + 1}: not a JSON object of column: "
+                + "read-out pairs, "
                 + "e.g. {\"Vrest (mV)\": \"resting_potential\"}.");
         }
     }

@@ -25,7 +25,8 @@ public static partial class RecordedUploads
             File.WriteAllBytes(path, bytes);
             var features = ReadoutMatcher.Match(RecordedFeatureReader.Read(path, cellColumn, Path.GetFileName(name)), isCell, map);
             if (features.Readouts.Count == 0)
-                throw new UserInputException($"{features.Source}: no column matched a read-out ({string.Join("; ", features.Matches.Select(m => $"'{m.Header}': {m.Reason}"))}).");
+                throw new UserInputException($"{features.Source}: no column matched a read-out "
+                    + $"({string.Join("; ", features.Matches.Select(m => $"'{m.Header}': {m.Reason}"))}).");
             return features;
         });
 
@@ -39,7 +40,8 @@ public static partial class RecordedUploads
             {
                 var name = Path.GetFileName(fileName);
                 if (!SafeName().IsMatch(name))
-                    throw new UserInputException($"recording '{fileName}': the file name must be letters, digits, '.', '_' or '-' ending in .nwb, .csv, .tsv or .txt.");
+                    throw new UserInputException($"recording '{fileName}': the file name must be letters, digits, '.', '_' or '-' ending in .nwb, .csv, "
+                        + ".tsv or .txt.");
                 var path = Path.Combine(dir, name);
                 if (File.Exists(path)) throw new UserInputException($"recording '{name}': sent twice.");
                 File.WriteAllBytes(path, bytes);
@@ -57,7 +59,8 @@ public static partial class RecordedUploads
             var path = Path.Combine(dir, "metadata.csv");
             File.WriteAllBytes(path, bytes);
             var metadata = CellMetadataReader.Read(path, new CellMetadataOptions { GroupColumns = [groupBy] });
-            if (!metadata.Labels.ContainsKey(groupBy)) throw new UserInputException($"groupBy: the metadata has no column '{groupBy}' (label columns: {string.Join(", ", metadata.Labels.Keys)}).");
+            if (!metadata.Labels.ContainsKey(groupBy))
+                throw new UserInputException($"groupBy: the metadata has no column '{groupBy}' (label columns: {string.Join(", ", metadata.Labels.Keys)}).");
             var members = metadata.CellsIn(groupBy, group);
             if (members.Count == 0) throw new UserInputException($"group: no cell in group '{group}' (groups: {string.Join(", ", metadata.Groups(groupBy))}).");
             return members;

@@ -8,7 +8,8 @@ namespace ExprModel.Web.Workspace;
 public static class CatalogViews
 {
     public static IReadOnlyList<string> GenesOf(ChannelCatalog catalog, string entryId) =>
-        catalog.GeneLinks.Where(l => l.EntryId == entryId).Select(l => l.Symbol).Distinct(StringComparer.OrdinalIgnoreCase).Order(StringComparer.Ordinal).ToArray();
+        catalog.GeneLinks.Where(l => l.EntryId == entryId).Select(l => l.Symbol)
+            .Distinct(StringComparer.OrdinalIgnoreCase).Order(StringComparer.Ordinal).ToArray();
 
     public static CatalogEntrySummary Summary(ChannelCatalog catalog, ChannelEntry e) => new(
         e.Id, e.Version, e.Name, e.Family, Word(e.Ion), GenesOf(catalog, e.Id), e.Source.Short, e.Source.Doi,

@@ -66,7 +66,8 @@ public sealed class CellBatchJob(WorkspaceState workspace, ModelRunner runner, F
             _report = report;
             UsedShrinkage = mode;
             ExpressionNote = _shrink?.Note ?? "per-cell expression as read (not shrunk).";
-            await runner.CellBatchAsync(session.Dataset, report, workspace.Rule, done => { Done = done; _ = changed(); }, token, chunk => rows.AddRange(chunk), _shrink);
+            await runner.CellBatchAsync(session.Dataset, report, workspace.Rule, done => { Done = done; _ = changed(); }, token,
+                chunk => rows.AddRange(chunk), _shrink);
         }
         catch (OperationCanceledException) { Cancelled = true; }
         catch (Exception e) when (e is UserInputException or SimulationTimeoutException) { failed(e.Message); }
@@ -82,7 +83,10 @@ public sealed class CellBatchJob(WorkspaceState workspace, ModelRunner runner, F
     }
 
     /// <exception cref="UserInputException">The model cannot be built (the library's reason).</exception>
-    /// <summary>Builds <paramref name="cellId"/>'s model as the rows shown were built (same rule and expression estimate) and opens it on the Workbench.</summary>
+    /// <summary>
+    /// Builds <paramref name="cellId"/>'s model as the rows shown were built (same rule and expression estimate) and opens
+    /// it on the Workbench.
+    /// </summary>
     public void OpenCell(string cellId)
     {
         if (workspace.Session is not { } session || _report is null) return;
@@ -98,13 +102,17 @@ public sealed class CellBatchJob(WorkspaceState workspace, ModelRunner runner, F
         workspace.Open(built.Document, $"built from cell {cellId} ({how})", null, target);
     }
 
-    /// <summary>One row per cell with its group (as `exprmodel batch --per cell`), the caution, the rule and the expression estimate in the comments; null before a run.</summary>
+    /// <summary>
+    /// One row per cell with its group (as `exprmodel batch --per cell`), the caution, the rule and the expression estimate
+    /// in the comments; null before a run.
+    /// </summary>
     public string? Csv()
     {
         if (_rows is null || workspace.Session is not { } session) return null;
         var rule = workspace.Rule;
         return BatchTable.Create(_rows, [ResearchCaution.Text,
-            $"source: {session.Dataset.Table.Source}; every cell ({_rows.Count} of {Total}); rule: exponent {rule.Exponent}, reference {rule.ReferenceGroup ?? "dataset median"}, clamp {rule.ClampToPlausibleRange}",
+            $"source: {session.Dataset.Table.Source}; every cell ({_rows.Count} of {Total}); rule: exponent {rule.Exponent}, reference "
+                + $"{rule.ReferenceGroup ?? "dataset median"}, clamp {rule.ClampToPlausibleRange}",
             ExpressionNote], GroupOf).ToString();
     }
 

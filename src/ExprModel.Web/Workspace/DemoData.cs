@@ -28,11 +28,14 @@ public sealed class DemoData(IOptions<WebOptions> options)
     public bool Available => ExpressionFile is not null;
 
     /// <summary>The demo's recorded sweeps (one NWB file per recorded cell), if shipped.</summary>
-    public string? RecordingsDirectory => Directory is { } d && System.IO.Directory.Exists(Path.Combine(d, "recordings")) ? Path.Combine(d, "recordings") : null;
+    public string? RecordingsDirectory =>
+        Directory is { } d && System.IO.Directory.Exists(Path.Combine(d, "recordings")) ? Path.Combine(d, "recordings") : null;
 
     private IEnumerable<string> Files() => Directory is { } d
-        ? System.IO.Directory.EnumerateFiles(d).Where(f => f.EndsWith(".csv", StringComparison.OrdinalIgnoreCase) || f.EndsWith(".tsv", StringComparison.OrdinalIgnoreCase)
-            || f.EndsWith(".csv.gz", StringComparison.OrdinalIgnoreCase) || f.EndsWith(".tsv.gz", StringComparison.OrdinalIgnoreCase)).Order(StringComparer.Ordinal)
+        ? System.IO.Directory.EnumerateFiles(d).Where(f => f.EndsWith(".csv", StringComparison.OrdinalIgnoreCase)
+            || f.EndsWith(".tsv", StringComparison.OrdinalIgnoreCase)
+            || f.EndsWith(".csv.gz", StringComparison.OrdinalIgnoreCase)
+            || f.EndsWith(".tsv.gz", StringComparison.OrdinalIgnoreCase)).Order(StringComparer.Ordinal)
         : [];
 
     private static string Name(string f) => Path.GetFileName(f).ToLowerInvariant();

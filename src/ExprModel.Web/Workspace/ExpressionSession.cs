@@ -24,13 +24,16 @@ public sealed class ExpressionSession
         try
         {
             var tablePath = Save(dir, "table", tableName, "table.csv", table);
-            var metadataPath = metadata is not null && !string.IsNullOrEmpty(choices.GroupColumn) ? Save(dir, "metadata", metadataName, "metadata.csv", metadata) : null;
+            var metadataPath = metadata is not null && !string.IsNullOrEmpty(choices.GroupColumn)
+                ? Save(dir, "metadata", metadataName, "metadata.csv", metadata) : null;
             ExpressionDataset dataset;
-            try { dataset = ExpressionDataset.Read(catalog.ForMapping(), tablePath, options, metadataPath, metadataPath is null ? null : choices.GroupColumn, Path.GetFileName(tablePath)); }
+            string? groupColumn = metadataPath is null ? null : choices.GroupColumn;
+            try { dataset = ExpressionDataset.Read(catalog.ForMapping(), tablePath, options, metadataPath, groupColumn, Path.GetFileName(tablePath)); }
             catch (ExpressionFormatException e) { throw new UserInputException(e.Message); }
             catch (ArgumentException e) { throw new UserInputException($"{tableName}: {e.Message}"); }
             if (dataset.Groups is { Members.Count: 0 } && metadataPath is not null)
-                throw new UserInputException($"{Path.GetFileName(metadataPath)}: no cell id of the table has a '{choices.GroupColumn}' label; check that the first column holds the table's cell ids.");
+                throw new UserInputException($"{Path.GetFileName(metadataPath)}: no cell id of the table has a '{choices.GroupColumn}' label; check that "
+                    + "the first column holds the table's cell ids.");
             return new ExpressionSession { Dataset = dataset, Choices = choices };
         }
         finally

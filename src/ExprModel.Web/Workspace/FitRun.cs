@@ -10,7 +10,8 @@ namespace ExprModel.Web.Workspace;
 /// The Workbench's "fit to recording": typed (or pre-filled) targets, the prior and the starts, and the library's
 /// <see cref="DensityFit"/> on the model as the controls set it now; the fitted model opens on the Workbench or downloads.
 /// </summary>
-public sealed class FitRun(ModelRunner runner, SimulationGate gate, Func<ModelDocument?> current, Action<ModelDocument, string> open, Func<Task> changed) : IDisposable
+public sealed class FitRun(ModelRunner runner, SimulationGate gate, Func<ModelDocument?> current, Action<ModelDocument, string> open,
+    Func<Task> changed) : IDisposable
 {
     public BackgroundJob Job { get; } = new(gate, changed);
     public List<FitTargetRow> Rows { get; } = [new()];
@@ -40,8 +41,10 @@ public sealed class FitRun(ModelRunner runner, SimulationGate gate, Func<ModelDo
     {
         var rows = targets.Select(t => new FitTargetRow
         {
-            Readout = t.Readout, Unit = t.Unit,
-            Value = t.Value.ToString("R", CultureInfo.InvariantCulture), Scale = t.Scale.ToString("R", CultureInfo.InvariantCulture),
+            Readout = t.Readout,
+            Unit = t.Unit,
+            Value = t.Value.ToString("R", CultureInfo.InvariantCulture),
+            Scale = t.Scale.ToString("R", CultureInfo.InvariantCulture),
         }).ToList();
         if (rows.Count == 0) return;
         Rows.Clear();

@@ -28,7 +28,8 @@ public static class GatedWorker
         var oneAtATime = new ConcurrentExclusiveSchedulerPair(TaskScheduler.Default, maxConcurrencyLevel: 1);
         try
         {
-            return await Task.Factory.StartNew(() => work(Checkpoint), cancel, TaskCreationOptions.DenyChildAttach, oneAtATime.ConcurrentScheduler).ConfigureAwait(false);
+            return await Task.Factory.StartNew(() => work(Checkpoint), cancel, TaskCreationOptions.DenyChildAttach,
+                oneAtATime.ConcurrentScheduler).ConfigureAwait(false);
         }
         finally
         {

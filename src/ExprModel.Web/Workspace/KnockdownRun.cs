@@ -55,7 +55,8 @@ public sealed class KnockdownRun(ModelRunner runner, SimulationGate gate, Func<M
         return true;
     }
 
-    public void SetLevel(double level) => Level = level is >= 0 and <= 1 ? level : throw new ArgumentOutOfRangeException(nameof(level), "a knock-down level lies in [0, 1].");
+    public void SetLevel(double level) => Level = level is >= 0 and <= 1 ? level
+        : throw new ArgumentOutOfRangeException(nameof(level), "a knock-down level lies in [0, 1].");
 
     /// <summary>"Which genes set the rheobase": genes when the model has them, else entries, ranked by rheobase.</summary>
     public void WhichSetRheobase()
@@ -100,9 +101,12 @@ public sealed class KnockdownRun(ModelRunner runner, SimulationGate gate, Func<M
         var notes = new[]
         {
             ResearchCaution.Text, $"model: {MeasuredModelName}",
-            $"level {Report.Level.ToString(CultureInfo.InvariantCulture)} of each {(Kind == KnockdownKind.Gene ? "gene's expression" : "channel's density")}; read-outs with {ReadoutScales.Percent(Knockdown.DefaultSettings.RheobaseRelativeTolerance)} rheobase grid",
+            $"level {Report.Level.ToString(CultureInfo.InvariantCulture)} of each "
+                + $"{(Kind == KnockdownKind.Gene ? "gene's expression" : "channel's density")}; read-outs with "
+                + $"{ReadoutScales.Percent(Knockdown.DefaultSettings.RheobaseRelativeTolerance)} rheobase grid",
         }.Concat(Report.Failures.Select(f => $"{f.Key}: {f.Value}"));
-        var csv = new ExprModel.Core.Export.CsvTable(notes, ["readout", "unit", "target", "kind", "intact", "knocked_down", "change", "relative_change", "lost"]);
+        var csv = new ExprModel.Core.Export.CsvTable(notes,
+            ["readout", "unit", "target", "kind", "intact", "knocked_down", "change", "relative_change", "lost"]);
         foreach (var c in Report.AllRanked())
             csv.Row([c.Readout, c.Unit, c.Target, c.Kind.ToString().ToLowerInvariant(), c.Intact, c.KnockedDown, c.Change, c.RelativeChange, c.Lost]);
         return new("knockdown.csv", "text/csv", csv.ToString());

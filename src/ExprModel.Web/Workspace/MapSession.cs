@@ -94,12 +94,16 @@ public sealed class MapSession : IDisposable
 
     /// <summary>The weight the user gave <paramref name="gene"/> (without re-pointing it), as typed; "" when none.</summary>
     public string WeightOverride(string gene) =>
-        _workspace.Overrides.FirstOrDefault(o => o.Gene == gene && o.Weight is not null && o.EntryId is null) is { Weight: { } w } ? w.ToString(CultureInfo.InvariantCulture) : "";
+        _workspace.Overrides.FirstOrDefault(o => o.Gene == gene && o.Weight is not null && o.EntryId is null) is { Weight: { } w }
+            ? w.ToString(CultureInfo.InvariantCulture) : "";
 
     public static string Describe(GeneOverride o) =>
         o.Exclude ? $"{o.Gene} excluded" : o.EntryId is not null ? $"{o.Gene} → {o.EntryId}" : $"{o.Gene} weight {o.Weight}";
 
-    /// <summary>Replaces the override of <paramref name="gene"/> (none when <paramref name="next"/> is null); built models no longer match and are dropped.</summary>
+    /// <summary>
+    /// Replaces the override of <paramref name="gene"/> (none when <paramref name="next"/> is null); built models no longer
+    /// match and are dropped.
+    /// </summary>
     private void Change(GeneOverride? next, string gene)
     {
         var old = _workspace.Overrides.FirstOrDefault(o => string.Equals(o.Gene, gene, StringComparison.OrdinalIgnoreCase));

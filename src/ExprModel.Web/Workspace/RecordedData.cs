@@ -122,7 +122,8 @@ public sealed class RecordedData
                 foreach (int i in members) groups[data.Table.CellIds[i]] = group;
         foreach (var c in _cells.Values)
             if (!ids.Contains(c.CellId))
-                throw new UserInputException($"{c.Source}: recorded cell '{c.CellId}' is not a cell of {data.Table.Source}; remove the recording or load the table it belongs to.");
+                throw new UserInputException($"{c.Source}: recorded cell '{c.CellId}' is not a cell of {data.Table.Source}; remove the recording or load "
+                    + "the table it belongs to.");
         _isCell = ids.Contains;
         _groupOf = groups.GetValueOrDefault;
         MatchedToDataset = true;

@@ -5,9 +5,6 @@ using ExprModel.Web.Simulation;
 
 namespace ExprModel.Web.Workspace;
 
-/// <summary>One uploaded file as received: its name (as the user sent it) and its bytes.</summary>
-public sealed record UploadedFile(string Name, byte[] Bytes);
-
 /// <summary>
 /// Reads uploaded recordings with the library's readers, which work on files: each upload goes to a private temporary
 /// folder under its own (sanitised) name, so the readers' messages name the file the user sent and the dataset path or

@@ -28,7 +28,8 @@ public static class TablePreview
         }
         if (n == 0) throw new Simulation.UserInputException($"{fileName}: the file is empty.");
         int nul = Array.IndexOf(buffer, (byte)0, 0, n);
-        if (nul >= 0) throw new Simulation.UserInputException($"{fileName}: byte {nul + 1} is a NUL byte; this is not a text table (CSV or TSV, optionally gzip).");
+        if (nul >= 0)
+            throw new Simulation.UserInputException($"{fileName}: byte {nul + 1} is a NUL byte; this is not a text table (CSV or TSV, optionally gzip).");
         var text = new UTF8Encoding(false, false).GetString(buffer, 0, n).TrimStart('\uFEFF');
         return text.Split('\n').Take(count).Select(l => l.TrimEnd('\r')).Select(l => l.Length > 400 ? l[..400] + " …" : l).ToArray();
     }

@@ -16,7 +16,8 @@ public sealed record TornadoChart(string Readout, string Unit, bool Relative, IR
     public static TornadoChart From(IReadOnlyList<KnockdownChange> ranked, string readout, int most)
     {
         bool relative = ReadoutScales.KindOf(readout) == ElasticityKind.LogRatio;
-        var bars = ranked.Take(most).Select(c => new TornadoBar(c.Target, relative ? c.RelativeChange * 100 : c.Change, c.Lost, c.Gained, c.Intact, c.KnockedDown)).ToArray();
+        var bars = ranked.Take(most).Select(c => new TornadoBar(c.Target, relative ? c.RelativeChange * 100 : c.Change, c.Lost, c.Gained, c.Intact,
+            c.KnockedDown)).ToArray();
         return new TornadoChart(readout, ReadoutValues.UnitOf(readout) ?? "", relative, bars, Math.Max(0, ranked.Count - most));
     }
 

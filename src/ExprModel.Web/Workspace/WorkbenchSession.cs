@@ -56,10 +56,11 @@ public sealed class WorkbenchSession(ModelRunner runner, WorkspaceState workspac
     /// <summary>Optional measurement hook: told when each live update starts and reaches its trace and first read-outs.</summary>
     public ILiveUpdateObserver? Observer { get; set; }
 
-    /// <summary>The snapshot the last share created, and the note shown when its stored read-outs differ from the live table.</summary>
-    public string? SharedSnapshotId { get; private set; }
-    public string? ShareNote { get; private set; }
-    public bool Sharing { get; private set; }
+    /// <summary>The share link and its note (see <see cref="WorkbenchShare"/>).</summary>
+    public WorkbenchShare Share { get; } = new(workspace, changed);
+    public string? SharedSnapshotId => Share.SnapshotId;
+    public string? ShareNote => Share.Note;
+    public bool Sharing => Share.InProgress;
 
     /// <summary>Opens the preset <paramref name="presetId"/> if it names one, else the workspace's model, else Wang and Buzsaki 1996.</summary>
     public void OpenInitial(string? presetId)
@@ -75,7 +76,10 @@ public sealed class WorkbenchSession(ModelRunner runner, WorkspaceState workspac
         Variants.Clear();
         if (choice.StartsWith("preset:", StringComparison.Ordinal)) Open(catalog.Preset(choice[7..]), "published model " + choice[7..], null);
         else if (choice.StartsWith("group:", StringComparison.Ordinal) && workspace.GroupModels.TryGetValue(choice[6..], out var g))
-            Open(g, "built from group " + choice[6..], null, workspace.Session?.Dataset.Groups is null ? ModelTarget.ForCell(choice[6..]) : ModelTarget.ForGroup(choice[6..]));
+        {
+            var target = workspace.Session?.Dataset.Groups is null ? ModelTarget.ForCell(choice[6..]) : ModelTarget.ForGroup(choice[6..]);
+            Open(g, "built from group " + choice[6..], null, target);
+        }
     }
 
     /// <summary>Opens a model file's text; a bad file leaves the open model and sets <see cref="Error"/>.</summary>
@@ -103,7 +107,7 @@ public sealed class WorkbenchSession(ModelRunner runner, WorkspaceState workspac
         Ions = model.Ions ?? IonConcentrations.Mammalian;
         try { AreaUm2 = model.Cell.ToGeometry().AreaUm2; } catch (ModelFileException e) { Error = e.Message; AreaUm2 = 1000; }
         if (!ReferenceEquals(workspace.Model, model) || workspace.ModelTarget != target) workspace.Open(model, from, parent, target);
-        SharedSnapshotId = null;
+        Share.Forget();
         Table.ForgetHint();
         _autoProtocol = true;
         CustomFi = false;
@@ -181,7 +185,7 @@ public sealed class WorkbenchSession(ModelRunner runner, WorkspaceState workspac
         _liveCts?.Cancel();
         _liveCts?.Dispose();
         _liveCts = new CancellationTokenSource();
-        ShareNote = null; // it described the table at the moment of sharing
+        Share.ForgetNote();
         Protocol = Protocol with { AmplitudeUaPerCm2 = AmplitudeUaPerCm2 };
         LiveRun = RunLive(_liveCts.Token, includeFi);
     }
@@ -237,7 +241,12 @@ public sealed class WorkbenchSession(ModelRunner runner, WorkspaceState workspac
                 // The read-outs already measured the standard f-I sweep; show it rather than running another.
                 FiSweep.Supersede();
                 ShowFi(set.Fi);
-                Fi = Fi with { FromUaPerCm2 = set.Fi.Count > 0 ? set.Fi[0].CurrentUaPerCm2 : Fi.FromUaPerCm2, ToUaPerCm2 = set.Fi.Count > 0 ? set.Fi[^1].CurrentUaPerCm2 : Fi.ToUaPerCm2, Steps = Math.Max(2, set.Fi.Count) };
+                Fi = Fi with
+                {
+                    FromUaPerCm2 = set.Fi.Count > 0 ? set.Fi[0].CurrentUaPerCm2 : Fi.FromUaPerCm2,
+                    ToUaPerCm2 = set.Fi.Count > 0 ? set.Fi[^1].CurrentUaPerCm2 : Fi.ToUaPerCm2,
+                    Steps = Math.Max(2, set.Fi.Count),
+                };
             }
             Busy = false;
             await changed();
@@ -293,38 +302,16 @@ public sealed class WorkbenchSession(ModelRunner runner, WorkspaceState workspac
         FiRevision++;
     }
 
-    /// <summary>
-    /// Stores the current model as a share link. The link stores an unseeded measurement; the live table's rheobase
-    /// search started from the previous setting's rheobase, and the two agree unless spiking is not monotone in the step
-    /// amplitude. When they do not, the table switches to what the link holds (if the settings have not moved meanwhile)
-    /// and <see cref="ShareNote"/> says what changed.
-    /// </summary>
-    public async Task ShareAsync(SnapshotService snapshots, string notes, bool storeExpression)
+    /// <summary>Stores the current model as a share link (see <see cref="WorkbenchShare.ShareAsync"/>).</summary>
+    public Task ShareAsync(SnapshotService snapshots, string notes, bool storeExpression) =>
+        Share.ShareAsync(this, snapshots, notes, storeExpression);
+
+    /// <summary>Shows the read-outs a share link stored for <paramref name="model"/> in place of the live ones.</summary>
+    internal void ShowStored(ModelDocument model, ReadoutSet stored)
     {
-        Sharing = true;
-        try
-        {
-            byte[]? expression = storeExpression ? workspace.ExpressionBytes : null;
-            var model = Current();
-            string modelJson = model.ToJson();
-            // The live table, if it is complete and belongs to the model being shared.
-            var live = !Busy && Table.Pending.Count == 0 ? Table.Rows : null;
-            var (snap, stored) = await snapshots.SaveAsync(model, new SnapshotProtocol { Step = Protocol, Fi = Fi }, notes, workspace.ParentSnapshotId,
-                expression, storeExpression ? workspace.ExpressionName : null, CancellationToken.None, SnapshotRecorded.Of(workspace));
-            SharedSnapshotId = snap.Id;
-            ShareNote = null;
-            Error = null;
-            if (live is not null && !Busy && Current().ToJson() == modelJson && ReadoutComparison.Changes(live, stored.Rows) is { Count: > 0 } changes)
-            {
-                ShareNote = StoredReadoutsNote.For(changes);
-                Table.Show(stored);
-                if (!CustomFi) ShowFi(stored.Fi);
-                runner.Adopt(model, stored);
-            }
-        }
-        catch (Exception e) when (e is UserInputException or SimulationTimeoutException) { Error = e.Message; }
-        finally { Sharing = false; }
-        await changed();
+        Table.Show(stored);
+        if (!CustomFi) ShowFi(stored.Fi);
+        runner.Adopt(model, stored);
     }
 
     public void Dispose()

@@ -10,7 +10,10 @@ public sealed class WorkspaceState
     public string ModelOrigin { get; private set; } = "";
     /// <summary>The shared snapshot the Workbench model was opened from; saving an edit records it as the parent.</summary>
     public string? ParentSnapshotId { get; private set; }
-    /// <summary>The cell or group the Workbench model was built for (null for a published, imported or shared model): what its recorded values belong to.</summary>
+    /// <summary>
+    /// The cell or group the Workbench model was built for (null for a published, imported or shared model): what its
+    /// recorded values belong to.
+    /// </summary>
     public ExprModel.Core.Mapping.ModelTarget? ModelTarget { get; private set; }
 
     /// <summary>The uploaded expression table as received (kept only in this tab unless the user stores it with a snapshot).</summary>

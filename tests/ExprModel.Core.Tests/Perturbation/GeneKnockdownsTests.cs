@@ -16,14 +16,21 @@ public class GeneKnockdownsTests
             ["densities"] = new JsonArray(
                 new JsonObject
                 {
-                    ["entry"] = "traub-na", ["expression"] = 100.0, ["reference"] = 50.0, 
-                    ["typicalMsPerCm2"] = 50 / Math.Pow(2, exponent), ["densityMsPerCm2"] = 50.0,
+                    ["entry"] = "traub-na",
+                    ["expression"] = 100.0,
+                    ["reference"] = 50.0,
+                    ["typicalMsPerCm2"] = 50 / Math.Pow(2, exponent),
+                    ["densityMsPerCm2"] = 50.0,
                     ["genes"] = new JsonArray(new JsonObject { ["gene"] = "Scn1a", ["weight"] = 1.0, ["expression"] = 60.0 },
                         new JsonObject { ["gene"] = "Scn8a", ["weight"] = 0.5, ["expression"] = 80.0 }),
                 },
                 new JsonObject
                 {
-                    ["entry"] = "kv7-m-yamada", ["expression"] = 40.0, ["reference"] = 40.0, ["typicalMsPerCm2"] = 0.07, ["densityMsPerCm2"] = 0.07,
+                    ["entry"] = "kv7-m-yamada",
+                    ["expression"] = 40.0,
+                    ["reference"] = 40.0,
+                    ["typicalMsPerCm2"] = 0.07,
+                    ["densityMsPerCm2"] = 0.07,
                     ["genes"] = new JsonArray(new JsonObject { ["gene"] = "Scn8a", ["weight"] = 0.25, ["expression"] = 80.0 }),
                 }),
         },
@@ -61,8 +68,14 @@ public class GeneKnockdownsTests
         var preset = TestCatalog.Catalog.Preset("wb1996");
         var e = Assert.Throws<ArgumentException>(() => GeneKnockdowns.Targets(preset, preset.ToCellModel(TestCatalog.Catalog.Resolve), 0));
         Assert.Contains("built from expression", e.Message);
-        var broken = Doc() with { Derivation = new JsonObject { ["exponent"] = 1.0,
-            ["densities"] = new JsonArray(new JsonObject { ["entry"] = "traub-na" }) } };
+        var broken = Doc() with
+        {
+            Derivation = new JsonObject
+            {
+                ["exponent"] = 1.0,
+                ["densities"] = new JsonArray(new JsonObject { ["entry"] = "traub-na" })
+            }
+        };
         Assert.Contains("derivation.densities[0].expression",
             Assert.Throws<ArgumentException>(() => GeneKnockdowns.Targets(broken, broken.ToCellModel(TestCatalog.Catalog.Resolve), 0)).Message);
     }

@@ -40,7 +40,8 @@ public sealed class CompareApiTests(AppFactory factory) : ApiTestBase(factory)
         Assert.Equal(["resting_potential", "input_resistance", "rheobase_absolute"], agreement.Select(a => a.GetProperty("readout").GetString()));
         Assert.All(agreement, a => Assert.True(a.GetProperty("cells").GetInt32() > 10));
         Assert.Equal(15, body.GetProperty("groups").GetArrayLength());
-        var fh1001 = body.GetProperty("cells").EnumerateArray().Single(c => c.GetProperty("cellId").GetString() == "FH1001" && c.GetProperty("readout").GetString() == "rheobase_absolute");
+        var fh1001 = body.GetProperty("cells").EnumerateArray().Single(c => c.GetProperty("cellId").GetString() == "FH1001"
+            && c.GetProperty("readout").GetString() == "rheobase_absolute");
         Assert.Equal(167.0, fh1001.GetProperty("recorded").GetDouble(), 9);
         Assert.Equal("group T1-fast", fh1001.GetProperty("model").GetString());
         Assert.StartsWith("# Research tool.", body.GetProperty("csv").GetString());
@@ -86,7 +87,8 @@ public sealed class CompareApiTests(AppFactory factory) : ApiTestBase(factory)
         await AssertProblem(await Client.PostAsync("/api/compare", stranger), 400, "lab.csv: line 3, column 1: cell 'XX0001'");
 
         await AssertProblem(await Client.PostAsync("/api/compare", DemoForm(("groupBy", "group"), ("per", "groups"))), 400, "per: 'groups'");
-        await AssertProblem(await Client.PostAsync("/api/compare", DemoForm(("groupBy", "group"), ("map", "{\"max firing rate\": \"rate\"}"))), 400, "no read-out 'rate'");
+        await AssertProblem(await Client.PostAsync("/api/compare", DemoForm(("groupBy", "group"), ("map", "{\"max firing rate\": \"rate\"}"))), 400,
+            "no read-out 'rate'");
         await AssertProblem(await Client.PostAsync("/api/compare", DemoForm(("groupBy", "group"), ("colour", "red"))), 400, "colour: not a field");
         await AssertProblem(await Client.PostAsJsonAsync("/api/compare", new { expression = "gene,c1\nScn1a,3\n" }), 400, "recorded: required");
     }

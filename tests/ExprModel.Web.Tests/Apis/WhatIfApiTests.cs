@@ -7,7 +7,8 @@ public sealed class WhatIfApiTests(AppFactory factory) : ApiTestBase(factory)
     [Fact]
     public async Task Knockdown_ranks_what_sets_the_rheobase()
     {
-        var body = await Json(await Client.PostAsJsonAsync("/api/whatif/knockdown", new { model = Preset("cortex-rs2008"), level = 0.0, readout = "rheobase" }));
+        var body = await Json(await Client.PostAsJsonAsync("/api/whatif/knockdown",
+            new { model = Preset("cortex-rs2008"), level = 0.0, readout = "rheobase" }));
         var rows = body.GetProperty("changes").EnumerateArray().ToList();
         Assert.Equal(4, rows.Count);
         // Common practice: removing sodium takes the spike away; lost read-outs rank first.
@@ -34,7 +35,8 @@ public sealed class WhatIfApiTests(AppFactory factory) : ApiTestBase(factory)
         var body = await Json(await Client.PostAsJsonAsync("/api/whatif/fit", new
         {
             model = Preset("wb1996"),
-            targets = new object[] { new { readout = "rheobase", value = 0.2, unit = "uA/cm2", scale = 0.01 }, new { readout = "resting_potential", value = -64.0 } },
+            targets = new object[] { new { readout = "rheobase", value = 0.2, unit = "uA/cm2", scale = 0.01 },
+                new { readout = "resting_potential", value = -64.0 } },
         }));
         Assert.Equal("exprmodel-model", body.GetProperty("model").GetProperty("format").GetString());
         Assert.True(body.GetProperty("model").GetProperty("derivation").GetProperty("fit").GetProperty("evaluations").GetInt32() > 0);
@@ -47,8 +49,10 @@ public sealed class WhatIfApiTests(AppFactory factory) : ApiTestBase(factory)
     public async Task Bad_requests_are_problem_details()
     {
         await AssertProblem(await Client.PostAsJsonAsync("/api/whatif/fit", new { model = Preset("wb1996") }), 400, "targets");
-        await AssertProblem(await Client.PostAsJsonAsync("/api/whatif/fit", new { model = Preset("wb1996"), targets = new[] { new { readout = "rheobse", value = 1.0 } } }), 400, "targets[0]", "rheobse");
-        await AssertProblem(await Client.PostAsJsonAsync("/api/whatif/knockdown", new { model = Preset("wb1996"), genes = true }), 400, "built from expression");
+        await AssertProblem(await Client.PostAsJsonAsync("/api/whatif/fit",
+            new { model = Preset("wb1996"), targets = new[] { new { readout = "rheobse", value = 1.0 } } }), 400, "targets[0]", "rheobse");
+        await AssertProblem(await Client.PostAsJsonAsync("/api/whatif/knockdown", new { model = Preset("wb1996"), genes = true }), 400,
+            "built from expression");
         await AssertProblem(await Client.PostAsJsonAsync("/api/whatif/sensitivity", new { model = Preset("wb1996"), stepLn = 5.0 }), 400, "stepLn");
     }
     [Fact]
@@ -68,7 +72,8 @@ public sealed class WhatIfApiTests(AppFactory factory) : ApiTestBase(factory)
 
         string nwb = null!;
         for (var d = new DirectoryInfo(AppContext.BaseDirectory); d is not null && nwb is null; d = d.Parent)
-            if (File.Exists(Path.Combine(d.FullName, "catalog", "demo", "recordings", "FH1001.nwb"))) nwb = Path.Combine(d.FullName, "catalog", "demo", "recordings", "FH1001.nwb");
+            if (File.Exists(Path.Combine(d.FullName, "catalog", "demo", "recordings", "FH1001.nwb")))
+                nwb = Path.Combine(d.FullName, "catalog", "demo", "recordings", "FH1001.nwb");
         var swept = await Json(await Client.PostAsJsonAsync("/api/whatif/fit", new
         {
             model = Preset("wb1996"),
@@ -77,8 +82,10 @@ public sealed class WhatIfApiTests(AppFactory factory) : ApiTestBase(factory)
             fitReadouts = new[] { "resting_potential" },
         }));
         // catalog/demo/recorded-features.csv: FH1001 rests at -80.2095 mV.
-        Assert.Equal(-80.2095, swept.GetProperty("residuals").EnumerateArray().Single().GetProperty("recorded").GetDouble(), tolerance: 1e-3); // the table rounds to six significant digits
+        Assert.Equal(-80.2095, swept.GetProperty("residuals").EnumerateArray().Single().GetProperty("recorded").GetDouble(),
+            tolerance: 1e-3); // the table rounds to six significant digits
 
-        await AssertProblem(await Client.PostAsJsonAsync("/api/whatif/fit", new { model = Preset("wb1996"), recorded = "cell,resting potential (mV)\na1,-66\n", cell = "zz" }), 400, "zz");
+        await AssertProblem(await Client.PostAsJsonAsync("/api/whatif/fit",
+            new { model = Preset("wb1996"), recorded = "cell,resting potential (mV)\na1,-66\n", cell = "zz" }), 400, "zz");
     }
 }

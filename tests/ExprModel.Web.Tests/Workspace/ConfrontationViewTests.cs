@@ -33,7 +33,8 @@ public sealed class ConfrontationViewTests : IDisposable
         var metadata = string.Join("\n", meta) + "\n";
         _workspace.Session = ExpressionSession.Read(catalog, System.Text.Encoding.UTF8.GetBytes(table), "six.csv", System.Text.Encoding.UTF8.GetBytes(metadata),
             "six-metadata.csv", new ReadChoices(null, "counts", "group"));
-        _workspace.Recorded.UseTable(RecordingUploads.ReadFeatureTable(new UploadedFile("six-metadata.csv", System.Text.Encoding.UTF8.GetBytes(metadata))), true);
+        _workspace.Recorded.UseTable(RecordingUploads.ReadFeatureTable(new UploadedFile("six-metadata.csv", System.Text.Encoding.UTF8.GetBytes(metadata))),
+            true);
         _workspace.Recorded.Match(_workspace.Session.Dataset);
     }
 

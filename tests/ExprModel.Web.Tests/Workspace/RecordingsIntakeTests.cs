@@ -3,7 +3,10 @@ using ExprModel.Web.Workspace;
 
 namespace ExprModel.Web.Tests.Workspace;
 
-/// <summary>The Load page's recordings state on the shipped demo (catalog/demo/README.md: 15 cells with NWB recordings, recorded columns in metadata.csv).</summary>
+/// <summary>
+/// The Load page's recordings state on the shipped demo (catalog/demo/README.md: 15 cells with NWB recordings, recorded
+/// columns in metadata.csv).
+/// </summary>
 public sealed class RecordingsIntakeTests
 {
     private static readonly string Demo = Path.Combine(CatalogLocator.FindSourceDirectory()!, "demo");

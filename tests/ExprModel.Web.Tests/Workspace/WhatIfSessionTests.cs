@@ -61,7 +61,8 @@ public sealed class WhatIfSessionTests : IDisposable
         // The same numbers as the library's own knock-down of the same model.
         var cell = _runner.Compile(bench.Current()).Model;
         var library = Knockdown.Run(cell, KnockdownTarget.Channels(new DensityProbe(cell, Knockdown.DefaultSettings).ChannelLabels, 0), 0);
-        Assert.Equal(library.AllRanked().Select(c => (c.Target, c.Readout, c.Intact, c.KnockedDown)), k.Report!.AllRanked().Select(c => (c.Target, c.Readout, c.Intact, c.KnockedDown)));
+        Assert.Equal(library.AllRanked().Select(c => (c.Target, c.Readout, c.Intact, c.KnockedDown)),
+            k.Report!.AllRanked().Select(c => (c.Target, c.Readout, c.Intact, c.KnockedDown)));
         Assert.Contains(ResearchCaution.Text, k.Csv()!.Text);
         Assert.False(whatIf.IsStale(k.MeasuredModelJson));
         bench.SetRelative(0, 0.5);

@@ -146,7 +146,10 @@ public sealed class WorkbenchSessionTests : IDisposable
         Assert.Same(shown, session.Table.Rows);
     }
 
-    /// <summary>As the page test of the same name: the runner's cache is given altered read-outs for the moved model, so the live table differs from what the link stores.</summary>
+    /// <summary>
+    /// As the page test of the same name: the runner's cache is given altered read-outs for the moved model, so the live
+    /// table differs from what the link stores.
+    /// </summary>
     [Fact]
     public async Task Sharing_a_live_table_that_differs_from_the_stored_one_shows_the_stored_values_and_what_changed()
     {

@@ -107,7 +107,8 @@ public sealed class WorkbenchTests : BunitContext
         var preset = catalog.Preset("cortex-rs2008");
         var moved = preset with
         {
-            Channels = preset.Channels.Select(c => c.Entry == "kv7-m-yamada" ? c with { RelativeDensity = ExprModel.Web.Components.Panels.DensityScale.RelativeAt(820) } : c).ToArray(),
+            Channels = preset.Channels.Select(c => c.Entry == "kv7-m-yamada"
+                ? c with { RelativeDensity = ExprModel.Web.Components.Panels.DensityScale.RelativeAt(820) } : c).ToArray(),
         };
         var runner = Services.GetRequiredService<ModelRunner>();
         var cold = ModelRunner.Readouts(runner.Compile(moved), CancellationToken.None);
@@ -126,7 +127,8 @@ public sealed class WorkbenchTests : BunitContext
     {
         var catalog = Services.GetRequiredService<ChannelCatalog>();
         var src = CatalogLocator.FindSourceDirectory()!;
-        var data = ExprModel.Core.Mapping.ExpressionDataset.Read(catalog.ForMapping(), Path.Combine(src, "demo", "counts.csv"), new ExprModel.Core.Expression.ExpressionReadOptions());
+        var data = ExprModel.Core.Mapping.ExpressionDataset.Read(catalog.ForMapping(), Path.Combine(src, "demo", "counts.csv"),
+            new ExprModel.Core.Expression.ExpressionReadOptions());
         var doc = data.Build(data.Map(), new ExprModel.Core.Mapping.DensityRule(), ExprModel.Core.Mapping.ModelTarget.ForCell("FH2046")).Document;
         Services.GetRequiredService<WorkspaceState>().Open(doc, "demo cell FH2046");
         var cut = Render<Workbench>();
@@ -135,7 +137,8 @@ public sealed class WorkbenchTests : BunitContext
         var runner = Services.GetRequiredService<ModelRunner>();
         var moved = doc with
         {
-            Channels = doc.Channels.Select(c => c.Entry == "cav3-t-destexhe1996" ? c with { RelativeDensity = ExprModel.Web.Components.Panels.DensityScale.RelativeAt(860) } : c).ToArray(),
+            Channels = doc.Channels.Select(c => c.Entry == "cav3-t-destexhe1996"
+                ? c with { RelativeDensity = ExprModel.Web.Components.Panels.DensityScale.RelativeAt(860) } : c).ToArray(),
         };
         var cold = ModelRunner.Readouts(runner.Compile(moved), CancellationToken.None);
         foreach (var row in cold.Rows)
@@ -159,9 +162,14 @@ public sealed class WorkbenchTests : BunitContext
         // The model as the Workbench's controls describe it after the move (same text, so the same cache key).
         var moved = preset with
         {
-            Channels = preset.Channels.Select(c => c.Entry == "kv7-m-yamada" ? c with { RelativeDensity = ExprModel.Web.Components.Panels.DensityScale.RelativeAt(700) } : c).ToArray(),
+            Channels = preset.Channels.Select(c => c.Entry == "kv7-m-yamada"
+                ? c with { RelativeDensity = ExprModel.Web.Components.Panels.DensityScale.RelativeAt(700) } : c).ToArray(),
             Ions = preset.Ions ?? ExprModel.Core.Cell.IonConcentrations.Mammalian,
-            Cell = new ExprModel.Core.Models.CellGeometryDocument { AreaUm2 = preset.Cell.ToGeometry().AreaUm2, CapacitanceUfPerCm2 = preset.Cell.CapacitanceUfPerCm2 },
+            Cell = new ExprModel.Core.Models.CellGeometryDocument
+            {
+                AreaUm2 = preset.Cell.ToGeometry().AreaUm2,
+                CapacitanceUfPerCm2 = preset.Cell.CapacitanceUfPerCm2,
+            },
         };
         var real = ModelRunner.Readouts(runner.Compile(moved), CancellationToken.None);
         double rheobase = real.Value("rheobase")!.Value;
@@ -178,7 +186,8 @@ public sealed class WorkbenchTests : BunitContext
         foreach (var row in real.Rows)
             Assert.Equal(ExprModel.Web.Components.Panels.ReadoutPanel.Format(row.Value), Value(cut, row.Name));
         var note = cut.Find("[data-testid=share-note]").TextContent;
-        Assert.Contains($"rheobase {ExprModel.Web.Components.Panels.ReadoutPanel.Format(rheobase * 1.5)} uA/cm2 → {ExprModel.Web.Components.Panels.ReadoutPanel.Format(rheobase)} uA/cm2", note);
+        Assert.Contains($"rheobase {ExprModel.Web.Components.Panels.ReadoutPanel.Format(rheobase * 1.5)} uA/cm2 → "
+            + $"{ExprModel.Web.Components.Panels.ReadoutPanel.Format(rheobase)} uA/cm2", note);
         Assert.DoesNotContain("spike threshold", note);
 
         // Moving on clears the note (it described the table at the moment of sharing).
@@ -226,9 +235,9 @@ public sealed class WorkbenchTests : BunitContext
         cut.WaitForAssertion(() => Assert.Contains("fi.steps", cut.Find("[data-testid=error]").TextContent));
     }
 
-    public new void Dispose()
+    protected override void Dispose(bool disposing)
     {
-        base.Dispose();
+        base.Dispose(disposing);
         try { Directory.Delete(_dir, recursive: true); } catch (IOException) { }
     }
 }

@@ -12,7 +12,8 @@ public sealed class ReadoutPanelTests : BunitContext
     {
         ReadoutRow[] a = [new("rheobase", "uA/cm2", 0.16), new("excitability_class", "1 or 2", 1), new("adaptation_ratio", "last/first ISI", null)];
         ReadoutRow[] b = [new("rheobase", "uA/cm2", 7.25), new("excitability_class", "1 or 2", 2)];
-        var cut = Render<ReadoutPanel>(p => p.Add(x => x.Columns, [new ReadoutPanel.Column("#1", "#c8553d", a), new ReadoutPanel.Column("now", "#1d2a36", b)]).Add(x => x.UpdateCount, 3));
+        var cut = Render<ReadoutPanel>(p => p.Add(x => x.Columns, [new ReadoutPanel.Column("#1", "#c8553d", a), new ReadoutPanel.Column("now", "#1d2a36", b)])
+            .Add(x => x.UpdateCount, 3));
         Assert.Equal(["Read-out", "#1", "now", "Unit"], cut.FindAll("thead th").Select(t => t.TextContent));
         var rows = cut.FindAll("tbody tr");
         Assert.Equal(3, rows.Count);
@@ -30,7 +31,8 @@ public sealed class ReadoutPanelTests : BunitContext
     {
         ReadoutRow[] first = [new("rheobase", "uA/cm2", 0.16), new("excitability_class", "1 or 2", null)];
         var pending = new HashSet<string> { "excitability_class" };
-        var cut = Render<ReadoutPanel>(p => p.Add(x => x.Columns, [new ReadoutPanel.Column("now", "#1d2a36", first, pending)]).Add(x => x.UpdateCount, 2).Add(x => x.CompleteCount, 1));
+        var cut = Render<ReadoutPanel>(p => p.Add(x => x.Columns, [new ReadoutPanel.Column("now", "#1d2a36", first, pending)])
+            .Add(x => x.UpdateCount, 2).Add(x => x.CompleteCount, 1));
         var cls = cut.Find("tr[data-readout=excitability_class]").QuerySelectorAll("td");
         Assert.Equal("…", cls[1].TextContent);
         Assert.Contains("pending", cls[1].ClassName);
@@ -60,7 +62,8 @@ public sealed class ErrorNoteTests : BunitContext
     [Fact]
     public void Shows_the_message_as_an_alert()
     {
-        var cut = Render<ErrorNote>(p => p.Add(x => x.Message, "counts.csv: line 4, column 3: 'abc' is not a number").Add(x => x.Title, "This file cannot be used"));
+        var cut = Render<ErrorNote>(p => p.Add(x => x.Message, "counts.csv: line 4, column 3: 'abc' is not a number")
+            .Add(x => x.Title, "This file cannot be used"));
         Assert.Equal("alert", cut.Find("div").GetAttribute("role"));
         Assert.Contains("line 4, column 3", cut.Markup);
         Assert.Contains("This file cannot be used", cut.Markup);
@@ -79,7 +82,8 @@ public sealed class ErrorNoteTests : BunitContext
             ["resting_potential"] = new("resting_potential", "mV", -68, null, 2, "sweeps"),
         };
         var column = new ReadoutPanel.Column("now", "#1d2a36", now);
-        var cut = Render<ReadoutPanel>(p => p.Add(x => x.Columns, [column]).Add(x => x.Recorded, recorded).Add(x => x.RecordedLabel, "group T1-fast").Add(x => x.Against, column));
+        var cut = Render<ReadoutPanel>(p => p.Add(x => x.Columns, [column]).Add(x => x.Recorded, recorded).Add(x => x.RecordedLabel,
+            "group T1-fast").Add(x => x.Against, column));
         Assert.Equal(["Read-out", "now", "recorded (group T1-fast)", "now − recorded", "Unit"], cut.FindAll("thead th").Select(t => t.TextContent));
         var rheo = cut.Find("tr[data-readout=rheobase_absolute]").QuerySelectorAll("td").Select(t => t.TextContent).ToArray();
         Assert.Equal(["rheobase absolute", "150", "160 ± 12.5 (n 5)", "-10", "pA"], rheo);

@@ -1,0 +1,3 @@
+namespace ExprModel.Web.Apis;
+
+public sealed record FitTargetDto(string Readout, double Value, string? Unit = null, double? Scale = null);
