@@ -135,7 +135,7 @@ public sealed class RecordedData
 
     /// <summary>
     /// The recorded values of a model's target, by read-out name (as <c>CellReadouts.Rows()</c> names it), in the
-    /// read-out's unit. For a cell: its value from the recorded-features table, else from its recorded sweeps. For a
+    /// read-out's unit. For a cell: its value from its recorded sweeps, else from the recorded-features table. For a
     /// group: the mean over its recorded cells (each cell's value as for a cell), their sample SD (null below 3
     /// cells) and their number. Read-outs no cell has are absent; an empty answer means nothing was recorded.
     /// Needs <see cref="Match"/> for groups (it knows the group column).
@@ -191,18 +191,22 @@ public sealed class RecordedData
 
     private Dictionary<string, RecordedValue> CellValues(string cell)
     {
+        // A cell's sweeps win over the table, as in the comparison (RecordedSweepFeatures.Join) and `exprmodel compare`.
         var result = new Dictionary<string, RecordedValue>(StringComparer.Ordinal);
+        if (_sweepReadouts.TryGetValue(cell, out var swept))
+        {
+            foreach (var (name, unit, value) in swept.Readouts.Rows())
+            {
+                if (value is { } v && double.IsFinite(v)) result[name] = new RecordedValue(name, unit, v, null, 1, "sweeps");
+            }
+        }
         foreach (var r in Features?.Readouts ?? [])
         {
-            if (!r.ValueByCell.TryGetValue(cell, out var raw)) continue;
+            if (!r.ValueByCell.TryGetValue(cell, out var raw) || result.ContainsKey(r.Readout)) continue;
             // A column in pA for a read-out in uA/cm2 needs a model's area; such values join the comparison on the Map page only.
             if (r.ColumnUnit.Quantity != r.ReadoutUnit.Quantity) continue;
             result[r.Readout] = new RecordedValue(r.Readout, r.ReadoutUnit.Symbol, r.InReadoutUnit(raw, null), null, 1, $"'{r.Header}'");
         }
-        if (_sweepReadouts.TryGetValue(cell, out var swept))
-            foreach (var (name, unit, value) in swept.Readouts.Rows())
-                if (value is { } v && double.IsFinite(v) && !result.ContainsKey(name))
-                    result[name] = new RecordedValue(name, unit, v, null, 1, "sweeps");
         return result;
     }
 

@@ -84,18 +84,18 @@ public sealed class RecordedDataTests : IDisposable
     }
 
     [Fact]
-    public async Task A_cells_values_come_from_the_table_and_its_sweeps_fill_what_the_table_lacks()
+    public async Task A_cells_values_come_from_its_sweeps_and_the_table_fills_what_they_lack()
     {
         var recorded = await LoadDemo();
         var fh1001 = recorded.ValuesFor(ModelTarget.ForCell("FH1001"));
-        var expected = MetadataRheobases().Single(r => r.Cell == "FH1001").RheobasePa;
-        Assert.Equal(expected, fh1001["rheobase_absolute"].Value);
+        // FH1001 has sweeps and a table row: the sweeps win, as in the comparison and `exprmodel compare`.
+        Assert.Equal(recorded.SweepReadouts["FH1001"].Readouts.RheobasePa, fh1001["rheobase_absolute"].Value);
+        Assert.Equal("sweeps", fh1001["rheobase_absolute"].Source);
         Assert.Equal("pA", fh1001["rheobase_absolute"].Unit);
         Assert.Equal((1, (double?)null), (fh1001["rheobase_absolute"].Cells, fh1001["rheobase_absolute"].Sd));
-        // The spike's half-width is not a column of the table; the cell's recorded sweeps give it.
-        var width = fh1001["spike_half_width"];
-        Assert.Equal("sweeps", width.Source);
-        Assert.Equal(recorded.SweepReadouts["FH1001"].Readouts.HalfWidthMs, width.Value);
+        // A cell with a table row and no sweeps takes the table's value.
+        var tableOnly = MetadataRheobases().First(r => !recorded.SweepReadouts.ContainsKey(r.Cell));
+        Assert.Equal(tableOnly.RheobasePa, recorded.ValuesFor(ModelTarget.ForCell(tableOnly.Cell))["rheobase_absolute"].Value);
         Assert.Empty(recorded.ValuesFor(ModelTarget.ForCell("FH1005")));
     }
 
@@ -103,12 +103,15 @@ public sealed class RecordedDataTests : IDisposable
     public async Task A_groups_values_are_mean_sd_and_n_over_its_recorded_cells()
     {
         var recorded = await LoadDemo();
-        var table = MetadataRheobases().Where(r => r.Group == "T2-adapting").ToList();
-        // Cells of the group recorded only as sweeps add their sweeps' rheobase (the demo's FH2001-FH2003 have NWB files).
-        var swept = recorded.SweepReadouts.Where(s => s.Key.StartsWith("FH2", StringComparison.Ordinal) && table.All(t => t.Cell != s.Key))
-            .Select(s => s.Value.Readouts.RheobasePa).OfType<double>();
-        var group = table.Select(r => r.RheobasePa).Concat(swept).ToArray();
-        Assert.True(group.Length > table.Count, "the demo has a T2 cell recorded only as sweeps");
+        // Each T2 cell's rheobase as for a cell: its sweeps' when they give one (the demo's FH2001-FH2003 have NWB files),
+        // else the table's.
+        var table = MetadataRheobases().Where(r => r.Group == "T2-adapting").ToDictionary(r => r.Cell, r => r.RheobasePa);
+        var cells = table.Keys.Concat(recorded.SweepReadouts.Keys.Where(k => k.StartsWith("FH2", StringComparison.Ordinal))).Distinct();
+        var group = cells
+            .Select(c => (recorded.SweepReadouts.TryGetValue(c, out var s) ? s.Readouts.RheobasePa : null)
+                ?? (table.TryGetValue(c, out var t) ? t : null))
+            .OfType<double>().ToArray();
+        Assert.True(group.Length > 2, "the demo has T2 cells with a recorded rheobase");
         var v = recorded.ValuesFor(ModelTarget.ForGroup("T2-adapting"))["rheobase_absolute"];
         Assert.Equal(group.Length, v.Cells);
         Assert.Equal(group.Mean(), v.Value, 1e-9);
