@@ -15,7 +15,7 @@ public static class TraceCsv
 
     /// <param name="geometry">The cell's geometry, needed only to write the stimulus in pA or nA.</param>
     /// <param name="channelCurrentsUaPerCm2">Per channel label its current density at each sample, or null for none.</param>
-    public static string Write(string modelName, double[] timeMs, double[] voltageMv, double[] stimulusUaPerCm2, int spikeCount,
+    public static string Write(string modelName, double[] timeMs, double[] voltageMv, double[] stimulusUaPerCm2, int spikesInTrace,
         CurrentUnit unit = CurrentUnit.UaPerCm2, Geometry? geometry = null, IReadOnlyDictionary<string, double[]>? channelCurrentsUaPerCm2 = null)
     {
         if (unit != CurrentUnit.UaPerCm2 && geometry is null)
@@ -23,7 +23,7 @@ public static class TraceCsv
         var currents = channelCurrentsUaPerCm2 ?? new Dictionary<string, double[]>();
         var header = new List<string> { "time_ms", "voltage_mv", "stimulus_" + CurrentUnits.Suffix(unit) };
         header.AddRange(currents.Keys.Select(k => $"current_{k}_ua_per_cm2"));
-        var csv = CsvTable.ForModel(modelName, header, $"spikes: {spikeCount}");
+        var csv = CsvTable.ForModel(modelName, header, $"spikes: {spikesInTrace}");
         var columns = currents.Values.ToArray();
         for (int i = 0; i < timeMs.Length; i++)
         {

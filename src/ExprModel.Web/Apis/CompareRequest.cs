@@ -27,6 +27,6 @@ public sealed record CompareRequest
     public string? ReferenceGroup { get; init; }
     public double Exponent { get; init; } = 1;
     public bool Clamp { get; init; } = true;
-    public double CapacitancePf { get; init; } = 50;
-    public double TemperatureC { get; init; } = 34;
+    public double CapacitancePf { get; init; } = ModelDefaults.CapacitancePf;
+    public double TemperatureC { get; init; } = ModelDefaults.TemperatureC;
 }
