@@ -20,9 +20,7 @@ namespace ExprModel.Web.Apis;
 public static class BuildApi
 {
     /// <summary>The form fields of a multipart build request besides the file parts; the same options as the JSON body.</summary>
-    private static readonly string[] FormFields =
-        ["expression", "metadata", "groupBy", "group", "cell", "orientation", "unit", "referenceGroup", "exponent", "clamp", "capacitancePf", "temperatureC",
-            "overrides"];
+    private static readonly string[] FormFields = [.. ExpressionRequest.CommonFormFields, "group", "cell"];
 
     /// <summary>What a build needs, however it arrived: the options, the table's bytes and name, the metadata's.</summary>
     private sealed record BuildUpload(BuildRequest Options, byte[] Expression, string ExpressionName, byte[]? Metadata, string MetadataName);
@@ -68,16 +66,9 @@ public static class BuildApi
         if (body.Group is not null && (upload.Metadata is null || body.GroupBy is null))
             throw new UserInputException("group: needs metadata and groupBy (its column).");
         var session = ExpressionSession.Read(catalog, upload.Expression, upload.ExpressionName, upload.Metadata, upload.MetadataName,
-            new ReadChoices(body.Orientation, body.Unit, body.GroupBy));
+            body.ReadChoices());
         var report = session.Map(body.Overrides ?? []);
-        var rule = DensityRule.RelativeTo(body.ReferenceGroup) with
-        {
-            Exponent = body.Exponent,
-            ClampToPlausibleRange = body.Clamp,
-            CapacitancePf = body.CapacitancePf,
-            TemperatureC = body.TemperatureC,
-        };
-        var built = session.Build(report, rule, body.Group is not null ? ModelTarget.ForGroup(body.Group) : ModelTarget.ForCell(body.Cell!));
+        var built = session.Build(report, body.DensityRule(), body.Group is not null ? ModelTarget.ForGroup(body.Group) : ModelTarget.ForCell(body.Cell!));
         var doc = built.Document with { Caution = ResearchCaution.Text };
         return new BuildResponse(ModelRequest.ToElement(doc), built.Densities, built.Warnings, report.Unmapped, report.Problems, ResearchCaution.Text);
     }
@@ -105,20 +96,7 @@ public static class BuildApi
             throw new UserInputException("expression: required, as a file part (CSV or TSV, optionally gzip, or AnnData .h5ad).");
         var metadata = form.Part("metadata");
         var defaults = new BuildRequest();
-        var options = new BuildRequest
-        {
-            GroupBy = Text(form, "groupBy"),
-            Group = Text(form, "group"),
-            Cell = Text(form, "cell"),
-            Orientation = Text(form, "orientation"),
-            Unit = Text(form, "unit"),
-            ReferenceGroup = Text(form, "referenceGroup"),
-            Exponent = Number(form, "exponent") ?? defaults.Exponent,
-            Clamp = Flag(form, "clamp") ?? defaults.Clamp,
-            CapacitancePf = Number(form, "capacitancePf") ?? defaults.CapacitancePf,
-            TemperatureC = Number(form, "temperatureC") ?? defaults.TemperatureC,
-            Overrides = Overrides(form),
-        };
+        var options = ExpressionRequest.WithCommonFields(defaults with { Group = Text(form, "group"), Cell = Text(form, "cell") }, form);
         return new BuildUpload(options, expression.Bytes, expression.FileName ?? defaults.ExpressionName, metadata?.Bytes,
             metadata?.FileName ?? defaults.MetadataName);
     }

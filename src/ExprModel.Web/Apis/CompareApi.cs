@@ -20,9 +20,7 @@ namespace ExprModel.Web.Apis;
 /// </summary>
 public static class CompareApi
 {
-    private static readonly string[] FormFields =
-        ["expression", "metadata", "recorded", "groupBy", "recordedCellColumn", "map", "per", "shrink", "orientation", "unit", "referenceGroup", "exponent",
-         "clamp", "capacitancePf", "temperatureC", "overrides"];
+    private static readonly string[] FormFields = [.. ExpressionRequest.CommonFormFields, "recorded", "recordedCellColumn", "map", "per", "shrink"];
 
     private sealed record CompareUpload(CompareRequest Options, byte[] Expression, string ExpressionName, byte[]? Metadata, string MetadataName,
         byte[]? Recorded, string RecordedName)
@@ -88,16 +86,9 @@ public static class CompareApi
                 + "recordings are sent.");
 
         var session = ExpressionSession.Read(catalog, upload.Expression, upload.ExpressionName, upload.Metadata, upload.MetadataName,
-            new ReadChoices(body.Orientation, body.Unit, body.GroupBy));
+            body.ReadChoices());
         var report = session.Map(body.Overrides ?? []);
-        var rule = DensityRule.RelativeTo(body.ReferenceGroup) with
-        {
-            Exponent = body.Exponent,
-            ClampToPlausibleRange = body.Clamp,
-            CapacitancePf = body.CapacitancePf,
-            TemperatureC = body.TemperatureC,
-        };
-        if (rule.Problem() is { } problem) throw new UserInputException("density rule: " + problem);
+        var rule = body.DensityRule();
         var cells = session.Dataset.Table.CellIds.ToHashSet(StringComparer.Ordinal);
         var table = tableBytes is null ? null : RecordedUploads.Table(tableBytes, tableName, body.RecordedCellColumn, body.Map, cells.Contains);
         RecordedFeatures? fromSweeps = null;
@@ -144,22 +135,13 @@ public static class CompareApi
             throw new UserInputException("expression: required, as a file part (CSV or TSV, optionally gzip, or AnnData .h5ad).");
         var (metadata, recorded) = (form.Part("metadata"), form.Part("recorded"));
         var d = new CompareRequest();
-        var options = new CompareRequest
+        var options = ExpressionRequest.WithCommonFields(d with
         {
-            GroupBy = BuildApi.Text(form, "groupBy"),
             RecordedCellColumn = BuildApi.Text(form, "recordedCellColumn"),
             Map = Map(form),
             Per = BuildApi.Text(form, "per") ?? d.Per,
             Shrink = BuildApi.Text(form, "shrink") ?? d.Shrink,
-            Orientation = BuildApi.Text(form, "orientation"),
-            Unit = BuildApi.Text(form, "unit"),
-            ReferenceGroup = BuildApi.Text(form, "referenceGroup"),
-            Exponent = BuildApi.Number(form, "exponent") ?? d.Exponent,
-            Clamp = BuildApi.Flag(form, "clamp") ?? d.Clamp,
-            CapacitancePf = BuildApi.Number(form, "capacitancePf") ?? d.CapacitancePf,
-            TemperatureC = BuildApi.Number(form, "temperatureC") ?? d.TemperatureC,
-            Overrides = BuildApi.Overrides(form),
-        };
+        }, form);
         var recordings = form.Names.Where(IsRecordingPart).Order(StringComparer.OrdinalIgnoreCase).Select(n => form.Part(n)!)
             .Select(p => (p.FileName
                 ?? throw new UserInputException($"{p.Name}: send recorded sweeps as a file part with its file name (.nwb, .csv, .tsv or .txt)."),

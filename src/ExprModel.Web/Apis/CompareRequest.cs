@@ -1,15 +1,11 @@
-using ExprModel.Core.Mapping;
-
 namespace ExprModel.Web.Apis;
 
-/// <summary>A compare request: a build request's inputs, the recorded table (default: the metadata) and how to compare.</summary>
-public sealed record CompareRequest
+/// <summary>
+/// A compare request: the table and its options (<see cref="ExpressionRequest"/>), the recorded table (default: the
+/// metadata) and how to compare.
+/// </summary>
+public sealed record CompareRequest : ExpressionRequest
 {
-    public string? Expression { get; init; }
-    public string ExpressionName { get; init; } = "expression.csv";
-    public string? Metadata { get; init; }
-    public string MetadataName { get; init; } = "metadata.csv";
-    public string? GroupBy { get; init; }
     /// <summary>Per-cell recorded values with units in the headers, as CSV or TSV text; absent = the metadata table.</summary>
     public string? Recorded { get; init; }
     public string RecordedName { get; init; } = "recorded.csv";
@@ -21,12 +17,4 @@ public sealed record CompareRequest
     public string Per { get; init; } = "cell";
     /// <summary>Per-cell models: group (gamma-Poisson shrinkage towards the cell's group) or none.</summary>
     public string Shrink { get; init; } = "group";
-    public string? Orientation { get; init; }
-    public string? Unit { get; init; }
-    public IReadOnlyList<GeneOverride>? Overrides { get; init; }
-    public string? ReferenceGroup { get; init; }
-    public double Exponent { get; init; } = 1;
-    public bool Clamp { get; init; } = true;
-    public double CapacitancePf { get; init; } = ModelDefaults.CapacitancePf;
-    public double TemperatureC { get; init; } = ModelDefaults.TemperatureC;
 }
