@@ -31,7 +31,8 @@ public static class PulseThreshold
     public static PulseThresholdResult? Find(CompiledCell cell, CellState rest, double widthMs, double relativeTolerance = 0.005,
         double maxUaPerCm2 = 5000, SimulationSettings? settings = null, CancellationToken cancel = default)
     {
-        if (!(widthMs > 0) || !double.IsFinite(widthMs)) throw new ArgumentOutOfRangeException(nameof(widthMs), "The pulse width must be a positive number of ms.");
+        if (!(widthMs > 0) || !double.IsFinite(widthMs))
+            throw new ArgumentOutOfRangeException(nameof(widthMs), "The pulse width must be a positive number of ms.");
         if (!(relativeTolerance > 0)) throw new ArgumentOutOfRangeException(nameof(relativeTolerance), "The tolerance must be positive.");
         settings = (settings ?? SimulationSettings.Default) with { RecordEvery = 0, StopAtFirstSpikeAfterMs = DelayMs };
         double lo = 0, hi = double.NaN;
