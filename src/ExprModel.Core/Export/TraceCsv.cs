@@ -10,20 +10,23 @@ namespace ExprModel.Core.Export;
 /// </summary>
 public static class TraceCsv
 {
-    public static string Write(string modelName, Trace trace, CurrentUnit unit, Geometry geometry) =>
-        Write(modelName, trace.TimeMs, trace.VoltageMv, trace.StimulusUaPerCm2, trace.SpikeTimesMs.Count, unit, geometry, trace.ChannelCurrentsUaPerCm2);
+    /// <param name="comments">More comment lines after the spike count (what the protocol found, say).</param>
+    public static string Write(string modelName, Trace trace, CurrentUnit unit, Geometry geometry, IReadOnlyList<string>? comments = null) =>
+        Write(modelName, trace.TimeMs, trace.VoltageMv, trace.StimulusUaPerCm2, trace.SpikeTimesMs.Count, unit, geometry, trace.ChannelCurrentsUaPerCm2,
+            comments);
 
     /// <param name="geometry">The cell's geometry, needed only to write the stimulus in pA or nA.</param>
     /// <param name="channelCurrentsUaPerCm2">Per channel label its current density at each sample, or null for none.</param>
     public static string Write(string modelName, double[] timeMs, double[] voltageMv, double[] stimulusUaPerCm2, int spikesInTrace,
-        CurrentUnit unit = CurrentUnit.UaPerCm2, Geometry? geometry = null, IReadOnlyDictionary<string, double[]>? channelCurrentsUaPerCm2 = null)
+        CurrentUnit unit = CurrentUnit.UaPerCm2, Geometry? geometry = null, IReadOnlyDictionary<string, double[]>? channelCurrentsUaPerCm2 = null,
+        IReadOnlyList<string>? comments = null)
     {
         if (unit != CurrentUnit.UaPerCm2 && geometry is null)
             throw new ArgumentException($"A trace written in {CurrentUnits.Label(unit)} needs the cell's geometry.", nameof(geometry));
         var currents = channelCurrentsUaPerCm2 ?? new Dictionary<string, double[]>();
         var header = new List<string> { "time_ms", "voltage_mv", "stimulus_" + CurrentUnits.Suffix(unit) };
         header.AddRange(currents.Keys.Select(k => $"current_{k}_ua_per_cm2"));
-        var csv = CsvTable.ForModel(modelName, header, $"spikes: {spikesInTrace}");
+        var csv = CsvTable.ForModel(modelName, header, [$"spikes: {spikesInTrace}", .. comments ?? []]);
         var columns = currents.Values.ToArray();
         for (int i = 0; i < timeMs.Length; i++)
         {

@@ -7,4 +7,6 @@ public sealed record SnapshotProtocol
 {
     public StepProtocol Step { get; init; } = new();
     public FiProtocol Fi { get; init; } = new();
+    /// <summary>The protocols area's protocol last run (absent in links shared before it was stored).</summary>
+    public InjectedProtocol? Injected { get; init; }
 }

@@ -37,7 +37,7 @@ public sealed class WorkbenchShare(WorkspaceState workspace, Func<Task> changed)
             string modelJson = model.ToJson();
             // The live table, if it is complete and belongs to the model being shared.
             var live = !session.Busy && session.Table.Pending.Count == 0 ? session.Table.Rows : null;
-            var protocol = new SnapshotProtocol { Step = session.Protocol, Fi = session.Fi };
+            var protocol = new SnapshotProtocol { Step = session.Protocol, Fi = session.Fi, Injected = workspace.Injected };
             var (snap, stored) = await snapshots.SaveAsync(model, protocol, notes, workspace.ParentSnapshotId,
                 expression, storeExpression ? workspace.ExpressionName : null, CancellationToken.None, SnapshotRecorded.Of(workspace));
             SnapshotId = snap.Id;

@@ -25,6 +25,9 @@ public sealed class WorkspaceState
     /// <summary>Models built from the expression table, by group (or cell) name, for the Workbench's comparison overlay.</summary>
     public Dictionary<string, ModelDocument> GroupModels { get; } = new(StringComparer.Ordinal);
 
+    /// <summary>The Workbench protocols area's protocol last run, or the one a shared link stored; a share stores it.</summary>
+    public InjectedProtocol? Injected { get; set; }
+
     /// <summary>The user's answers on the Load page (blank = detect).</summary>
     public IntakeChoices Intake { get; } = new();
 
