@@ -10,7 +10,7 @@ using ExprModel.Core.Simulation;
 
 namespace ExprModel.Cli.Commands;
 
-/// <summary>exprmodel simulate | fi | features | vclamp, each on a model file or --preset ID.</summary>
+/// <summary>exprmodel simulate | fi | features | clamp-steps, each on a model file or --preset ID.</summary>
 public static class ModelCommands
 {
     private sealed class Common
@@ -57,7 +57,7 @@ public static class ModelCommands
         yield return Simulate(ctx);
         yield return Fi(ctx);
         yield return FeaturesCommand(ctx);
-        yield return VClamp(ctx);
+        yield return ClampSteps(ctx);
     }
 
     internal static readonly JsonSerializerOptions Json =
@@ -193,9 +193,9 @@ public static class ModelCommands
         return c;
     }
 
-    private static Command VClamp(CliContext ctx)
+    private static Command ClampSteps(CliContext ctx)
     {
-        var c = new Command("vclamp", "Voltage-clamp step family: I-V (peak and steady current per channel) and activation (normalised peak conductance).");
+        var c = new Command("clamp-steps", "Voltage-clamp step family: I-V (peak and steady current per channel) and activation (normalised peak conductance).");
         var common = new Common();
         common.AddTo(c);
         var holding = new Option<double>("--holding") { Description = "Holding potential (mV).", DefaultValueFactory = _ => -80 };

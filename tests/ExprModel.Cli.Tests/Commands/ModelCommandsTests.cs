@@ -69,7 +69,7 @@ public class ModelCommandsTests
     [Fact]
     public void VoltageClampReportsSodiumInwardAndPotassiumOutward()
     {
-        var (exit, stdout, err) = CliRunner.Run("vclamp", "--preset", "hh1952", "--holding", "-80", "--from", "-40", "--to", "0", "--step", "20");
+        var (exit, stdout, err) = CliRunner.Run("clamp-steps", "--preset", "hh1952", "--holding", "-80", "--from", "-40", "--to", "0", "--step", "20");
         Assert.True(exit == 0, err);
         var lines = stdout.Split('\n', StringSplitOptions.RemoveEmptyEntries).Where(l => !l.StartsWith('#')).ToArray();
         var header = lines[0].Split(',');

@@ -1,4 +1,5 @@
 using ExprModel.Core.Analysis;
+using ExprModel.Core.Export;
 using ExprModel.Core.Expression;
 using ExprModel.Core.Mapping;
 using ExprModel.Core.Models;
@@ -171,7 +172,7 @@ public sealed class WorkbenchSessionTests : IDisposable
 
         await session.ShareAsync(new SnapshotService(_store, _runner), "", storeExpression: false);
         Assert.Equal(real.Rows, session.Table.Rows);
-        Assert.Contains($"rheobase {ReadoutPanel.Format(rheobase * 1.5)} uA/cm2 → {ReadoutPanel.Format(rheobase)} uA/cm2", session.ShareNote);
+        Assert.Contains($"rheobase {ReadoutDisplay.Format(rheobase * 1.5, "uA/cm2")} uA/cm2 → {ReadoutDisplay.Format(rheobase, "uA/cm2")} uA/cm2", session.ShareNote);
         // A new setting clears the note: it described the table at the moment of sharing.
         session.SetRelative(k, DensityScale.RelativeAt(690));
         Assert.Null(session.ShareNote);
