@@ -22,5 +22,5 @@ public static class ChannelFamilies
     };
 
     /// <summary>Families without a voltage band (leak, calcium-gated, inward rectifier, historical).</summary>
-    public static readonly IReadOnlySet<string> Unbanded = new HashSet<string> { "leak", "SK", "BK", "Kir", "K2P", "historical", "Kdr-model" };
+    public static readonly IReadOnlySet<string> Unbanded = new HashSet<string> { "leak", "SK", "BK", "KNa", "Kir", "K2P", "historical", "Kdr-model" };
 }

@@ -14,7 +14,7 @@ namespace ExprModel.Data.Catalog;
 /// </summary>
 public static class CatalogBuilder
 {
-    public const int SchemaVersion = 1;
+    public const int SchemaVersion = 2;
 
     public const string Schema = """
         CREATE TABLE meta (key TEXT PRIMARY KEY, value TEXT NOT NULL);
@@ -31,7 +31,7 @@ public static class CatalogBuilder
         CREATE TABLE gates (
             entry_id TEXT NOT NULL, version INTEGER NOT NULL, ordinal INTEGER NOT NULL, name TEXT NOT NULL,
             power INTEGER NOT NULL, kind TEXT NOT NULL, instantaneous INTEGER NOT NULL, rate_factor REAL NOT NULL,
-            ca_half_mm REAL, ca_hill REAL, ca_tau_ms REAL,
+            ca_half_mm REAL, ca_hill REAL, ca_tau_ms REAL, na_half_mm REAL, na_hill REAL, na_tau_ms REAL,
             PRIMARY KEY (entry_id, version, ordinal), FOREIGN KEY (entry_id, version) REFERENCES entries(entry_id, version));
         CREATE TABLE gate_rates (
             entry_id TEXT NOT NULL, version INTEGER NOT NULL, gate_ordinal INTEGER NOT NULL,
@@ -109,9 +109,10 @@ public static class CatalogBuilder
             for (int i = 0; i < e.Gates.Count; i++)
             {
                 var g = e.Gates[i];
-                Insert(conn, tx, "INSERT INTO gates VALUES ($a,$b,$c,$d,$e,$f,$g,$h,$i,$j,$k)",
+                Insert(conn, tx, "INSERT INTO gates VALUES ($a,$b,$c,$d,$e,$f,$g,$h,$i,$j,$k,$l,$m,$n)",
                     e.Id, e.Version, i, g.Name, g.Power, Word(g.Kind), g.Instantaneous ? 1 : 0, g.RateFactor,
-                    g.Calcium?.HalfActivationMm, g.Calcium?.HillCoefficient, g.Calcium?.TimeConstantMs);
+                    g.Calcium?.HalfActivationMm, g.Calcium?.HillCoefficient, g.Calcium?.TimeConstantMs,
+                    g.Sodium?.HalfActivationMm, g.Sodium?.HillCoefficient, g.Sodium?.TimeConstantMs);
                 foreach (var (role, r) in new[] { ("alpha", g.Alpha), ("beta", g.Beta), ("steady", g.SteadyState), ("tau", g.TimeConstantMs) })
                 {
                     if (r is null) continue;

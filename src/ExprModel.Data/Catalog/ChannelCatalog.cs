@@ -91,7 +91,7 @@ public sealed class ChannelCatalog
         }
         var gates = new Dictionary<(string, long), List<GateSpec>>();
         foreach (var r in Rows(conn, "SELECT entry_id, version, ordinal, name, power, kind, instantaneous, rate_factor, ca_half_mm, ca_hill, " +
-            "ca_tau_ms FROM gates ORDER BY entry_id, version, ordinal"))
+            "ca_tau_ms, na_half_mm, na_hill, na_tau_ms FROM gates ORDER BY entry_id, version, ordinal"))
         {
             var key = (r.GetString(0), r.GetInt64(1));
             if (!gates.TryGetValue(key, out var list)) gates[key] = list = [];
@@ -105,6 +105,7 @@ public sealed class ChannelCatalog
                 Instantaneous = r.GetInt64(6) != 0,
                 RateFactor = r.GetDouble(7),
                 Calcium = r.IsDBNull(8) ? null : new CalciumSensitivity(r.GetDouble(8), r.GetDouble(9), r.GetDouble(10)),
+                Sodium = r.IsDBNull(11) ? null : new SodiumSensitivity(r.GetDouble(11), r.GetDouble(12), r.GetDouble(13)),
                 Alpha = rr.GetValueOrDefault("alpha"),
                 Beta = rr.GetValueOrDefault("beta"),
                 SteadyState = rr.GetValueOrDefault("steady"),

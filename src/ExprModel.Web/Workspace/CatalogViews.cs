@@ -26,7 +26,7 @@ public static class CatalogViews
         return e.Gates.Select(g => new GateCurveSet(
             g.Name, g.Power, v,
             v.Select(x => g.SteadyStateAt(x)).ToArray(),
-            g.Kind == GateKind.Calcium || g.Instantaneous ? [] : v.Select(x => g.TimeConstantAt(x) / factor).ToArray())).ToArray();
+            g.Kind is GateKind.Calcium or GateKind.Sodium || g.Instantaneous ? [] : v.Select(x => g.TimeConstantAt(x) / factor).ToArray())).ToArray();
     }
 
     /// <summary>An enum value as the catalog files write it (kebab case).</summary>
