@@ -73,6 +73,6 @@ public class CatalogReportTests
         var figure = GeneCoverage.VoltageGatedPoreCoverage(Built.Value);
         Assert.True(figure.Fraction >= 0.9, $"{figure.Linked}/{figure.Total}: {string.Join(" ", figure.Unlinked)}");
         Assert.DoesNotContain("SCN5A", figure.Unlinked); // non-neuronal genes are outside the denominator
-        Assert.Contains("SCN10A", figure.Unlinked);
+        Assert.DoesNotContain("SCN10A", figure.Unlinked); // Nav1.8 has its own entry since issue 17
     }
 }
