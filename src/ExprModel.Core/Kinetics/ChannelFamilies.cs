@@ -22,6 +22,9 @@ public static class ChannelFamilies
         // TTX-resistant sensory-neuron sodium (Nav1.8): activation about 15-20 mV and inactivation about 30-40 mV more depolarised
         // than the TTX-sensitive channels (Elliott & Elliott 1993, J Physiol 463:39; band edges common practice, from memory).
         ["Nav-TTXR"] = new("Nav-TTXR", -35, -5, -50, -20),
+        // Persistent TTX-resistant sodium of nociceptors (Nav1.9): activation and inactivation overlap near -50 mV (rat DRG ranges
+        // -47 to -54 and -44 to -54 mV in the sodium-channel compendium, Catterall et al. 2005; band edges from memory).
+        ["Nav-TTXR-persistent"] = new("Nav-TTXR-persistent", -60, -40, -60, -35),
         // EAG (Kv10): non-inactivating, activation near 0 mV; Kv10.2 starts lower (from memory).
         ["Kv10"] = new("Kv10", -40, 30),
         // ERG (Kv11): slow activation near -10 to -30 mV, fast inactivation with midpoint far negative (-50 to -90 mV, from memory).

@@ -47,7 +47,7 @@ public class GeneGapEntriesTests
 
     [Theory]
     [InlineData(Nav18, "Nav-TTXR")]
-    [InlineData(Nav19, "Nav-persistent")]
+    [InlineData(Nav19, "Nav-TTXR-persistent")]
     [InlineData(Erg, "Kv11")]
     [InlineData(Eag, "Kv10")]
     [InlineData(Elk, "Kv12")]
@@ -169,7 +169,7 @@ public class GeneGapEntriesTests
     /// <summary>HGNC gene families (open standard) and the catalog family codes that are "their own".</summary>
     private static readonly (string Pattern, string[] Families)[] OwnFamilies =
     [
-        (@"^SCN\d+A$", ["Nav-transient", "Nav-persistent", "Nav-TTXR"]),
+        (@"^SCN\d+A$", ["Nav-transient", "Nav-persistent", "Nav-TTXR", "Nav-TTXR-persistent"]),
         (@"^KCNA\d+$", ["Kv1"]),
         (@"^KCNB\d$", ["Kv2"]),
         (@"^KCNC\d$", ["Kv3"]),
