@@ -1,4 +1,5 @@
 using ExprModel.Core.Kinetics;
+using ExprModel.Data.Catalog;
 
 namespace ExprModel.Data.Tests.Catalog;
 
