@@ -84,7 +84,11 @@ public static class ModelCommands
         var wave = new Option<string?>("--waveform") { Description = "CSV with columns time_ms and current (in --units) for --protocol waveform." };
         var every = new Option<int>("--record-every") { Description = "Keep every Nth step in the output.", DefaultValueFactory = _ => 4 };
         var currents = new Option<bool>("--currents") { Description = "Add each channel's current (uA/cm2)." };
-        foreach (var o in new Option[] { protocol, amp, from, delay, duration, total, count, width, freq, sd, tau, seed, wave, every, currents })
+        var channelNoise = new Option<bool>("--channel-noise")
+        {
+            Description = "Stochastic channels: counts from density x area / the catalog's unitary conductance, seeded by --seed.",
+        };
+        foreach (var o in new Option[] { protocol, amp, from, delay, duration, total, count, width, freq, sd, tau, seed, wave, every, currents, channelNoise })
             c.Options.Add(o);
         c.SetAction(p =>
         {
@@ -103,6 +107,21 @@ public static class ModelCommands
             };
             double t = p.GetValue(total) ?? dl + du + 100;
             bool withCurrents = p.GetValue(currents);
+            if (p.GetValue(channelNoise))
+            {
+                if (withCurrents) throw new CliException("--currents is not available with --channel-noise.");
+                var noise = new ExprModel.Core.Stochastic.ChannelNoiseSettings
+                {
+                    UnitaryConductancesPs = ExprModel.Core.Stochastic.ChannelNoise.UnitaryConductances(cell.Model,
+                        e => ctx.Catalog.UnitaryConductances.For(e).ConductancePs),
+                    Seed = p.GetValue(seed),
+                    DtMs = p.GetValue(common.Dt),
+                    RecordEvery = Math.Max(1, p.GetValue(every)),
+                };
+                var noisy = ExprModel.Core.Stochastic.ChannelNoise.Run(cell, stim, t, noise);
+                ctx.Emit(NoisyTraceCsv.Write(doc.Name, cell.Model, noisy, noise), p.GetValue(common.Out));
+                return 0;
+            }
             var trace = Simulator.Run(cell, stim, t,
                 new SimulationSettings { DtMs = p.GetValue(common.Dt), RecordEvery = Math.Max(1, p.GetValue(every)), RecordCurrents = withCurrents });
             ctx.Emit(TraceCsv.Write(doc.Name, trace, unit, g), p.GetValue(common.Out));
