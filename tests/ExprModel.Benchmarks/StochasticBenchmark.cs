@@ -42,8 +42,16 @@ public static class StochasticBenchmark
 
         var patch = new PatchSettings
         {
-            Entry = catalog.Resolve("squid-na-hh1952", null), UnitaryConductancePs = 18, ChannelCount = 100, HoldingMv = -90, StepMv = 0,
-            PreStepMs = 5, StepMs = 45, Sweeps = 1000, KeptSweeps = 5, SampleIntervalMs = 0.05,
+            Entry = catalog.Resolve("squid-na-hh1952", null),
+            UnitaryConductancePs = 18,
+            ChannelCount = 100,
+            HoldingMv = -90,
+            StepMv = 0,
+            PreStepMs = 5,
+            StepMs = 45,
+            Sweeps = 1000,
+            KeptSweeps = 5,
+            SampleIntervalMs = 0.05,
         };
         var kdr = patch with { Entry = catalog.Resolve("squid-k-hh1952", null), UnitaryConductancePs = 20 };
         var fast = patch with { Entry = catalog.Resolve("nav-cortex-mainen1995", null), TemperatureC = 34 };
