@@ -23,7 +23,11 @@ public static class NoiseCommand
             DefaultValueFactory = _ => "0,2,4,6,8,10,12,14,16",
         };
         var pulse = new Option<double>("--pulse") { Description = "Pulse length for probability (ms).", DefaultValueFactory = _ => 1 };
-        var duration = new Option<double>("--duration") { Description = "Run length for spontaneous firing, step length for jitter (ms).", DefaultValueFactory = _ => 1000 };
+        var duration = new Option<double>("--duration")
+        {
+            Description = "Run length for spontaneous firing, step length for jitter (ms).",
+            DefaultValueFactory = _ => 1000,
+        };
         var trials = new Option<int>("--trials") { Description = "Trials (seeds seed, seed + 1, ...).", DefaultValueFactory = _ => 20 };
         var seed = new Option<long>("--seed") { Description = "Random seed.", DefaultValueFactory = _ => 1 };
         var scale = new Option<double>("--conductance-scale")

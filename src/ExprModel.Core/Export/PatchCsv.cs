@@ -16,7 +16,8 @@ public static class PatchCsv
         string F(double x) => x.ToString("G6", CultureInfo.InvariantCulture);
         var comments = new List<string>
         {
-            $"channels: {s.ChannelCount}; sweeps: {s.Sweeps}; holding {F(s.HoldingMv)} mV; step {F(s.StepMv)} mV for {F(s.StepMs)} ms after {F(s.PreStepMs)} ms; " +
+            $"channels: {s.ChannelCount}; sweeps: {s.Sweeps}; holding {F(s.HoldingMv)} mV; " +
+            $"step {F(s.StepMv)} mV for {F(s.StepMs)} ms after {F(s.PreStepMs)} ms; " +
             $"temperature {F(s.EffectiveTemperatureC)} C; reversal {F(r.ReversalMv)} mV; seed {s.Seed}",
             $"unitary conductance: {F(s.UnitaryConductancePs)} pS" + (unitary is null ? "" : $" ({unitary.BasisLabel}; {unitary.Citation})"),
             $"unitary current at the step: {F(r.UnitaryCurrentAtStepPa)} pA",

@@ -33,8 +33,10 @@ public static class ChannelNoise
         if (settings.UnitaryConductancesPs.Count != cell.ChannelCount)
             throw new ArgumentException($"one unitary conductance per channel is needed ({cell.ChannelCount}, got {settings.UnitaryConductancesPs.Count})",
                 nameof(settings));
-        if (!(settings.DtMs > 0) || settings.DtMs > 1) throw new ArgumentOutOfRangeException(nameof(settings), $"dtMs must lie in (0, 1] (got {settings.DtMs})");
-        if (!(durationMs > 0) || durationMs > 600_000) throw new ArgumentOutOfRangeException(nameof(durationMs), $"durationMs must lie in (0, 600000] (got {durationMs})");
+        if (!(settings.DtMs > 0) || settings.DtMs > 1)
+            throw new ArgumentOutOfRangeException(nameof(settings), $"dtMs must lie in (0, 1] (got {settings.DtMs})");
+        if (!(durationMs > 0) || durationMs > 600_000)
+            throw new ArgumentOutOfRangeException(nameof(durationMs), $"durationMs must lie in (0, 600000] (got {durationMs})");
         var state = new ChannelNoiseState(cell, settings);
         double dt = settings.DtMs;
         int steps = (int)Math.Round(durationMs / dt);

@@ -42,7 +42,8 @@ public static class NoiseReadouts
         for (int a = 0; a < amplitudesUaPerCm2.Count; a++)
         {
             var stim = new StepCurrent(SettleMs, pulseMs, amplitudesUaPerCm2[a]);
-            var runs = Trials(cell, settings with { Seed = settings.Seed + 1_000_003L * (a + 1) }, stim, SettleMs + Math.Max(pulseMs, windowMs), trials, cancel);
+            var seeded = settings with { Seed = settings.Seed + 1_000_003L * (a + 1) };
+            var runs = Trials(cell, seeded, stim, SettleMs + Math.Max(pulseMs, windowMs), trials, cancel);
             int fired = runs.Count(t => t.SpikeTimesMs.Any(s => s >= SettleMs && s < SettleMs + windowMs));
             points.Add(new FiringProbabilityPoint(amplitudesUaPerCm2[a], fired, trials));
         }

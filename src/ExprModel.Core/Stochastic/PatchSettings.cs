@@ -56,7 +56,8 @@ public sealed record PatchSettings
         if (Entry.Gates.All(g => g.Instantaneous)) return $"{Entry.Key}: every gate is instantaneous, so the channel has no kinetic states";
         if (ChannelCount < 1 || ChannelCount > MaxChannels) return $"channels: must be 1 to {MaxChannels} (got {ChannelCount})";
         if (Sweeps < 1 || Sweeps > MaxSweeps) return $"sweeps: must be 1 to {MaxSweeps} (got {Sweeps})";
-        if (!(UnitaryConductancePs > 0) || double.IsInfinity(UnitaryConductancePs)) return $"unitary conductance: must be positive pS (got {UnitaryConductancePs})";
+        if (!(UnitaryConductancePs > 0) || double.IsInfinity(UnitaryConductancePs))
+            return $"unitary conductance: must be positive pS (got {UnitaryConductancePs})";
         if (!double.IsFinite(HoldingMv) || Math.Abs(HoldingMv) > 200) return $"holding: must lie within +-200 mV (got {HoldingMv})";
         if (!double.IsFinite(StepMv) || Math.Abs(StepMv) > 200) return $"step: must lie within +-200 mV (got {StepMv})";
         if (!(PreStepMs >= 0) || !(StepMs > 0) || !(PostStepMs >= 0) || TotalMs > 10_000)

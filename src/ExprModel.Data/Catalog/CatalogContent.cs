@@ -125,8 +125,10 @@ public sealed class CatalogContent
             if (!double.TryParse(cols[1], NumberStyles.Float, CultureInfo.InvariantCulture, out var ps) || !(ps > 0) || ps > 1000)
                 throw new CatalogException($"catalog/{UnitaryFile}: line {line}, column conductance_ps: '{cols[1]}' is not a number of pS in (0, 1000].");
             if (cols[2] != (family ? "family-default" : "entry"))
-                throw new CatalogException($"catalog/{UnitaryFile}: line {line}, column basis: must be '{(family ? "family-default" : "entry")}' for key '{key}'.");
-            if (cols[3].Length == 0) throw new CatalogException($"catalog/{UnitaryFile}: line {line}, column citation: empty (name the source or 'common practice').");
+                throw new CatalogException(
+                    $"catalog/{UnitaryFile}: line {line}, column basis: must be '{(family ? "family-default" : "entry")}' for key '{key}'.");
+            if (cols[3].Length == 0)
+                throw new CatalogException($"catalog/{UnitaryFile}: line {line}, column citation: empty (name the source or 'common practice').");
             rows.Add(new UnitaryConductance(key, ps, family, cols[3], cols[4]));
         }
         if (!seen.Contains(UnitaryConductances.LastResortKey))

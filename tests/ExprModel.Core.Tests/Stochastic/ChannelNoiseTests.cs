@@ -47,8 +47,8 @@ public class ChannelNoiseTests
         var unitary = Unitary(cell, 1);
         const double ms = 1000;
         const int trials = 6;
-        double exact = NoiseReadouts.SpontaneousRateHz(cell, new ChannelNoiseSettings { UnitaryConductancesPs = unitary, ExactUpToMean = double.PositiveInfinity, Seed = 1 },
-            ms, trials);
+        var exactDraws = new ChannelNoiseSettings { UnitaryConductancesPs = unitary, ExactUpToMean = double.PositiveInfinity, Seed = 1 };
+        double exact = NoiseReadouts.SpontaneousRateHz(cell, exactDraws, ms, trials);
         double approx = NoiseReadouts.SpontaneousRateHz(cell, new ChannelNoiseSettings { UnitaryConductancesPs = unitary, Seed = 1001 }, ms, trials);
         double n = trials * ms / 1000;
         double se = Math.Sqrt(exact / n + approx / n);
