@@ -28,8 +28,9 @@ public static class PatchCommand
         var out_ = new Option<string?>("--out") { Description = "Write to this file instead of standard output." };
         var db = new Option<string?>("--db") { Description = "Catalog database file." };
         c.Arguments.Add(entry);
-        foreach (var o in new Option[]
-                 { channels, holding, step, before, duration, after, sweeps, keep, conductance, temperature, calcium, sample, seed, dwells, out_, db })
+        foreach (var o in new Option[] { channels, holding, step, before, duration, after, sweeps, keep })
+            c.Options.Add(o);
+        foreach (var o in new Option[] { conductance, temperature, calcium, sample, seed, dwells, out_, db })
             c.Options.Add(o);
         c.SetAction(p =>
         {
