@@ -133,26 +133,14 @@ public static class ModelCommands
     private static WaveformCurrent ReadWaveform(string path, CurrentUnit unit, Geometry g)
     {
         if (!File.Exists(path)) throw new CliException($"{path}: no such waveform file.");
-        var times = new List<double>();
-        var values = new List<double>();
-        int line = 0;
-        foreach (var raw in File.ReadLines(path))
+        try
         {
-            line++;
-            if (raw.Length == 0 || raw.StartsWith('#')) continue;
-            var cols = raw.Split(',');
-            if (line == 1 && !double.TryParse(cols[0], NumberStyles.Float, CultureInfo.InvariantCulture, out _)) continue; // header
-            if (cols.Length < 2) throw new CliException($"{path}: line {line}: expected two columns (time_ms, current).");
-            if (!double.TryParse(cols[0], NumberStyles.Float, CultureInfo.InvariantCulture, out var t) || !double.IsFinite(t))
-                throw new CliException($"{path}: line {line}, column 1: '{cols[0]}' is not a time in ms.");
-            if (!double.TryParse(cols[1], NumberStyles.Float, CultureInfo.InvariantCulture, out var v) || !double.IsFinite(v))
-                throw new CliException($"{path}: line {line}, column 2: '{cols[1]}' is not a current.");
-            if (times.Count > 0 && t <= times[^1]) throw new CliException($"{path}: line {line}, column 1: times must increase.");
-            times.Add(t);
-            values.Add(CurrentUnits.ToDensity(v, unit, g));
+            return WaveformReader.Read(File.ReadAllText(path), path, v => CurrentUnits.ToDensity(v, unit, g));
         }
-        if (times.Count < 2) throw new CliException($"{path}: needs at least two samples.");
-        return new WaveformCurrent(times, values);
+        catch (WaveformFormatException e)
+        {
+            throw new CliException(e.Message);
+        }
     }
 
     private static Command Fi(CliContext ctx)
@@ -232,25 +220,8 @@ public static class ModelCommands
             for (double v = a; v <= b + 1e-9; v += s) commands.Add(Math.Round(v, 9));
             if (commands.Count > 1000) throw new CliException("Too many commands (over 1000).");
             var family = VoltageClamp.StepFamily(cell, p.GetValue(holding), commands, 50, p.GetValue(length), p.GetValue(common.Dt));
-            var ids = family[0].PeakUaPerCm2.Keys.ToArray();
-            var gmax = ids.ToDictionary(id => id, id => family.Max(f => f.PeakConductanceMsPerCm2[id]));
             var g = cell.Model.Geometry;
-            string suffix = CurrentUnits.Suffix(unit);
-            var header = new List<string> { "command_mv" };
-            foreach (var id in ids) header.AddRange([$"peak_{id}_{suffix}", $"steady_{id}_{suffix}", $"activation_{id}"]);
-            var csv = CsvTable.ForModel(doc.Name, header);
-            foreach (var f in family)
-            {
-                var row = new List<object?> { f.CommandMv };
-                foreach (var id in ids)
-                {
-                    row.Add(CurrentUnits.FromDensity(f.PeakUaPerCm2[id], unit, g));
-                    row.Add(CurrentUnits.FromDensity(f.SteadyUaPerCm2[id], unit, g));
-                    row.Add(gmax[id] > 0 ? f.PeakConductanceMsPerCm2[id] / gmax[id] : null);
-                }
-                csv.Row([.. row]);
-            }
-            ctx.Emit(csv.ToString(), p.GetValue(common.Out));
+            ctx.Emit(ClampCsv.Write(doc.Name, ClampCurves.From(family), unit, g), p.GetValue(common.Out));
             return 0;
         });
         return c;
