@@ -10,7 +10,7 @@ using ExprModel.Core.Simulation;
 
 namespace ExprModel.Cli.Commands;
 
-/// <summary>exprmodel simulate | fi | features | vclamp, each on a model file or --preset ID.</summary>
+/// <summary>exprmodel simulate | fi | features | vclamp | mechanisms, each on a model file or --preset ID.</summary>
 public static class ModelCommands
 {
     private sealed class Common
@@ -58,6 +58,7 @@ public static class ModelCommands
         yield return Fi(ctx);
         yield return FeaturesCommand(ctx);
         yield return VClamp(ctx);
+        yield return Mechanisms(ctx);
     }
 
     internal static readonly JsonSerializerOptions Json =
@@ -232,6 +233,43 @@ public static class ModelCommands
                 csv.Row([.. row]);
             }
             ctx.Emit(csv.ToString(), p.GetValue(common.Out));
+            return 0;
+        });
+        return c;
+    }
+
+    private static Command Mechanisms(CliContext ctx)
+    {
+        var c = new Command("mechanisms",
+            "Adaptation mechanisms on a suprathreshold step train: threshold and after-hyperpolarisation per spike, each channel's " +
+            "inter-spike current, and the pulse threshold after one spike and after the train against rest.");
+        var common = new Common();
+        common.AddTo(c);
+        var amp = new Option<double?>("--amplitude") { Description = "Step amplitude (in --units); default twice the rheobase." };
+        var duration = new Option<double>("--duration") { Description = "Step length (ms).", DefaultValueFactory = _ => 1000 };
+        var delay = new Option<double>("--probe-delay") { Description = "Test pulse delay after the spike / the train (ms).", DefaultValueFactory = _ => 20 };
+        var width = new Option<double>("--probe-width") { Description = "Test pulse width (ms).", DefaultValueFactory = _ => 2 };
+        var format = new Option<string>("--format") { Description = "csv or json.", DefaultValueFactory = _ => "csv" };
+        foreach (var o in new Option[] { amp, duration, delay, width, format }) c.Options.Add(o);
+        c.SetAction(p =>
+        {
+            string fmt = p.GetValue(format)!;
+            if (fmt is not ("csv" or "json")) throw new CliException("--format must be csv or json.");
+            var (doc, cell, unit) = common.Load(p, ctx);
+            var g = cell.Model.Geometry;
+            var settings = MechanismSettings.Default with
+            {
+                Simulation = new SimulationSettings { DtMs = p.GetValue(common.Dt) },
+                StepDurationMs = p.GetValue(duration),
+                ProbeDelayMs = p.GetValue(delay),
+                ProbePulseMs = p.GetValue(width),
+            };
+            if (settings.Problem() is { } bad) throw new CliException(bad.Replace("stepDurationMs", "--duration").Replace("probeDelayMs", "--probe-delay")
+                .Replace("probePulseMs", "--probe-width"));
+            double? step = p.GetValue(amp) is { } a ? CurrentUnits.ToDensity(a, unit, g) : null;
+            var report = AdaptationMechanisms.Measure(cell, step, settings);
+            ctx.Emit(fmt == "json" ? MechanismCsv.Json(doc.Name, report, unit, g).ToJsonString(Json) + "\n" : MechanismCsv.Write(doc.Name, report, unit, g),
+                p.GetValue(common.Out));
             return 0;
         });
         return c;

@@ -105,4 +105,33 @@ public class ModelCommandsTests
         Assert.Contains("densityMsPerCm2", err);
         File.Delete(path);
     }
+
+    [Fact]
+    public void MechanismsNamesTheMCurrentAsBuildingUpOnTheRegularSpikingPreset()
+    {
+        // Pospischil et al. 2008: the regular-spiking model adapts through its M-current (common practice: it builds up over a train).
+        var (exit, stdout, err) = CliRunner.Run("mechanisms", "--preset", "cortex-rs2008", "--format", "json");
+        Assert.True(exit == 0, err);
+        using var doc = JsonDocument.Parse(stdout);
+        var root = doc.RootElement;
+        Assert.Equal("kv7-m-yamada", root.GetProperty("building_up").GetString());
+        Assert.Contains("clinical", root.GetProperty("caution").GetString());
+        Assert.True(root.GetProperty("spikes").GetArrayLength() >= 10);
+        Assert.True(root.GetProperty("after_train").GetProperty("ratio").GetDouble() > 1);
+
+        var csv = CliRunner.Run("mechanisms", "--preset", "cortex-rs2008", "--units", "pA", "--amplitude", "600");
+        Assert.True(csv.Exit == 0, csv.Err);
+        Assert.Contains("Research tool", csv.Out);
+        var header = csv.Out.Split('\n').First(l => !l.StartsWith('#')).Split(',');
+        Assert.Equal(["spike", "time_ms", "threshold_mv", "trough_mv", "ahp_depth_mv", "interval_ms"], header.Take(6));
+        Assert.Contains("ramp_current_kv7-m-yamada_pa", header);
+    }
+
+    [Fact]
+    public void MechanismsRefusesABadProbeWidthNamingTheOption()
+    {
+        var (exit, _, err) = CliRunner.Run("mechanisms", "--preset", "hh1952", "--probe-width", "0", "--amplitude", "10");
+        Assert.Equal(1, exit);
+        Assert.Contains("--probe-width", err);
+    }
 }
