@@ -10,7 +10,7 @@ using ExprModel.Core.Simulation;
 
 namespace ExprModel.Cli.Commands;
 
-/// <summary>exprmodel simulate | fi | features | vclamp | mechanisms, each on a model file or --preset ID.</summary>
+/// <summary>exprmodel simulate | fi | features | vclamp | mechanisms | methods, each on a model file or --preset ID.</summary>
 public static class ModelCommands
 {
     private sealed class Common
@@ -59,6 +59,7 @@ public static class ModelCommands
         yield return FeaturesCommand(ctx);
         yield return VClamp(ctx);
         yield return Mechanisms(ctx);
+        yield return Methods(ctx);
     }
 
     internal static readonly JsonSerializerOptions Json =
@@ -270,6 +271,31 @@ public static class ModelCommands
             var report = AdaptationMechanisms.Measure(cell, step, settings);
             ctx.Emit(fmt == "json" ? MechanismCsv.Json(doc.Name, report, unit, g).ToJsonString(Json) + "\n" : MechanismCsv.Write(doc.Name, report, unit, g),
                 p.GetValue(common.Out));
+            return 0;
+        });
+        return c;
+    }
+
+    private static Command Methods(CliContext ctx)
+    {
+        var c = new Command("methods", "A methods paragraph for a paper (model, channels with citations and densities, temperature and Q10, " +
+            "integration, protocols and read-out definitions, versions) and the BibTeX of every cited source.");
+        var common = new Common();
+        common.AddTo(c);
+        var bib = new Option<string?>("--bibtex") { Description = "Also write the BibTeX file here." };
+        var format = new Option<string>("--format") { Description = "text (the paragraph) or bibtex, to --out or standard output.", DefaultValueFactory = _ => "text" };
+        c.Options.Add(bib);
+        c.Options.Add(format);
+        c.SetAction(p =>
+        {
+            string fmt = p.GetValue(format)!;
+            if (fmt is not ("text" or "bibtex")) throw new CliException("--format must be text or bibtex.");
+            var (doc, cell, _) = common.Load(p, ctx);
+            var versions = MethodsVersions.Current(ctx.Catalog.VersionLabel);
+            var settings = ReadoutSettings.Default with { Simulation = new SimulationSettings { DtMs = p.GetValue(common.Dt) } };
+            string bibText = BibTex.Write(BibTex.For(cell.Model, doc.Citation, versions).Entries, ResearchCaution.Text);
+            if (p.GetValue(bib) is { } bibPath) ctx.Emit(bibText, bibPath);
+            ctx.Emit(fmt == "bibtex" ? bibText : MethodsText.Write(doc, cell.Model, versions, settings) + "\n", p.GetValue(common.Out));
             return 0;
         });
         return c;

@@ -24,6 +24,10 @@ public sealed class ChannelCatalog
     public IReadOnlyDictionary<string, string> Meta { get; }
     public string DatabasePath { get; }
 
+    /// <summary>How a methods paragraph names this catalog: its schema version and the first 12 hex digits of its sources' hash.</summary>
+    public string VersionLabel =>
+        $"schema {Meta.GetValueOrDefault("schema_version", "?")}, sources {Meta.GetValueOrDefault("source_hash", "?")[..Math.Min(12, Meta.GetValueOrDefault("source_hash", "?").Length)]}";
+
     private ChannelCatalog(string path, List<ChannelEntry> entries, List<GeneLink> links, List<GeneStatus> statuses,
         List<GeneIdentifier> ids, Dictionary<string, ModelDocument> presets, Dictionary<string, string> meta)
     {

@@ -134,4 +134,28 @@ public class ModelCommandsTests
         Assert.Equal(1, exit);
         Assert.Contains("--probe-width", err);
     }
+
+    [Fact]
+    public void MethodsWritesTheParagraphAndABibTexFileCitingEveryChannel()
+    {
+        var bib = Path.Combine(Path.GetTempPath(), $"exprmodel-methods-{Guid.NewGuid():N}.bib");
+        try
+        {
+            var (exit, stdout, err) = CliRunner.Run("methods", "--preset", "wb1996", "--bibtex", bib);
+            Assert.True(exit == 0, err);
+            // Wang & Buzsaki 1996 (J Neurosci 16:6402): the preset's sodium and potassium entries cite it.
+            Assert.Contains("[Wang1996]", stdout);
+            Assert.Contains("at 35 mS/cm2", stdout);
+            Assert.Contains("clinical", stdout);
+            string text = File.ReadAllText(bib);
+            Assert.Contains("@article{Wang1996,", text);
+            Assert.Contains("pages = {6402--6413}", text);
+            var viaFormat = CliRunner.Run("methods", "--preset", "wb1996", "--format", "bibtex");
+            Assert.Equal(text, viaFormat.Out);
+        }
+        finally
+        {
+            File.Delete(bib);
+        }
+    }
 }
