@@ -269,8 +269,10 @@ public static class ModelCommands
                 .Replace("probePulseMs", "--probe-width"));
             double? step = p.GetValue(amp) is { } a ? CurrentUnits.ToDensity(a, unit, g) : null;
             var report = AdaptationMechanisms.Measure(cell, step, settings);
-            ctx.Emit(fmt == "json" ? MechanismCsv.Json(doc.Name, report, unit, g).ToJsonString(Json) + "\n" : MechanismCsv.Write(doc.Name, report, unit, g),
-                p.GetValue(common.Out));
+            string text = fmt == "json"
+                ? MechanismCsv.Json(doc.Name, report, unit, g).ToJsonString(Json) + "\n"
+                : MechanismCsv.Write(doc.Name, report, unit, g);
+            ctx.Emit(text, p.GetValue(common.Out));
             return 0;
         });
         return c;
@@ -283,7 +285,11 @@ public static class ModelCommands
         var common = new Common();
         common.AddTo(c);
         var bib = new Option<string?>("--bibtex") { Description = "Also write the BibTeX file here." };
-        var format = new Option<string>("--format") { Description = "text (the paragraph) or bibtex, to --out or standard output.", DefaultValueFactory = _ => "text" };
+        var format = new Option<string>("--format")
+        {
+            Description = "text (the paragraph) or bibtex, to --out or standard output.",
+            DefaultValueFactory = _ => "text",
+        };
         c.Options.Add(bib);
         c.Options.Add(format);
         c.SetAction(p =>

@@ -26,7 +26,10 @@ public sealed record MechanismReport
     public string? BuildingUpChannel { get; init; }
     public ThresholdProbe? AfterOneSpike { get; init; }
     public ThresholdProbe? AfterTrain { get; init; }
-    /// <summary>The train's membrane potential every <see cref="TrainSampleMs"/> from time 0 (the step starts at <see cref="Protocols.BaselineMs"/>; for plots).</summary>
+    /// <summary>
+    /// The train's membrane potential every <see cref="TrainSampleMs"/> from time 0 (the step starts at
+    /// <see cref="Protocols.BaselineMs"/>; for plots).
+    /// </summary>
     public IReadOnlyList<double> TrainVoltageMv { get; init; } = [];
     public double TrainSampleMs { get; init; }
     public IReadOnlyList<string> Notes { get; init; } = [];

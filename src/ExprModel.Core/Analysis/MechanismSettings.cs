@@ -32,7 +32,8 @@ public sealed record MechanismSettings
         if (!(StepRheobaseMultiple > 1 && StepRheobaseMultiple <= 20)) return $"stepRheobaseMultiple must lie in (1, 20] (got {StepRheobaseMultiple})";
         if (!(ProbePulseMs > 0 && ProbePulseMs <= 20)) return $"probePulseMs must lie in (0, 20] (got {ProbePulseMs})";
         if (!(ProbeDelayMs >= 2 && ProbeDelayMs <= 2000)) return $"probeDelayMs must lie in [2, 2000] (got {ProbeDelayMs})";
-        if (!(ProbeRelativeTolerance > 0 && ProbeRelativeTolerance <= 0.1)) return $"probeRelativeTolerance must lie in (0, 0.1] (got {ProbeRelativeTolerance})";
+        if (!(ProbeRelativeTolerance > 0 && ProbeRelativeTolerance <= 0.1))
+            return $"probeRelativeTolerance must lie in (0, 0.1] (got {ProbeRelativeTolerance})";
         return null;
     }
 }

@@ -60,7 +60,8 @@ public static class MethodsText
         var e = c.Entry;
         string rel = Math.Abs(c.RelativeDensity - 1) > 1e-12 ? Invariant($" x {N(c.RelativeDensity)} relative") : "";
         string extra = (c.ShiftMv != 0 ? Invariant($", shifted {N(c.ShiftMv)} mV") : "") + (c.TauScale != 1 ? Invariant($", tau x {N(c.TauScale)}") : "");
-        return Invariant($"{e.Name} ({e.Family}, {e.Source.Authors.Split(',')[0]}{(e.Source.Authors.Contains(',') ? " et al." : "")} {e.Source.Year} [{key}]) ") +
+        string firstAuthor = e.Source.Authors.Split(',')[0] + (e.Source.Authors.Contains(',') ? " et al." : "");
+        return Invariant($"{e.Name} ({e.Family}, {firstAuthor} {e.Source.Year} [{key}]) ") +
             Invariant($"at {N(c.DensityMsPerCm2)} mS/cm2{rel}, E = {N(model.ReversalPotentialMv(c))} mV, kinetics at {N(e.ReferenceTemperatureC)} °C ") +
             Invariant($"with Q10 = {N(e.Q10)} (rate factor {N(e.TemperatureFactor(model.TemperatureC))}){extra}");
     }

@@ -25,8 +25,14 @@ public sealed class ChannelCatalog
     public string DatabasePath { get; }
 
     /// <summary>How a methods paragraph names this catalog: its schema version and the first 12 hex digits of its sources' hash.</summary>
-    public string VersionLabel =>
-        $"schema {Meta.GetValueOrDefault("schema_version", "?")}, sources {Meta.GetValueOrDefault("source_hash", "?")[..Math.Min(12, Meta.GetValueOrDefault("source_hash", "?").Length)]}";
+    public string VersionLabel
+    {
+        get
+        {
+            string hash = Meta.GetValueOrDefault("source_hash", "?");
+            return $"schema {Meta.GetValueOrDefault("schema_version", "?")}, sources {hash[..Math.Min(12, hash.Length)]}";
+        }
+    }
 
     private ChannelCatalog(string path, List<ChannelEntry> entries, List<GeneLink> links, List<GeneStatus> statuses,
         List<GeneIdentifier> ids, Dictionary<string, ModelDocument> presets, Dictionary<string, string> meta)

@@ -41,7 +41,8 @@ public sealed class BibTexTests
         var baseModel = TestCatalog.Catalog.BuildCell(TestCatalog.Catalog.Preset("cortex-rs2008"));
         var first = baseModel.Channels[0];
         string title = "Na_v & K_v: 50% of #1 {braced} ~tilde^ back\\slash $x$";
-        var a = first with { Entry = first.Entry with { Id = "x-a", Source = first.Entry.Source with { Authors = "Butera RJ Jr, Rinzel J", Year = 1999, Title = title } } };
+        var source = first.Entry.Source with { Authors = "Butera RJ Jr, Rinzel J", Year = 1999, Title = title };
+        var a = first with { Entry = first.Entry with { Id = "x-a", Source = source } };
         var b = first with { Entry = first.Entry with { Id = "x-b", Source = a.Entry.Source with { Title = "Another paper" } } };
         var model = baseModel with { Channels = [a, b] };
         var (entries, keys) = BibTex.For(model, "", Versions);
