@@ -58,6 +58,7 @@ app.MapBuildApi();
 app.MapWhatIfApi();
 app.MapCompareApi();
 app.MapPaperApi();
+app.MapPatchApi();
 app.MapStaticAssets();
 app.MapRazorComponents<App>().AddInteractiveServerRenderMode();
 

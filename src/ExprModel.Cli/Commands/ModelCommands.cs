@@ -86,7 +86,11 @@ public static class ModelCommands
         var wave = new Option<string?>("--waveform") { Description = "CSV with columns time_ms and current (in --units) for --protocol waveform." };
         var every = new Option<int>("--record-every") { Description = "Keep every Nth step in the output.", DefaultValueFactory = _ => 4 };
         var currents = new Option<bool>("--currents") { Description = "Add each channel's current (uA/cm2)." };
-        foreach (var o in new Option[] { protocol, amp, from, delay, duration, total, count, width, freq, sd, tau, seed, wave, every, currents })
+        var channelNoise = new Option<bool>("--channel-noise")
+        {
+            Description = "Stochastic channels: counts from density x area / the catalog's unitary conductance, seeded by --seed.",
+        };
+        foreach (var o in new Option[] { protocol, amp, from, delay, duration, total, count, width, freq, sd, tau, seed, wave, every, currents, channelNoise })
             c.Options.Add(o);
         c.SetAction(p =>
         {
@@ -105,6 +109,21 @@ public static class ModelCommands
             };
             double t = p.GetValue(total) ?? dl + du + 100;
             bool withCurrents = p.GetValue(currents);
+            if (p.GetValue(channelNoise))
+            {
+                if (withCurrents) throw new CliException("--currents is not available with --channel-noise.");
+                var noise = new ExprModel.Core.Stochastic.ChannelNoiseSettings
+                {
+                    UnitaryConductancesPs = ExprModel.Core.Stochastic.ChannelNoise.UnitaryConductances(cell.Model,
+                        e => ctx.Catalog.UnitaryConductances.For(e).ConductancePs),
+                    Seed = p.GetValue(seed),
+                    DtMs = p.GetValue(common.Dt),
+                    RecordEvery = Math.Max(1, p.GetValue(every)),
+                };
+                var noisy = ExprModel.Core.Stochastic.ChannelNoise.Run(cell, stim, t, noise);
+                ctx.Emit(NoisyTraceCsv.Write(doc.Name, cell.Model, noisy, noise), p.GetValue(common.Out));
+                return 0;
+            }
             var trace = Simulator.Run(cell, stim, t,
                 new SimulationSettings { DtMs = p.GetValue(common.Dt), RecordEvery = Math.Max(1, p.GetValue(every)), RecordCurrents = withCurrents });
             ctx.Emit(TraceCsv.Write(doc.Name, trace, unit, g), p.GetValue(common.Out));
@@ -116,26 +135,14 @@ public static class ModelCommands
     private static WaveformCurrent ReadWaveform(string path, CurrentUnit unit, Geometry g)
     {
         if (!File.Exists(path)) throw new CliException($"{path}: no such waveform file.");
-        var times = new List<double>();
-        var values = new List<double>();
-        int line = 0;
-        foreach (var raw in File.ReadLines(path))
+        try
         {
-            line++;
-            if (raw.Length == 0 || raw.StartsWith('#')) continue;
-            var cols = raw.Split(',');
-            if (line == 1 && !double.TryParse(cols[0], NumberStyles.Float, CultureInfo.InvariantCulture, out _)) continue; // header
-            if (cols.Length < 2) throw new CliException($"{path}: line {line}: expected two columns (time_ms, current).");
-            if (!double.TryParse(cols[0], NumberStyles.Float, CultureInfo.InvariantCulture, out var t) || !double.IsFinite(t))
-                throw new CliException($"{path}: line {line}, column 1: '{cols[0]}' is not a time in ms.");
-            if (!double.TryParse(cols[1], NumberStyles.Float, CultureInfo.InvariantCulture, out var v) || !double.IsFinite(v))
-                throw new CliException($"{path}: line {line}, column 2: '{cols[1]}' is not a current.");
-            if (times.Count > 0 && t <= times[^1]) throw new CliException($"{path}: line {line}, column 1: times must increase.");
-            times.Add(t);
-            values.Add(CurrentUnits.ToDensity(v, unit, g));
+            return WaveformReader.Read(File.ReadAllText(path), path, v => CurrentUnits.ToDensity(v, unit, g));
         }
-        if (times.Count < 2) throw new CliException($"{path}: needs at least two samples.");
-        return new WaveformCurrent(times, values);
+        catch (WaveformFormatException e)
+        {
+            throw new CliException(e.Message);
+        }
     }
 
     private static Command Fi(CliContext ctx)
@@ -215,25 +222,8 @@ public static class ModelCommands
             for (double v = a; v <= b + 1e-9; v += s) commands.Add(Math.Round(v, 9));
             if (commands.Count > 1000) throw new CliException("Too many commands (over 1000).");
             var family = VoltageClamp.StepFamily(cell, p.GetValue(holding), commands, 50, p.GetValue(length), p.GetValue(common.Dt));
-            var ids = family[0].PeakUaPerCm2.Keys.ToArray();
-            var gmax = ids.ToDictionary(id => id, id => family.Max(f => f.PeakConductanceMsPerCm2[id]));
             var g = cell.Model.Geometry;
-            string suffix = CurrentUnits.Suffix(unit);
-            var header = new List<string> { "command_mv" };
-            foreach (var id in ids) header.AddRange([$"peak_{id}_{suffix}", $"steady_{id}_{suffix}", $"activation_{id}"]);
-            var csv = CsvTable.ForModel(doc.Name, header);
-            foreach (var f in family)
-            {
-                var row = new List<object?> { f.CommandMv };
-                foreach (var id in ids)
-                {
-                    row.Add(CurrentUnits.FromDensity(f.PeakUaPerCm2[id], unit, g));
-                    row.Add(CurrentUnits.FromDensity(f.SteadyUaPerCm2[id], unit, g));
-                    row.Add(gmax[id] > 0 ? f.PeakConductanceMsPerCm2[id] / gmax[id] : null);
-                }
-                csv.Row([.. row]);
-            }
-            ctx.Emit(csv.ToString(), p.GetValue(common.Out));
+            ctx.Emit(ClampCsv.Write(doc.Name, ClampCurves.From(family), unit, g), p.GetValue(common.Out));
             return 0;
         });
         return c;

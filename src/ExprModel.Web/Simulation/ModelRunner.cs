@@ -2,6 +2,7 @@ using ExprModel.Core.Analysis;
 using ExprModel.Core.Mapping;
 using ExprModel.Core.Models;
 using ExprModel.Core.Simulation;
+using ExprModel.Core.Stochastic;
 using ExprModel.Data.Catalog;
 
 namespace ExprModel.Web.Simulation;
@@ -64,7 +65,35 @@ public sealed class ModelRunner(ChannelCatalog catalog, SimulationGate gate)
     {
         if (step.Problem() is { } p) throw new UserInputException(p);
         var cell = Compile(doc);
-        return gate.RunAsync(token => Step(cell, step, token), cancel);
+        return gate.RunAsync(token => step.ChannelNoise ? NoisyStep(cell, step, token) : Step(cell, step, token), cancel);
+    }
+
+    /// <summary>The step with stochastic channels: counts from density x area / the catalog's unitary conductance.</summary>
+    public StepView NoisyStep(CompiledCell cell, StepProtocol step, CancellationToken cancel)
+    {
+        var stimulus = new StepCurrent(step.DelayMs, step.StepMs, step.AmplitudeUaPerCm2);
+        var settings = new ChannelNoiseSettings
+        {
+            UnitaryConductancesPs = ChannelNoise.UnitaryConductances(cell.Model, e => catalog.UnitaryConductances.For(e).ConductancePs),
+            Seed = step.NoiseSeed,
+            RecordEvery = 1,
+        };
+        try
+        {
+            return StepView.FromNoisy(ChannelNoise.Run(cell, stimulus, step.TotalMs, settings, cancel), step, stimulus);
+        }
+        catch (SimulationBlowUpException e)
+        {
+            throw new UserInputException(e.Message);
+        }
+    }
+
+
+    /// <summary>A stochastic patch simulation (<see cref="PatchClamp"/>) in one simulation slot.</summary>
+    public Task<PatchResult> PatchAsync(PatchSettings settings, CancellationToken cancel)
+    {
+        if (settings.Problem() is { } p) throw new UserInputException(p);
+        return gate.RunAsync(token => PatchClamp.Run(settings, token), cancel);
     }
 
     public Task<IReadOnlyList<FiRow>> FiAsync(ModelDocument doc, FiProtocol fi, CancellationToken cancel)
