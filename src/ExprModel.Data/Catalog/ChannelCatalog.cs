@@ -27,6 +27,16 @@ public sealed class ChannelCatalog
     /// <summary>Unitary conductance of each entry (its own cited value or its family's labelled default).</summary>
     public UnitaryConductances UnitaryConductances { get; }
 
+    /// <summary>How a methods paragraph names this catalog: its schema version and the first 12 hex digits of its sources' hash.</summary>
+    public string VersionLabel
+    {
+        get
+        {
+            string hash = Meta.GetValueOrDefault("source_hash", "?");
+            return $"schema {Meta.GetValueOrDefault("schema_version", "?")}, sources {hash[..Math.Min(12, hash.Length)]}";
+        }
+    }
+
     private ChannelCatalog(string path, List<ChannelEntry> entries, List<GeneLink> links, List<GeneStatus> statuses,
         List<GeneIdentifier> ids, Dictionary<string, ModelDocument> presets, Dictionary<string, string> meta, UnitaryConductances unitary)
     {

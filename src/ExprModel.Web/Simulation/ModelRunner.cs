@@ -192,6 +192,40 @@ public sealed class ModelRunner(ChannelCatalog catalog, SimulationGate gate)
     /// <summary>Kinetics compiled so far: a relative-density move adds none (test hook).</summary>
     internal int KineticsBuilt => _kinetics.KineticsBuilt;
 
+    /// <summary>
+    /// The adaptation-mechanism protocol (<see cref="AdaptationMechanisms"/>) on a step of <paramref name="stepUaPerCm2"/> (null: twice
+    /// the rheobase), with the cell's geometry for absolute units.
+    /// </summary>
+    public Task<(MechanismReport Report, ExprModel.Core.Cell.Geometry Geometry)> MechanismsAsync(ModelDocument doc, double? stepUaPerCm2,
+        double? probeDelayMs, CancellationToken cancel)
+    {
+        var settings = MechanismSettings.Default with { ProbeDelayMs = probeDelayMs ?? MechanismSettings.Default.ProbeDelayMs };
+        if (settings.Problem() is { } p) throw new UserInputException(p);
+        if (stepUaPerCm2 is { } a && !(a > 0 && a <= 1000)) throw new UserInputException($"amplitudeUaPerCm2 must lie in (0, 1000] (got {a}).");
+        var cell = Compile(doc);
+        return gate.RunAsync(token =>
+        {
+            try
+            {
+                return (AdaptationMechanisms.Measure(cell, stepUaPerCm2, settings, token), cell.Model.Geometry);
+            }
+            catch (Exception e) when (e is ArgumentException or SimulationBlowUpException)
+            {
+                throw new UserInputException(e.Message);
+            }
+        }, cancel);
+    }
+
+    /// <summary>The methods paragraph (with the live read-out settings the pages use) and the BibTeX file of a model.</summary>
+    public (string Paragraph, string BibTex) Methods(ModelDocument doc)
+    {
+        var model = Compile(doc).Model;
+        var versions = ExprModel.Core.Export.MethodsVersions.Current(catalog.VersionLabel);
+        var (entries, _) = ExprModel.Core.Export.BibTex.For(model, doc.Citation, versions);
+        return (ExprModel.Core.Export.MethodsText.Write(doc, model, versions, ReadoutSettings.Live),
+            ExprModel.Core.Export.BibTex.Write(entries, ResearchCaution.Text));
+    }
+
     /// <summary>The trace of one step with channel currents, shaped for the plots.</summary>
     public static StepView Step(CompiledCell cell, StepProtocol step, CancellationToken cancel)
     {

@@ -77,4 +77,21 @@ public sealed class CatalogApiTests(AppFactory factory) : ApiTestBase(factory)
             { "/api/catalog", "/api/catalog/{id}", "/api/models", "/api/models/{id}", "/api/simulate", "/api/fi", "/api/readouts", "/api/build" })
             Assert.Contains($"\"{path}\"", doc);
     }
+
+    [Fact]
+    public async Task An_entry_shows_both_gate_forms_and_its_parameter_counts()
+    {
+        // Hodgkin & Huxley 1952: n is written as rates; x_inf = alpha/(alpha + beta) and tau = 1/(alpha + beta) at every voltage listed.
+        var body = await Json(await Client.GetAsync("/api/catalog/squid-k-hh1952?temperatureC=6.3"));
+        var n = body.GetProperty("gateForms")[0];
+        Assert.Equal("rates", n.GetProperty("writtenAs").GetString());
+        Assert.Equal(6, n.GetProperty("parameterCount").GetInt32());
+        Assert.Equal(6, body.GetProperty("parameterCount").GetInt32());
+        foreach (var p in n.GetProperty("points").EnumerateArray())
+        {
+            double a = p.GetProperty("alphaPerMs").GetDouble(), b = p.GetProperty("betaPerMs").GetDouble();
+            Assert.Equal(a / (a + b), p.GetProperty("steadyState").GetDouble(), 12);
+            Assert.Equal(1 / (a + b), p.GetProperty("timeConstantMs").GetDouble(), 9);
+        }
+    }
 }
