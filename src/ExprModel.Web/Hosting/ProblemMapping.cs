@@ -14,7 +14,8 @@ public sealed class ProblemMapping(IProblemDetailsService problems) : IException
         var (status, title, detail) = exception switch
         {
             UserInputException e => (400, "The request cannot be used", e.Message),
-            UploadTooLargeException e => (413, "Upload too large", e.Message),
+            UploadTooLargeException e => (413, "Request too large", e.Message),
+            ServerBusyException e => (503, "Server busy", e.Message),
             SimulationTimeoutException e => (503, "Simulation time limit reached", e.Message),
             BadHttpRequestException { InnerException: JsonException j } => (400, "The request body is not valid JSON for this endpoint",
                 JsonErrorMessage.For(j)),
@@ -24,6 +25,7 @@ public sealed class ProblemMapping(IProblemDetailsService problems) : IException
         };
         if (status == 0) return false;
         http.Response.StatusCode = status;
+        if (exception is ServerBusyException busy) http.Response.Headers.RetryAfter = busy.RetryAfterSeconds.ToString(System.Globalization.CultureInfo.InvariantCulture);
         return await problems.TryWriteAsync(new ProblemDetailsContext
         {
             HttpContext = http,
