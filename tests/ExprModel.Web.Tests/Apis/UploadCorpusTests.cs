@@ -30,8 +30,6 @@ public sealed class UploadCorpusTests(UploadCorpusTests.Factory factory) : ApiTe
         ["PublicBaseUrl"] = "https://models.example.org/lab/",
     });
 
-    private readonly Factory _factory = factory;
-
     private static byte[] Gzip(byte[] bytes)
     {
         using var buffer = new MemoryStream();
@@ -140,14 +138,19 @@ public sealed class UploadCorpusTests(UploadCorpusTests.Factory factory) : ApiTe
     [Fact]
     public async Task A_full_build_queue_answers_503_with_retry_after_at_once()
     {
-        // The first build takes the only slot (this factory allows one and queues none) and holds it while its body trickles in.
+        // On Kestrel (the in-memory test server starts the app only once the whole body has arrived): the first build takes
+        // the only slot (one runs, none wait) and holds it while its body trickles in.
+        using var server = new ConfiguredAppFactory(new Dictionary<string, string> { ["MaxConcurrentBuilds"] = "1", ["MaxQueuedBuilds"] = "0" },
+            kestrel: true);
+        server.StartServer();
+        using var client = new HttpClient { BaseAddress = server.Address };
         var slow = new TrickleStream();
-        var first = Client.PostAsync("/api/build", new StreamContent(slow) { Headers = { ContentType = new("application/json") } });
+        var first = client.PostAsync("/api/build", new StreamContent(slow) { Headers = { ContentType = new("application/json") } });
         await slow.Started.Task.WaitAsync(TimeSpan.FromSeconds(30));
-        var queue = _factory.Services.GetRequiredService<BuildQueue>();
+        var queue = server.Services.GetRequiredService<BuildQueue>();
         for (int i = 0; i < 300 && queue.Admitted == 0; i++) await Task.Delay(100);
         Assert.Equal(1, queue.Admitted);
-        using var second = await Client.PostAsJsonAsync("/api/build", new { expression = "gene,c1\nScn1a,1\n", cell = "c1" });
+        using var second = await client.PostAsJsonAsync("/api/build", new { expression = "gene,c1\nScn1a,1\n", cell = "c1" });
         Assert.Equal(HttpStatusCode.ServiceUnavailable, second.StatusCode);
         Assert.True(second.Headers.RetryAfter?.Delta >= TimeSpan.FromSeconds(1));
         await AssertProblem(second, 503, "MaxConcurrentBuilds");
