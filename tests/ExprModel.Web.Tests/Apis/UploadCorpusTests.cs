@@ -96,9 +96,9 @@ public sealed class UploadCorpusTests(UploadCorpusTests.Factory factory) : ApiTe
         ["model request over its body limit"] = (() => Post("/api/readouts", Model(m => m["notes"] = new JsonArray([.. Enumerable.Range(0, 200)
             .Select(_ => (JsonNode)new string('n', 900))]))), 413, ["64 KB", "MaxModelRequestKilobytes"]),
         ["chunked model request over its body limit"] = (() => Post("/api/simulate", new StreamContent(new EndlessJson())
-            {
-                Headers = { ContentType = new("application/json") },
-            }), 413, ["64 KB", "MaxModelRequestKilobytes"]),
+        {
+            Headers = { ContentType = new("application/json") },
+        }), 413, ["64 KB", "MaxModelRequestKilobytes"]),
         ["huge notes in a share"] = (() => Post("/api/models", Model(m => { }, ("notes", new string('n', 5000)))), 400, ["notes: 5,000 characters"]),
         ["share over the snapshot limit"] = (() => Post("/api/models", Model(m => { }, ("expression", new string('1', 1_500_000)))),
             413, ["1 MB", "MaxSnapshotMegabytes"]),
