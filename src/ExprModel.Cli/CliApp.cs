@@ -20,6 +20,8 @@ public static class CliApp
         foreach (var c in WhatIfCommands.Create(ctx)) root.Subcommands.Add(c);
         root.Subcommands.Add(CompareCommand.Create(ctx));
         root.Subcommands.Add(RecordingCommands.Create(ctx));
+        root.Subcommands.Add(PatchCommand.Create(ctx));
+        root.Subcommands.Add(NoiseCommand.Create(ctx));
         var parse = root.Parse(args);
         if (parse.Errors.Count > 0)
         {
