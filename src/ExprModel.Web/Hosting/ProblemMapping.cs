@@ -25,7 +25,8 @@ public sealed class ProblemMapping(IProblemDetailsService problems) : IException
         };
         if (status == 0) return false;
         http.Response.StatusCode = status;
-        if (exception is ServerBusyException busy) http.Response.Headers.RetryAfter = busy.RetryAfterSeconds.ToString(System.Globalization.CultureInfo.InvariantCulture);
+        if (exception is ServerBusyException busy)
+            http.Response.Headers.RetryAfter = busy.RetryAfterSeconds.ToString(System.Globalization.CultureInfo.InvariantCulture);
         return await problems.TryWriteAsync(new ProblemDetailsContext
         {
             HttpContext = http,

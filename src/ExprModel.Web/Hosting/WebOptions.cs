@@ -60,7 +60,8 @@ public sealed class WebOptions
         if (MaxConcurrentBuilds < 1) return $"{Section}:MaxConcurrentBuilds: must be at least 1 (got {MaxConcurrentBuilds}).";
         if (MaxQueuedBuilds < 0) return $"{Section}:MaxQueuedBuilds: must be 0 or more (got {MaxQueuedBuilds}).";
         if (MaxModelRequestKilobytes < 1 || MaxSnapshotMegabytes < 1 || MaxTextFieldChars < 1 || MaxDecompressedMegabytes < 1 || MaxTableLines < 1)
-            return $"{Section}: MaxModelRequestKilobytes, MaxSnapshotMegabytes, MaxTextFieldChars, MaxDecompressedMegabytes and MaxTableLines must be positive.";
+            return $"{Section}: MaxModelRequestKilobytes, MaxSnapshotMegabytes, MaxTextFieldChars, MaxDecompressedMegabytes and MaxTableLines "
+                + "must be positive.";
         if (RateLimitPerMinute < 0 || RateLimitBurst < 1) return $"{Section}:RateLimitPerMinute must be 0 or more and RateLimitBurst at least 1.";
         return null;
     }

@@ -6,7 +6,8 @@ using ExprModel.Web.Simulation;
 namespace ExprModel.Web.Workspace;
 
 /// <summary>Saves and opens shared snapshots: pins the model, takes its read-outs, and writes it in one transaction.</summary>
-/// <param name="maxSnapshotBytes">Largest stored snapshot (model, protocol, read-outs, notes, expression table), <see cref="Hosting.WebOptions.MaxSnapshotMegabytes"/>.</param>
+/// <param name="maxSnapshotBytes">Largest stored snapshot (model, protocol, read-outs, notes, expression table),
+/// <see cref="Hosting.WebOptions.MaxSnapshotMegabytes"/>.</param>
 public sealed class SnapshotService(SnapshotStore store, ModelRunner runner, long maxSnapshotBytes = long.MaxValue)
 {
     public static readonly JsonSerializerOptions Json = new(JsonSerializerDefaults.Web)

@@ -83,7 +83,8 @@ public sealed class ServerLoadTests(ITestOutputHelper output)
         client.Dispose(); // the client's 50 connections and their buffers are not the server's
         long after = ManagedHeapAfterFullCollection();
         foreach (var ((op, status), n) in statuses.OrderBy(s => s.Key)) output.WriteLine($"{op} {status}: {n}");
-        output.WriteLine($"load {clock.Elapsed.TotalSeconds:0.0} s; managed heap {before >> 20} MB before, {after >> 20} MB after ({(double)after / before:0.00}x)");
+        output.WriteLine($"load {clock.Elapsed.TotalSeconds:0.0} s; managed heap {before >> 20} MB before, {after >> 20} MB after "
+            + $"({(double)after / before:0.00}x)");
         Assert.True(errors.IsEmpty, string.Join("\n", errors.Take(20)));
         foreach (var op in Operations)
             Assert.True(statuses.Any(s => s.Key.Op == op && s.Key.Status is 200 or 201), $"no {op} succeeded under load");
