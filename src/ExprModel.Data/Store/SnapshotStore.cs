@@ -70,7 +70,8 @@ public sealed class SnapshotStore
         {
             Directory.CreateDirectory(Path.GetDirectoryName(full)!);
             if (File.Exists(full) && !OperatingSystem.IsWindows() && (File.GetUnixFileMode(full) & UnixFileMode.UserWrite) == 0)
-                throw new SnapshotStoreException($"{full}: the snapshot database is read-only (file mode without write permission); shares could not be saved.");
+                throw new SnapshotStoreException(
+                    $"{full}: the snapshot database is read-only (file mode without write permission); shares could not be saved.");
             using var conn = store.Connect();
             QuickCheck(conn, full);
             using var tx = conn.BeginTransaction();
