@@ -42,7 +42,8 @@ public sealed class CatalogPageTests(AppFixture app)
         await page.Locator("[data-testid=catalog-entries] li a").First.ClickAsync();
         await page.WaitForSelectorAsync("[data-testid=entry-name]");
         Assert.Contains("KCNC1", await page.Locator("[data-testid=entry-genes]").InnerTextAsync(), StringComparison.OrdinalIgnoreCase);
-        Assert.Matches("checked against the paper|recalled, not checked", await page.Locator("[data-testid=verification]").InnerTextAsync());
+        Assert.Matches("parameters checked|parameters recalled", await page.Locator("[data-testid=verification]").InnerTextAsync());
+        Assert.Matches("citation (confirmed|unchecked|: no abstract page found)", await page.Locator("[data-testid=citation-check]").InnerTextAsync());
         await page.WaitForSelectorAsync("[data-testid=plot-tau] .main-svg .scatterlayer .trace");
         await page.Locator("[data-testid=curve-temperature]").FillAsync("20");
         await page.Locator("[data-testid=curve-temperature]").PressAsync("Enter");

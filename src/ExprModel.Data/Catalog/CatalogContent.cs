@@ -38,12 +38,16 @@ public sealed class CatalogContent
 
         var links = new List<GeneLink>();
         foreach (var (name, text) in sources.Under("genes").Where(f => f.Key == "genes/links.csv"))
-            foreach (var (line, cols) in Csv(text, name, ["species", "symbol", "entry", "weight", "role"]))
+            foreach (var (line, cols) in Csv(text, name, ["species", "symbol", "entry", "weight", "role", "reason"]))
             {
                 if (!ids.Contains(cols[2])) throw new CatalogException($"catalog/{name}: line {line}, column entry: unknown entry '{cols[2]}'.");
                 if (!double.TryParse(cols[3], NumberStyles.Float, CultureInfo.InvariantCulture, out var w) || !(w > 0))
                     throw new CatalogException($"catalog/{name}: line {line}, column weight: '{cols[3]}' is not a positive number.");
-                links.Add(new GeneLink(ParseSpecies(cols[0], name, line), cols[1], cols[2], w, cols[4]));
+                if (cols[4] is not ("pore" or GeneLink.ProxyRole))
+                    throw new CatalogException($"catalog/{name}: line {line}, column role: '{cols[4]}' is not pore or proxy.");
+                if (cols[4] == GeneLink.ProxyRole && cols[5].Length == 0)
+                    throw new CatalogException($"catalog/{name}: line {line}, column reason: a proxy link of {cols[1]} to {cols[2]} needs a reason.");
+                links.Add(new GeneLink(ParseSpecies(cols[0], name, line), cols[1], cols[2], w, cols[4], cols[5]));
             }
         var statuses = new List<GeneStatus>();
         foreach (var (name, text) in sources.Under("genes").Where(f => f.Key == "genes/status.csv"))

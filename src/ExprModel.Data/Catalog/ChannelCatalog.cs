@@ -143,7 +143,9 @@ public sealed class ChannelCatalog
         foreach (var r in Rows(conn, """
             SELECT e.entry_id, e.version, e.name, e.family, e.ion, e.reversal_rule, e.reversal_mv, e.temperature_c, e.q10,
                    e.density_typical, e.density_min, e.density_max, e.preparation, e.curator_note,
-                   s.authors, s.year, s.title, s.journal, s.volume, s.pages, s.doi, s.location, s.verification
+                   s.authors, s.year, s.title, s.journal, s.volume, s.pages, s.doi, s.location, s.verification,
+                   s.citation_check, s.citation_checked_at, s.citation_note, e.source_density_value, e.source_density_unit,
+                   e.source_density_capacitance_pf, e.source_density_area_um2, e.source_density_specific_capacitance, e.source_density_where
             FROM entries e JOIN sources s ON s.source_id = e.source_id ORDER BY e.entry_id, e.version
             """))
         {
@@ -175,13 +177,19 @@ public sealed class ChannelCatalog
                     Doi = r.GetString(20),
                     Location = r.GetString(21),
                     Verification = ParseWord<Verification>(r.GetString(22)),
+                    CitationCheck = ParseWord<CitationCheck>(r.GetString(23)),
+                    CitationCheckedAt = r.GetString(24),
+                    CitationNote = r.GetString(25),
                 },
+                SourceDensity = r.IsDBNull(26) ? null : new SourceDensity(r.GetDouble(26), r.GetString(27), r.IsDBNull(28) ? null : r.GetDouble(28),
+                    r.IsDBNull(29) ? null : r.GetDouble(29), r.GetDouble(30), r.GetString(31)),
                 Gates = gates.TryGetValue(key, out var gl) ? gl : [],
                 PublishedValues = published.TryGetValue(key, out var pl) ? pl : [],
             });
         }
-        var links = Rows(conn, "SELECT species, symbol, entry_id, weight, role FROM gene_links ORDER BY species, symbol, entry_id")
-            .Select(r => new GeneLink(ParseWord<Species>(r.GetString(0)), r.GetString(1), r.GetString(2), r.GetDouble(3), r.GetString(4))).ToList();
+        var links = Rows(conn, "SELECT species, symbol, entry_id, weight, role, reason FROM gene_links ORDER BY species, symbol, entry_id")
+            .Select(r => new GeneLink(ParseWord<Species>(r.GetString(0)), r.GetString(1), r.GetString(2), r.GetDouble(3), r.GetString(4), r.GetString(5)))
+            .ToList();
         var statuses = Rows(conn, "SELECT species, symbol, status, reason FROM gene_status ORDER BY species, symbol")
             .Select(r => new GeneStatus(ParseWord<Species>(r.GetString(0)), r.GetString(1), r.GetString(2), r.GetString(3))).ToList();
         var ids = Rows(conn, "SELECT identifier, kind, symbol, species FROM gene_identifiers")

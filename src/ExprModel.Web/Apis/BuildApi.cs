@@ -70,7 +70,8 @@ public static class BuildApi
         var report = session.Map(body.Overrides ?? []);
         var built = session.Build(report, body.DensityRule(), body.Group is not null ? ModelTarget.ForGroup(body.Group) : ModelTarget.ForCell(body.Cell!));
         var doc = built.Document with { Caution = ResearchCaution.Text };
-        return new BuildResponse(ModelRequest.ToElement(doc), built.Densities, built.Warnings, report.Unmapped, report.Problems, ResearchCaution.Text);
+        return new BuildResponse(ModelRequest.ToElement(doc), built.Densities, built.Warnings, report.Unmapped, report.Problems, ResearchCaution.Text,
+            report.Proxies);
     }
 
     private static BuildUpload FromJson(byte[] bytes)

@@ -11,9 +11,25 @@ public static class CatalogViews
         catalog.GeneLinks.Where(l => l.EntryId == entryId).Select(l => l.Symbol)
             .Distinct(StringComparer.OrdinalIgnoreCase).Order(StringComparer.Ordinal).ToArray();
 
+    /// <summary>
+    /// The genes feeding an entry, one per symbol (case-folded over species, human spelling first): a proxy when every link of
+    /// the symbol to this entry is a proxy, with the link's reason.
+    /// </summary>
+    public static IReadOnlyList<CatalogGeneLink> GeneLinksOf(ChannelCatalog catalog, string entryId) =>
+        catalog.GeneLinks.Where(l => l.EntryId == entryId)
+            .GroupBy(l => l.Symbol.ToUpperInvariant(), StringComparer.Ordinal)
+            .Select(g =>
+            {
+                var first = g.OrderBy(l => l.Species).First();
+                bool proxy = g.All(l => l.IsProxy);
+                return new CatalogGeneLink(first.Symbol, proxy, proxy ? first.Reason : "");
+            })
+            .OrderBy(l => l.Symbol, StringComparer.Ordinal).ToArray();
+
     public static CatalogEntrySummary Summary(ChannelCatalog catalog, ChannelEntry e) => new(
         e.Id, e.Version, e.Name, e.Family, Word(e.Ion), GenesOf(catalog, e.Id), e.Source.Short, e.Source.Doi,
-        Word(e.Source.Verification), e.ReferenceTemperatureC, e.Q10, e.TypicalDensityMsPerCm2);
+        Word(e.Source.Verification), e.ReferenceTemperatureC, e.Q10, e.TypicalDensityMsPerCm2,
+        Word(e.Source.CitationCheck), e.Source.CitationCheckedAt, e.Source.CitationNote, GeneLinksOf(catalog, e.Id));
 
     /// <summary>
     /// Steady state and time constant of each gate from -120 to +60 mV at <paramref name="temperatureC"/>: the entry's own

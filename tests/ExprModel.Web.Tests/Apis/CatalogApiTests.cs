@@ -15,6 +15,24 @@ public sealed class CatalogApiTests(AppFactory factory) : ApiTestBase(factory)
     }
 
     [Fact]
+    public async Task Entries_say_which_genes_are_proxies_and_whether_the_citation_was_confirmed()
+    {
+        var body = await Json(await Client.GetAsync("/api/catalog"));
+        var kv2 = body.EnumerateArray().First(e => e.GetProperty("id").GetString() == "kv2-cortex-mainen1996");
+        var links = kv2.GetProperty("geneLinks").EnumerateArray().ToDictionary(l => l.GetProperty("symbol").GetString()!);
+        // Issue 17: EAG (KCNH1) feeds the Kv2 delayed rectifier as a proxy; KCNB1 (Kv2.1) is the entry's own family.
+        Assert.True(links["KCNH1"].GetProperty("proxy").GetBoolean());
+        Assert.Contains("stands in", links["KCNH1"].GetProperty("reason").GetString());
+        Assert.False(links["KCNB1"].GetProperty("proxy").GetBoolean());
+        Assert.All(body.EnumerateArray(), e =>
+            Assert.Contains(e.GetProperty("citationCheck").GetString(), new[] { "unchecked", "confirmed", "not-found" }));
+        var butera = await Json(await Client.GetAsync("/api/catalog/nap-prebotc-butera1999"));
+        Assert.Equal("confirmed", butera.GetProperty("entry").GetProperty("citationCheck").GetString());
+        Assert.StartsWith("http", butera.GetProperty("entry").GetProperty("citationCheckedAt").GetString());
+        Assert.Equal("recalled", butera.GetProperty("entry").GetProperty("verification").GetString());
+    }
+
+    [Fact]
     public async Task Filters_by_text_family_and_ion()
     {
         var sodium = await Json(await Client.GetAsync("/api/catalog?ion=sodium"));
