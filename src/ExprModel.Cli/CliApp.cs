@@ -22,6 +22,8 @@ public static class CliApp
         root.Subcommands.Add(CompareCommand.Create(ctx));
         root.Subcommands.Add(RecordingCommands.Create(ctx));
         root.Subcommands.Add(SnapshotCommands.Create(ctx));
+        root.Subcommands.Add(PatchCommand.Create(ctx));
+        root.Subcommands.Add(NoiseCommand.Create(ctx));
         var parse = root.Parse(args);
         if (parse.Errors.Count > 0)
         {

@@ -68,6 +68,8 @@ app.MapModelsApi();
 app.MapBuildApi();
 app.MapWhatIfApi();
 app.MapCompareApi();
+app.MapPaperApi();
+app.MapPatchApi();
 app.MapStaticAssets();
 app.MapRazorComponents<App>().AddInteractiveServerRenderMode();
 

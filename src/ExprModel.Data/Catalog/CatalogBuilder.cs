@@ -14,8 +14,8 @@ namespace ExprModel.Data.Catalog;
 /// </summary>
 public static class CatalogBuilder
 {
-    /// <summary>2: citation check (sources), the paper's stated conductance (entries), link reason (gene_links).</summary>
-    public const int SchemaVersion = 2;
+    /// <summary>2: citation check (sources), the paper's stated conductance (entries), link reason (gene_links). 3: unitary_conductances.</summary>
+    public const int SchemaVersion = 3;
 
     public const string Schema = """
         CREATE TABLE meta (key TEXT PRIMARY KEY, value TEXT NOT NULL);
@@ -57,6 +57,8 @@ public static class CatalogBuilder
             identifier TEXT NOT NULL, kind TEXT NOT NULL, symbol TEXT NOT NULL, species TEXT NOT NULL);
         CREATE INDEX gene_identifiers_by_id ON gene_identifiers(identifier);
         CREATE TABLE presets (preset_id TEXT PRIMARY KEY, name TEXT NOT NULL, citation TEXT NOT NULL, model_json TEXT NOT NULL);
+        CREATE TABLE unitary_conductances (
+            key TEXT PRIMARY KEY, conductance_ps REAL NOT NULL, family_default INTEGER NOT NULL, citation TEXT NOT NULL, note TEXT NOT NULL);
         """;
 
     /// <summary>Parses every source (failing with file and line on the first bad one) and writes the database.</summary>
@@ -78,6 +80,9 @@ public static class CatalogBuilder
                 WriteGenes(conn, tx, content);
                 foreach (var (id, doc) in content.Presets.OrderBy(p => p.Key, StringComparer.Ordinal))
                     Insert(conn, tx, "INSERT INTO presets VALUES ($a,$b,$c,$d)", id, doc.Name, doc.Citation, doc.ToJson());
+                foreach (var u in content.UnitaryConductances.Rows)
+                    Insert(conn, tx, "INSERT INTO unitary_conductances VALUES ($a,$b,$c,$d,$e)", u.Key, u.ConductancePs, u.IsFamilyDefault ? 1 : 0,
+                        u.Citation, u.Note);
                 tx.Commit();
             }
             File.Move(tmp, databasePath, overwrite: true);

@@ -2,6 +2,7 @@ using ExprModel.Core.Expression.Identifiers;
 using ExprModel.Core.Kinetics;
 using ExprModel.Core.Mapping;
 using ExprModel.Core.Models;
+using ExprModel.Core.Stochastic;
 using Microsoft.Data.Sqlite;
 
 namespace ExprModel.Data.Catalog;
@@ -23,10 +24,23 @@ public sealed class ChannelCatalog
     public IReadOnlyDictionary<string, ModelDocument> Presets { get; }
     public IReadOnlyDictionary<string, string> Meta { get; }
     public string DatabasePath { get; }
+    /// <summary>Unitary conductance of each entry (its own cited value or its family's labelled default).</summary>
+    public UnitaryConductances UnitaryConductances { get; }
+
+    /// <summary>How a methods paragraph names this catalog: its schema version and the first 12 hex digits of its sources' hash.</summary>
+    public string VersionLabel
+    {
+        get
+        {
+            string hash = Meta.GetValueOrDefault("source_hash", "?");
+            return $"schema {Meta.GetValueOrDefault("schema_version", "?")}, sources {hash[..Math.Min(12, hash.Length)]}";
+        }
+    }
 
     private ChannelCatalog(string path, List<ChannelEntry> entries, List<GeneLink> links, List<GeneStatus> statuses,
-        List<GeneIdentifier> ids, Dictionary<string, ModelDocument> presets, Dictionary<string, string> meta)
+        List<GeneIdentifier> ids, Dictionary<string, ModelDocument> presets, Dictionary<string, string> meta, UnitaryConductances unitary)
     {
+        UnitaryConductances = unitary;
         DatabasePath = path;
         AllVersions = entries;
         _byKey = entries.ToDictionary(e => e.Key, StringComparer.Ordinal);
@@ -196,7 +210,9 @@ public sealed class ChannelCatalog
             .Select(r => new GeneIdentifier(r.GetString(0), r.GetString(1), r.GetString(2), ParseWord<Species>(r.GetString(3)))).ToList();
         var presets = Rows(conn, "SELECT preset_id, model_json FROM presets")
             .ToDictionary(r => r.GetString(0), r => ModelDocument.Parse(r.GetString(1), "preset " + r.GetString(0)), StringComparer.Ordinal);
-        return new ChannelCatalog(databasePath, entries, links, statuses, ids, presets, meta);
+        var unitary = new UnitaryConductances(Rows(conn, "SELECT key, conductance_ps, family_default, citation, note FROM unitary_conductances ORDER BY key")
+            .Select(r => new UnitaryConductance(r.GetString(0), r.GetDouble(1), r.GetInt64(2) != 0, r.GetString(3), r.GetString(4))).ToList());
+        return new ChannelCatalog(databasePath, entries, links, statuses, ids, presets, meta, unitary);
     }
 
     private static T ParseWord<T>(string s) where T : struct, Enum => Enum.Parse<T>(s.Replace("-", ""), ignoreCase: true);

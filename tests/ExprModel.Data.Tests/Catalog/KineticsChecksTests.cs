@@ -161,7 +161,7 @@ public class KineticsChecksTests
     [Fact]
     public void Bk_gate_depends_on_voltage_and_calcium_as_moczydlowski_and_latorre_1983_describe()
     {
-        var bk = CatalogFiles.Content.Entries.Single(e => e.Id == "bk-moczydlowski1983").Gates.Single();
+        var bk = CatalogFiles.Content.Entries.Where(e => e.Id == "bk-moczydlowski1983").MaxBy(e => e.Version)!.Gates.Single();
         // Depolarisation and calcium both raise the open probability; calcium shifts activation to more negative voltages.
         Assert.True(bk.SteadyStateAt(40, 1e-3) > bk.SteadyStateAt(-40, 1e-3));
         Assert.True(bk.SteadyStateAt(0, 1e-2) > bk.SteadyStateAt(0, 1e-3));
