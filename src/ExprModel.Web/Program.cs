@@ -49,9 +49,20 @@ builder.Services.AddRazorComponents()
 
 var app = builder.Build();
 
-// Build the catalog database and create the snapshot database now, so the first page is fast and errors show at start.
-var catalog = app.Services.GetRequiredService<ChannelCatalog>();
-var store = app.Services.GetRequiredService<SnapshotStore>();
+// Build the catalog database and open the snapshot database now, so the first page is fast and errors show at start:
+// a snapshot database that is junk, damaged, read-only or unwritable refuses to start (exit 1) naming the file and the reason.
+ChannelCatalog catalog;
+SnapshotStore store;
+try
+{
+    catalog = app.Services.GetRequiredService<ChannelCatalog>();
+    store = app.Services.GetRequiredService<SnapshotStore>();
+}
+catch (Exception e) when (e is SnapshotStoreException or CatalogException)
+{
+    Console.Error.WriteLine($"ExprModel cannot start: {e.Message}");
+    return 1;
+}
 
 app.UseExceptionHandler();
 app.UseStatusCodePages();
@@ -80,6 +91,7 @@ app.Lifetime.ApplicationStarted.Register(() =>
 });
 
 app.Run();
+return 0;
 
 /// <summary>Entry point, visible to the test host.</summary>
 public partial class Program;

@@ -1,5 +1,6 @@
 using System.Text.Json;
 using ExprModel.Core.Models;
+using ExprModel.Data.Store;
 using ExprModel.Web.Simulation;
 using Microsoft.AspNetCore.Diagnostics;
 using Microsoft.AspNetCore.Mvc;
@@ -17,6 +18,7 @@ public sealed class ProblemMapping(IProblemDetailsService problems) : IException
             UploadTooLargeException e => (413, "Request too large", e.Message),
             ServerBusyException e => (503, "Server busy", e.Message),
             SimulationTimeoutException e => (503, "Simulation time limit reached", e.Message),
+            SnapshotStoreException e => (503, "The shared-model store is unavailable", e.Message),
             BadHttpRequestException { InnerException: JsonException j } => (400, "The request body is not valid JSON for this endpoint",
                 JsonErrorMessage.For(j)),
             BadHttpRequestException e => (e.StatusCode, "Bad request", e.Message),
