@@ -40,12 +40,20 @@ public sealed record CellModel
     /// <summary>Resting shell sodium (mM): the shell's rest, or the cell's intracellular sodium.</summary>
     public double SodiumShellRestMm => SodiumShell?.RestMm ?? Ions.SodiumInsideMm;
 
+    /// <summary>The temperatures a model may be simulated at (C): the one range every door checks (model files, builds, the API).</summary>
+    public const double LowestTemperatureC = -5, HighestTemperatureC = 50;
+
+    /// <summary>A problem naming temperatureC when <paramref name="temperatureC"/> lies outside the simulated range, else null.</summary>
+    public static string? TemperatureProblem(double temperatureC) =>
+        temperatureC is >= LowestTemperatureC and <= HighestTemperatureC ? null
+            : $"temperatureC must lie between {LowestTemperatureC} and {HighestTemperatureC} (got {temperatureC})";
+
     /// <summary>Returns a problem naming the parameter, or null when the model can be simulated.</summary>
     public string? Problem()
     {
         if (!(Geometry.AreaUm2 > 0) || double.IsInfinity(Geometry.AreaUm2)) return "cell.areaUm2 must be positive";
         if (!(Geometry.CapacitanceUfPerCm2 > 0)) return "cell.capacitanceUfPerCm2 must be positive";
-        if (TemperatureC < -5 || TemperatureC > 50 || double.IsNaN(TemperatureC)) return $"temperatureC must lie between -5 and 50 (got {TemperatureC})";
+        if (TemperatureProblem(TemperatureC) is { } t) return t;
         if (Ions.Problem() is { } p) return "ions." + p;
         if (SodiumShell?.Problem() is { } sp) return sp;
         if (Channels.Count == 0) return "the model has no channels";

@@ -76,7 +76,20 @@ public sealed class ChannelCatalog
         Presets.TryGetValue(id, out var p) ? p
             : throw new CatalogException($"Unknown preset '{id}'. Presets: {string.Join(", ", Presets.Keys.Order(StringComparer.Ordinal))}.");
 
+    /// <summary>Loads the catalog database; an SQLite error is a <see cref="CatalogException"/> naming the file.</summary>
     public static ChannelCatalog Open(string databasePath)
+    {
+        try
+        {
+            return Load(databasePath);
+        }
+        catch (SqliteException e)
+        {
+            throw new CatalogException($"{databasePath}: the catalog database cannot be read: {e.Message}", e);
+        }
+    }
+
+    private static ChannelCatalog Load(string databasePath)
     {
         if (!File.Exists(databasePath)) throw new CatalogException($"{databasePath}: catalog database not found; run 'exprmodel catalog build'.");
         using var conn =
