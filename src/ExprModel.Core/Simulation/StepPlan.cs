@@ -26,7 +26,7 @@ internal sealed class StepPlan
     public readonly double[] ErevMv;
     public readonly bool[] CarriesCalcium;
     public readonly bool[] CarriesSodium;
-    /// <summary>Hill gates (calcium or sodium): |n|, n itself when it is a whole number 1 to 8 (powered by multiplication, else 0), the direction and K^|n|.</summary>
+    /// <summary>Hill gates (calcium or sodium): |n|, n when it is a whole number 1 to 8 (powered by multiplication, else 0), direction, K^|n|.</summary>
     public readonly double[] HillMagnitude;
     public readonly int[] HillWholePower;
     public readonly bool[] HillRises;
@@ -151,7 +151,8 @@ internal sealed class StepPlan
     /// <see cref="HillHalfPower"/>, <see cref="HillRises"/>), for hot loops that keep them broadcast in locals.
     /// </summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    public static T HillSteadyState<TMath, T>(T concentrationMm, int wholePower, T magnitude, T halfPower, bool rises) where TMath : ILaneMath<T> where T : struct
+    public static T HillSteadyState<TMath, T>(T concentrationMm, int wholePower, T magnitude, T halfPower, bool rises)
+        where TMath : ILaneMath<T> where T : struct
     {
         var c0 = TMath.Max(concentrationMm, TMath.Broadcast(0));
         T cn;

@@ -54,7 +54,8 @@ public class SodiumShellTests
         var entry = TestCatalog.Catalog.Resolve("kna-compte2003", null);
         var gate = entry.Gates[0] with { Sodium = new SodiumSensitivity(halfMm, hill, 0) };
         var model = FastSpikingWithKna(0.49);
-        model = model with { Channels = [.. model.Channels.SkipLast(1), new ChannelInstance { Entry = entry with { Gates = [gate] }, DensityMsPerCm2 = 0.49 }] };
+        var variant = new ChannelInstance { Entry = entry with { Gates = [gate] }, DensityMsPerCm2 = 0.49 };
+        model = model with { Channels = [.. model.Channels.SkipLast(1), variant] };
         var cell = new CompiledCell(model);
         int g = cell.GateCount - 1;
         foreach (double na in new[] { 1.0, 10, 15, 38.7, 60, 200 })
