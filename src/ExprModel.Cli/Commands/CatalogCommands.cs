@@ -59,10 +59,11 @@ public static class CatalogCommands
             var e = ctx.Catalog.Resolve(text, version);
             ctx.Out.Write(EntryFile.Write(e));
             ctx.Out.WriteLine();
-            var genes = ctx.Catalog.GeneLinks.Where(l => l.EntryId == e.Id).Select(l => $"{l.Symbol} ({Word(l.Species)}, weight {l.Weight:G3})").ToArray();
+            var genes = ctx.Catalog.GeneLinks.Where(l => l.EntryId == e.Id)
+                .Select(l => $"{l.Symbol} ({Word(l.Species)}, weight {l.Weight:G3}{(l.IsProxy ? ", proxy: " + l.Reason : "")})").ToArray();
             ctx.Out.WriteLine($"genes: {(genes.Length == 0 ? "(none linked)" : string.Join(", ", genes))}");
-            ctx.Out.WriteLine("status: numbers and citation " +
-                $"{(e.Source.Verification == Verification.Checked ? "checked against the paper" : "recalled, not yet checked against the paper")}");
+            ctx.Out.WriteLine("citation: " + CatalogReport.CitationStatus(e.Source));
+            ctx.Out.WriteLine("parameters: " + CatalogReport.ParameterStatus(e.Source));
             return 0;
         });
 
@@ -95,7 +96,8 @@ public static class CatalogCommands
             }
             foreach (var r in rows) ctx.Out.WriteLine($"{r.Symbol,-10} {Word(r.Species),-6} {r.Status,-13} {string.Join(" ", r.Entries)}");
             var v = GeneCoverage.VoltageGatedPoreCoverage(ctx.Catalog);
-            ctx.Out.WriteLine($"{rows.Count} rows; {v.Group} linked: {v.Linked} of {v.Total} ({v.Fraction:P0}); unlinked: {string.Join(", ", v.Unlinked)}");
+            ctx.Out.WriteLine($"{rows.Count} rows; {v.Group} linked to kinetics of their own family: {v.Linked} of {v.Total} ({v.Fraction:P0}); " +
+                $"unlinked: {string.Join(", ", v.Unlinked)}{(v.ProxyOnly.Count > 0 ? $" (through a proxy only: {string.Join(", ", v.ProxyOnly)})" : "")}");
             return 0;
         });
 

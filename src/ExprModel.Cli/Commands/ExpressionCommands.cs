@@ -135,12 +135,13 @@ public static class ExpressionCommands
         w.WriteLine($"mapped channel genes: {report.Genes.Count(g => !g.Excluded)} -> {report.EntryExpression().Count} entries");
         foreach (var g in report.Genes)
         {
-            w.WriteLine($"  {g.Symbol,-10} {string.Join(", ", g.Entries.Select(e => $"{e.EntryId} x{e.Weight:G3}")),-40} mean " +
+            w.WriteLine($"  {g.Symbol,-10} {string.Join(", ", g.Entries.Select(e => $"{e.EntryId} x{e.Weight:G3}{(e.IsProxy ? " (proxy)" : "")}")),-40} mean " +
                 $"{g.ExpressionByCell.Average():G4}{(g.How == "symbol" ? "" : " [" + g.How + "]")}{(g.Note is null ? "" : " (" + g.Note + ")")}");
             if (groups is not null)
                 w.WriteLine("             " + string.Join("; ", groups.Members.Select(m => CellGroups.Statistic(m.Key, m.Value, g.ExpressionByCell))
                     .Select(st => $"{st.Group} {st.Mean:G3}+-{st.StandardDeviation:G2} ({st.FractionExpressing:P0} >0)")));
         }
+        foreach (var pl in report.Proxies) w.WriteLine($"proxy: {pl.Symbol} -> {pl.EntryId}: {pl.Reason}");
         if (report.Unmapped.Count > 0)
             w.WriteLine($"channel genes not mapped: {string.Join("; ", report.Unmapped.Select(u => $"{u.Symbol} ({u.Status}: {u.Reason})"))}");
         if (report.EntriesWithoutExpressedGene.Count > 0)
@@ -273,7 +274,10 @@ public static class ExpressionCommands
                 if (missing.Length > 0) throw new CliException("Items missing from the shards: " +
                     $"{string.Join(", ", missing.Take(20))}{(missing.Length > 20 ? " ..." : "")} ({missing.Length} of {n}).");
             }
-            var text = string.Join("\n", comments.Append(header).Concat(rows.Values)) + "\n";
+            // Shards are files a user may have edited: every line goes back through the one neutralising writer.
+            var lines = comments.Select(c => CsvTable.Comment(c.TrimStart('#').TrimStart()))
+                .Append(CsvTable.Line(header)).Concat(rows.Values.Select(CsvTable.Line));
+            var text = string.Join("\n", lines) + "\n";
             ctx.Emit(text, p.GetValue(output));
             return 0;
         });

@@ -26,6 +26,8 @@ public sealed record ChannelEntry
     public string Preparation { get; init; } = "";
     public string CuratorNote { get; init; } = "";
     public IReadOnlyList<PublishedValue> PublishedValues { get; init; } = [];
+    /// <summary>The conductance as the source paper states it, when it states one; the typical density should follow it.</summary>
+    public SourceDensity? SourceDensity { get; init; }
 
     public string Key => $"{Id}@{Version}";
 
@@ -51,6 +53,12 @@ public sealed record ChannelEntry
         if (!(Q10 > 0)) return $"{Key}: q10 must be positive";
         if (!(MinDensityMsPerCm2 >= 0 && MinDensityMsPerCm2 <= TypicalDensityMsPerCm2 && TypicalDensityMsPerCm2 <= MaxDensityMsPerCm2))
             return $"{Key}: density must satisfy 0 <= min <= typical <= max";
+        if (SourceDensity?.Problem() is { } d) return $"{Key}: {d}";
+        if (Source.CitationCheck == CitationCheck.Confirmed
+            && !(Uri.TryCreate(Source.CitationCheckedAt, UriKind.Absolute, out var page) && page.Scheme is "http" or "https"))
+            return $"{Key}: source.citation 'confirmed' needs source.citationCheckedAt, the web address of the abstract page";
+        if (Source.CitationCheck == CitationCheck.NotFound && string.IsNullOrWhiteSpace(Source.CitationNote))
+            return $"{Key}: source.citation 'not-found' needs source.citationNote saying what was searched";
         foreach (var g in Gates)
             if (g.Problem() is { } p) return $"{Key}: {p}";
         return null;

@@ -33,7 +33,7 @@ public static class ExpressionMapping
         {
             var r = group.First();
             var links = catalog.Links.Where(l => l.Species == r.Species && l.Symbol == r.Symbol && catalog.Entry(l.EntryId) is not null)
-                .Select(l => new EntryWeight(l.EntryId, l.Weight)).ToList();
+                .Select(l => new EntryWeight(l.EntryId, l.Weight, l.IsProxy ? l.Reason : null)).ToList();
             var ov = overrides.FirstOrDefault(o => string.Equals(o.Gene, r.Symbol, StringComparison.OrdinalIgnoreCase)
                 || string.Equals(o.Gene, r.TableId, StringComparison.Ordinal));
             string? note = null;

@@ -16,6 +16,11 @@ public sealed class MappingReport
     public required IReadOnlyList<GeneOverride> Overrides { get; init; }
     public required int CellCount { get; init; }
 
+    /// <summary>The proxy links in use: genes of the table feeding another family's kinetics as a stand-in for their own (not excluded).</summary>
+    public IReadOnlyList<ProxyLink> Proxies =>
+        Genes.Where(g => !g.Excluded)
+            .SelectMany(g => g.Entries.Where(e => e.IsProxy).Select(e => new ProxyLink(g.Symbol, e.EntryId, e.ProxyReason!))).ToArray();
+
     /// <summary>Expression of each entry per cell: the weighted sum of its genes' normalised expression.</summary>
     public IReadOnlyDictionary<string, double[]> EntryExpression()
     {

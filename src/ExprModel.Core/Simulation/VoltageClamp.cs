@@ -11,29 +11,57 @@ public static class VoltageClamp
     {
         var result = new ClampStep[commandsMv.Count];
         Parallel.For(0, commandsMv.Count, new ParallelOptions { CancellationToken = cancel },
-            i => result[i] = Run(cell, holdingMv, commandsMv[i], holdMs, stepMs, dtMs));
+            i => result[i] = Run(cell, holdingMv, [(holdingMv, holdMs)], commandsMv[i], stepMs, dtMs));
         return result;
     }
 
-    private static ClampStep Run(CompiledCell cell, double holdingMv, double commandMv, double holdMs, double stepMs, double dtMs)
+    /// <summary>
+    /// A conditioning family (the steady-state inactivation protocol, common practice): from the holding potential each
+    /// sweep steps to one conditioning potential for <paramref name="conditioningMs"/>, then to the test potential for
+    /// <paramref name="testMs"/>; peak and steady currents and the peak conductance are measured in the test step. Each
+    /// result's <see cref="ClampStep.CommandMv"/> is its conditioning potential.
+    /// </summary>
+    public static IReadOnlyList<ClampStep> ConditionedFamily(CompiledCell cell, double holdingMv, IReadOnlyList<double> conditioningMv,
+        double conditioningMs, double testMv, double holdMs = 50, double testMs = 50, double dtMs = 0.025, CancellationToken cancel = default)
+    {
+        var result = new ClampStep[conditioningMv.Count];
+        Parallel.For(0, conditioningMv.Count, new ParallelOptions { CancellationToken = cancel },
+            i => result[i] = Run(cell, holdingMv, [(holdingMv, holdMs), (conditioningMv[i], conditioningMs)], testMv, testMs, dtMs) with
+            {
+                CommandMv = conditioningMv[i],
+            });
+        return result;
+    }
+
+    /// <summary>
+    /// Runs from the steady state at <paramref name="holdingMv"/> through <paramref name="before"/> (potential, ms; the
+    /// first segment's potential is the holding potential's, whatever is given) and then <paramref name="stepMs"/> at
+    /// <paramref name="commandMv"/>, measuring in that last step.
+    /// </summary>
+    private static ClampStep Run(CompiledCell cell, double holdingMv, (double Mv, double Ms)[] before, double commandMv, double stepMs, double dtMs)
     {
         var state = cell.SteadyState(holdingMv);
         var x = state.Gates;
-        double ca = state.CalciumMm;
-        int holdSteps = (int)Math.Round(holdMs / dtMs), steps = (int)Math.Round(stepMs / dtMs);
+        double ca = state.CalciumMm, na = state.SodiumMm;
+        var ends = new int[before.Length];
+        int holdSteps = 0;
+        for (int k = 0; k < before.Length; k++) ends[k] = holdSteps += (int)Math.Round(before[k].Ms / dtMs);
+        int steps = (int)Math.Round(stepMs / dtMs);
         int total = holdSteps + steps;
         var t = new double[total + 1];
         var currents = Enumerable.Range(0, cell.ChannelCount).Select(_ => new double[total + 1]).ToArray();
         var conductance = new double[cell.ChannelCount];
+        int segment = 0;
         for (int s = 0; s <= total; s++)
         {
-            double v = s <= holdSteps ? holdingMv : commandMv;
+            while (segment < ends.Length && s > ends[segment]) segment++;
+            double v = segment == ends.Length ? commandMv : segment == 0 ? holdingMv : before[segment].Mv;
             t[s] = s * dtMs;
             if (s > 0)
             {
                 for (int g = 0; g < cell.GateCount; g++)
                 {
-                    double inf = cell.GateSteadyState(g, v, ca);
+                    double inf = cell.GateSteadyState(g, v, ca, na);
                     if (cell.GateIsInstantaneous[g]) { x[g] = inf; continue; }
                     double tau = cell.GateTimeConstantMs(g, v, ca);
                     x[g] = inf + (x[g] - inf) * Math.Exp(-dtMs / tau);
@@ -43,6 +71,12 @@ public static class VoltageClamp
                     double ica = cell.CalciumCurrent(v, x, ca);
                     double caInf = cell.ShellRestMm - cell.ShellInflowPerCurrent * cell.ShellDecayMs * ica;
                     ca = Math.Max(0, caInf + (ca - caInf) * Math.Exp(-dtMs / cell.ShellDecayMs));
+                }
+                if (cell.HasSodiumShell)
+                {
+                    double ina = cell.SodiumCurrent(v, x, ca);
+                    double naInf = cell.SodiumShellRestMm - cell.SodiumInflowPerCurrent * cell.SodiumShellDecayMs * ina;
+                    na = Math.Max(0, naInf + (na - naInf) * Math.Exp(-dtMs / cell.SodiumShellDecayMs));
                 }
             }
             for (int c = 0; c < cell.ChannelCount; c++)

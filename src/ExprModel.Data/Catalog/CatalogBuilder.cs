@@ -14,24 +14,32 @@ namespace ExprModel.Data.Catalog;
 /// </summary>
 public static class CatalogBuilder
 {
-    public const int SchemaVersion = 1;
+    /// <summary>
+    /// 2: citation check (sources), the paper's stated conductance (entries), link reason (gene_links). 3: unitary_conductances.
+    /// 4: sodium-gated gates (na_half_mm, na_hill, na_tau_ms).
+    /// </summary>
+    public const int SchemaVersion = 4;
 
     public const string Schema = """
         CREATE TABLE meta (key TEXT PRIMARY KEY, value TEXT NOT NULL);
         CREATE TABLE sources (
             source_id INTEGER PRIMARY KEY, authors TEXT NOT NULL, year INTEGER NOT NULL, title TEXT NOT NULL,
             journal TEXT NOT NULL, volume TEXT NOT NULL, pages TEXT NOT NULL, doi TEXT NOT NULL,
-            location TEXT NOT NULL, verification TEXT NOT NULL CHECK (verification IN ('recalled', 'checked')));
+            location TEXT NOT NULL, verification TEXT NOT NULL CHECK (verification IN ('recalled', 'checked')),
+            citation_check TEXT NOT NULL CHECK (citation_check IN ('unchecked', 'confirmed', 'not-found')),
+            citation_checked_at TEXT NOT NULL, citation_note TEXT NOT NULL);
         CREATE TABLE entries (
             entry_id TEXT NOT NULL, version INTEGER NOT NULL, name TEXT NOT NULL, family TEXT NOT NULL, ion TEXT NOT NULL,
             reversal_rule TEXT NOT NULL, reversal_mv REAL, temperature_c REAL NOT NULL, q10 REAL NOT NULL,
             density_typical REAL NOT NULL, density_min REAL NOT NULL, density_max REAL NOT NULL,
             preparation TEXT NOT NULL, curator_note TEXT NOT NULL, source_id INTEGER NOT NULL REFERENCES sources(source_id),
-            source_file TEXT NOT NULL, PRIMARY KEY (entry_id, version));
+            source_file TEXT NOT NULL, source_density_value REAL, source_density_unit TEXT, source_density_capacitance_pf REAL,
+            source_density_area_um2 REAL, source_density_specific_capacitance REAL, source_density_where TEXT,
+            PRIMARY KEY (entry_id, version));
         CREATE TABLE gates (
             entry_id TEXT NOT NULL, version INTEGER NOT NULL, ordinal INTEGER NOT NULL, name TEXT NOT NULL,
             power INTEGER NOT NULL, kind TEXT NOT NULL, instantaneous INTEGER NOT NULL, rate_factor REAL NOT NULL,
-            ca_half_mm REAL, ca_hill REAL, ca_tau_ms REAL,
+            ca_half_mm REAL, ca_hill REAL, ca_tau_ms REAL, na_half_mm REAL, na_hill REAL, na_tau_ms REAL,
             PRIMARY KEY (entry_id, version, ordinal), FOREIGN KEY (entry_id, version) REFERENCES entries(entry_id, version));
         CREATE TABLE gate_rates (
             entry_id TEXT NOT NULL, version INTEGER NOT NULL, gate_ordinal INTEGER NOT NULL,
@@ -44,7 +52,7 @@ public static class CatalogBuilder
             value REAL NOT NULL, at_mv REAL NOT NULL, tolerance REAL NOT NULL, location TEXT NOT NULL);
         CREATE TABLE gene_links (
             species TEXT NOT NULL, symbol TEXT NOT NULL, entry_id TEXT NOT NULL, weight REAL NOT NULL, role TEXT NOT NULL,
-            PRIMARY KEY (species, symbol, entry_id));
+            reason TEXT NOT NULL, PRIMARY KEY (species, symbol, entry_id));
         CREATE TABLE gene_status (
             species TEXT NOT NULL, symbol TEXT NOT NULL, status TEXT NOT NULL, reason TEXT NOT NULL,
             PRIMARY KEY (species, symbol));
@@ -52,6 +60,8 @@ public static class CatalogBuilder
             identifier TEXT NOT NULL, kind TEXT NOT NULL, symbol TEXT NOT NULL, species TEXT NOT NULL);
         CREATE INDEX gene_identifiers_by_id ON gene_identifiers(identifier);
         CREATE TABLE presets (preset_id TEXT PRIMARY KEY, name TEXT NOT NULL, citation TEXT NOT NULL, model_json TEXT NOT NULL);
+        CREATE TABLE unitary_conductances (
+            key TEXT PRIMARY KEY, conductance_ps REAL NOT NULL, family_default INTEGER NOT NULL, citation TEXT NOT NULL, note TEXT NOT NULL);
         """;
 
     /// <summary>Parses every source (failing with file and line on the first bad one) and writes the database.</summary>
@@ -73,6 +83,9 @@ public static class CatalogBuilder
                 WriteGenes(conn, tx, content);
                 foreach (var (id, doc) in content.Presets.OrderBy(p => p.Key, StringComparer.Ordinal))
                     Insert(conn, tx, "INSERT INTO presets VALUES ($a,$b,$c,$d)", id, doc.Name, doc.Citation, doc.ToJson());
+                foreach (var u in content.UnitaryConductances.Rows)
+                    Insert(conn, tx, "INSERT INTO unitary_conductances VALUES ($a,$b,$c,$d,$e)", u.Key, u.ConductancePs, u.IsFamilyDefault ? 1 : 0,
+                        u.Citation, u.Note);
                 tx.Commit();
             }
             File.Move(tmp, databasePath, overwrite: true);
@@ -101,17 +114,21 @@ public static class CatalogBuilder
         {
             var s = e.Source;
             sourceId++;
-            Insert(conn, tx, "INSERT INTO sources VALUES ($a,$b,$c,$d,$e,$f,$g,$h,$i,$j)",
-                sourceId, s.Authors, s.Year, s.Title, s.Journal, s.Volume, s.Pages, s.Doi, s.Location, Word(s.Verification));
-            Insert(conn, tx, "INSERT INTO entries VALUES ($a,$b,$c,$d,$e,$f,$g,$h,$i,$j,$k,$l,$m,$n,$o,$p)",
+            Insert(conn, tx, "INSERT INTO sources VALUES ($a,$b,$c,$d,$e,$f,$g,$h,$i,$j,$k,$l,$m)",
+                sourceId, s.Authors, s.Year, s.Title, s.Journal, s.Volume, s.Pages, s.Doi, s.Location, Word(s.Verification),
+                Word(s.CitationCheck), s.CitationCheckedAt, s.CitationNote);
+            var d = e.SourceDensity;
+            Insert(conn, tx, "INSERT INTO entries VALUES ($a,$b,$c,$d,$e,$f,$g,$h,$i,$j,$k,$l,$m,$n,$o,$p,$q,$r,$s,$t,$u,$v)",
                 e.Id, e.Version, e.Name, e.Family, Word(e.Ion), Word(e.Reversal), e.ReversalMv, e.ReferenceTemperatureC, e.Q10,
-                e.TypicalDensityMsPerCm2, e.MinDensityMsPerCm2, e.MaxDensityMsPerCm2, e.Preparation, e.CuratorNote, sourceId, file);
+                e.TypicalDensityMsPerCm2, e.MinDensityMsPerCm2, e.MaxDensityMsPerCm2, e.Preparation, e.CuratorNote, sourceId, file,
+                d?.Value, d?.Unit, d?.CapacitancePf, d?.AreaUm2, d?.CapacitanceUfPerCm2, d?.Where);
             for (int i = 0; i < e.Gates.Count; i++)
             {
                 var g = e.Gates[i];
-                Insert(conn, tx, "INSERT INTO gates VALUES ($a,$b,$c,$d,$e,$f,$g,$h,$i,$j,$k)",
+                Insert(conn, tx, "INSERT INTO gates VALUES ($a,$b,$c,$d,$e,$f,$g,$h,$i,$j,$k,$l,$m,$n)",
                     e.Id, e.Version, i, g.Name, g.Power, Word(g.Kind), g.Instantaneous ? 1 : 0, g.RateFactor,
-                    g.Calcium?.HalfActivationMm, g.Calcium?.HillCoefficient, g.Calcium?.TimeConstantMs);
+                    g.Calcium?.HalfActivationMm, g.Calcium?.HillCoefficient, g.Calcium?.TimeConstantMs,
+                    g.Sodium?.HalfActivationMm, g.Sodium?.HillCoefficient, g.Sodium?.TimeConstantMs);
                 foreach (var (role, r) in new[] { ("alpha", g.Alpha), ("beta", g.Beta), ("steady", g.SteadyState), ("tau", g.TimeConstantMs) })
                 {
                     if (r is null) continue;
@@ -128,7 +145,7 @@ public static class CatalogBuilder
     private static void WriteGenes(SqliteConnection conn, SqliteTransaction tx, CatalogContent content)
     {
         foreach (var l in content.GeneLinks)
-            Insert(conn, tx, "INSERT INTO gene_links VALUES ($a,$b,$c,$d,$e)", Word(l.Species), l.Symbol, l.EntryId, l.Weight, l.Role);
+            Insert(conn, tx, "INSERT INTO gene_links VALUES ($a,$b,$c,$d,$e,$f)", Word(l.Species), l.Symbol, l.EntryId, l.Weight, l.Role, l.Reason);
         foreach (var s in content.GeneStatuses)
             Insert(conn, tx, "INSERT INTO gene_status VALUES ($a,$b,$c,$d)", Word(s.Species), s.Symbol, s.Status, s.Reason);
         foreach (var i in content.GeneIdentifiers)

@@ -26,17 +26,29 @@ public static class CatalogReport
         var sb = new StringBuilder();
         sb.Append("# Channel catalog review\n\n");
         int recalled = entries.Count(e => e.Source.Verification == Verification.Recalled);
-        sb.Append(Inv,
-            $"{entries.Count} entries; {recalled} recalled (numbers and citation not yet checked against the paper), {entries.Count - recalled} checked.\n\n");
+        sb.Append(Inv, $"{entries.Count} entries. Parameters: {recalled} recalled, {entries.Count - recalled} checked against the paper. Citations: " +
+            $"{entries.Count(e => e.Source.CitationCheck == CitationCheck.Confirmed)} confirmed on an abstract page, " +
+            $"{entries.Count(e => e.Source.CitationCheck == CitationCheck.NotFound)} with no page found, " +
+            $"{entries.Count(e => e.Source.CitationCheck == CitationCheck.Unchecked)} unchecked.\n\n");
         var pore = GeneCoverage.VoltageGatedPoreCoverage(catalog);
         if (pore.Total > 0)
-            sb.Append(Inv,
-                $"Gene coverage: {pore.Linked} of {pore.Total} {pore.Group} linked ({pore.Fraction:P0}); unlinked: {string.Join(", ", pore.Unlinked)}.\n\n");
-        sb.Append("| entry | family | ion | reversal | T (C) | Q10 | half-activation (mV) | verification |\n");
-        sb.Append("| --- | --- | --- | --- | --- | --- | --- | --- |\n");
+        {
+            string proxyNote = pore.ProxyOnly.Count > 0 ? $" ({string.Join(", ", pore.ProxyOnly)} feed another family's kinetics as proxies)" : "";
+            sb.Append(Inv, $"Gene coverage: {pore.Linked} of {pore.Total} {pore.Group} linked to kinetics of their own family ({pore.Fraction:P0}); " +
+                $"unlinked: {string.Join(", ", pore.Unlinked)}{proxyNote}.\n\n");
+        }
+        var proxies = catalog.GeneLinks.Where(l => l.IsProxy && l.Species == ExprModel.Core.Expression.Identifiers.Species.Human).ToArray();
+        if (proxies.Length > 0)
+        {
+            sb.Append("Proxy links (human; mouse and rat follow):\n\n");
+            foreach (var l in proxies) sb.Append(Inv, $"- {l.Symbol} -> {l.EntryId}: proxy, {l.Reason}\n");
+            sb.Append('\n');
+        }
+        sb.Append("| entry | family | ion | reversal | T (C) | Q10 | half-activation (mV) | citation | parameters |\n");
+        sb.Append("| --- | --- | --- | --- | --- | --- | --- | --- | --- |\n");
         foreach (var e in entries)
             sb.Append(Inv, $"| {e.Key} | {e.Family} | {Word(e.Ion)} | {ReversalText(e)} | {e.ReferenceTemperatureC:0.#} | {e.Q10:0.##} | {HalfSummary(e)} | " +
-                $"{Word(e.Source.Verification)} |\n");
+                $"{Word(e.Source.CitationCheck)} | {Word(e.Source.Verification)} |\n");
         sb.Append('\n');
         foreach (var e in entries) sb.Append(Entry(e)).Append('\n');
         return sb.ToString();
@@ -55,9 +67,10 @@ public static class CatalogReport
         sb.Append(Inv, $"- Source: {s.Authors} ({s.Year}). {s.Title}. {s.Journal} {s.Volume}{(s.Pages.Length > 0 ? ":" + s.Pages : "")}. DOI: " +
             $"{(s.Doi.Length > 0 ? s.Doi : "(none recorded)")}\n");
         sb.Append(Inv, $"- From: {s.Location}\n");
-        sb.Append(s.Verification == Verification.Checked
-            ? "- Verification: checked against the paper\n"
-            : "- Verification: RECALLED - numbers and citation were not checked against the paper\n");
+        sb.Append("- Citation: ").Append(CitationStatus(s)).Append('\n');
+        sb.Append("- Parameters: ").Append(ParameterStatus(s)).Append('\n');
+        if (e.SourceDensity is { } d)
+            sb.Append(Inv, $"- Conductance in the paper: {d.Describe()} ({d.Where})\n");
         if (e.Preparation.Length > 0) sb.Append(Inv, $"- Preparation: {e.Preparation}\n");
         if (e.CuratorNote.Length > 0) sb.Append(Inv, $"- Curator note: {e.CuratorNote}\n");
         if (e.Gates.Count == 0)
@@ -73,6 +86,19 @@ public static class CatalogReport
         sb.Append('\n').Append(Table(e));
         return sb.ToString();
     }
+
+    /// <summary>Whether the citation was compared with the paper's abstract page, with the page's address or what was searched.</summary>
+    public static string CitationStatus(Citation s) => s.CitationCheck switch
+    {
+        CitationCheck.Confirmed => $"confirmed against {s.CitationCheckedAt}{(s.CitationNote.Length > 0 ? " (" + s.CitationNote + ")" : "")}",
+        CitationCheck.NotFound => $"no abstract page found ({s.CitationNote})",
+        _ => "not yet compared with an abstract page",
+    };
+
+    /// <summary>Whether the parameters were read from the paper's equations or recalled.</summary>
+    public static string ParameterStatus(Citation s) => s.Verification == Verification.Checked
+        ? "checked against the paper's equations"
+        : "RECALLED - not checked against the paper's equations";
 
     /// <summary>Steady state and time constant (ms, at the entry's own temperature) of every gate at 10 mV steps.</summary>
     public static string Table(ChannelEntry e)
@@ -105,7 +131,7 @@ public static class CatalogReport
     /// </summary>
     public static double? HalfActivationMv(GateSpec gate)
     {
-        if (gate.DependsOnCalcium) return null;
+        if (gate.DependsOnCalcium || gate.DependsOnSodium) return null;
         Func<double, double> f = gate.Kind == GateKind.SteadyStateAndTau && gate.SteadyState is { Shape: RateShape.Boltzmann, Exponent: not 1 } b
             ? v => (b with { Exponent = 1 }).Evaluate(v)
             : v => gate.SteadyStateAt(v);
@@ -114,7 +140,7 @@ public static class CatalogReport
 
     /// <summary>Voltage (mV) where the gate's contribution x_inf^p to the open probability crosses 0.5 (the conductance's half-activation).</summary>
     public static double? ConductanceHalfActivationMv(GateSpec gate) =>
-        gate.DependsOnCalcium ? null : Bisect(v => Math.Pow(gate.SteadyStateAt(v), gate.Power), -150, 100);
+        gate.DependsOnCalcium || gate.DependsOnSodium ? null : Bisect(v => Math.Pow(gate.SteadyStateAt(v), gate.Power), -150, 100);
 
     /// <summary>Intracellular calcium (mM) at which a calcium gate's steady state at <paramref name="vMv"/> is 0.5, by bisection in log
     /// concentration.</summary>
@@ -175,6 +201,12 @@ public static class CatalogReport
             }
             return sb.ToString();
         }
+        if (g.Sodium is { } na)
+        {
+            sb.Append(Inv, $"sodium half-activation {na.HalfActivationMm:G4} mM of shell sodium (Hill {na.HillCoefficient:G3}, ");
+            sb.Append(g.Instantaneous ? "follows sodium instantly)" : string.Format(Inv, "tau {0:G4} ms)", na.TimeConstantMs));
+            return sb.ToString();
+        }
         var half = HalfActivationMv(g);
         var cond = ConductanceHalfActivationMv(g);
         string what = ClosesWithDepolarisation(g) ? "half-(in)activation" : "half-activation";
@@ -193,6 +225,7 @@ public static class CatalogReport
     {
         var parts = e.Gates.Select(g => g.DependsOnCalcium
             ? $"{g.Name}: Ca {((CalciumHalfActivationMm(g, 0) ?? double.NaN) * 1000).ToString("G3", Inv)} uM"
+            : g.Sodium is { } na ? $"{g.Name}: Na {na.HalfActivationMm.ToString("G3", Inv)} mM"
             : $"{g.Name}: {(HalfActivationMv(g) is { } h ? h.ToString("0.0", Inv) : "-")}").ToArray();
         return parts.Length == 0 ? "-" : string.Join("; ", parts);
     }

@@ -2,6 +2,7 @@ using ExprModel.Core.Expression.Identifiers;
 using ExprModel.Core.Kinetics;
 using ExprModel.Core.Mapping;
 using ExprModel.Core.Models;
+using ExprModel.Core.Stochastic;
 using Microsoft.Data.Sqlite;
 
 namespace ExprModel.Data.Catalog;
@@ -23,10 +24,23 @@ public sealed class ChannelCatalog
     public IReadOnlyDictionary<string, ModelDocument> Presets { get; }
     public IReadOnlyDictionary<string, string> Meta { get; }
     public string DatabasePath { get; }
+    /// <summary>Unitary conductance of each entry (its own cited value or its family's labelled default).</summary>
+    public UnitaryConductances UnitaryConductances { get; }
+
+    /// <summary>How a methods paragraph names this catalog: its schema version and the first 12 hex digits of its sources' hash.</summary>
+    public string VersionLabel
+    {
+        get
+        {
+            string hash = Meta.GetValueOrDefault("source_hash", "?");
+            return $"schema {Meta.GetValueOrDefault("schema_version", "?")}, sources {hash[..Math.Min(12, hash.Length)]}";
+        }
+    }
 
     private ChannelCatalog(string path, List<ChannelEntry> entries, List<GeneLink> links, List<GeneStatus> statuses,
-        List<GeneIdentifier> ids, Dictionary<string, ModelDocument> presets, Dictionary<string, string> meta)
+        List<GeneIdentifier> ids, Dictionary<string, ModelDocument> presets, Dictionary<string, string> meta, UnitaryConductances unitary)
     {
+        UnitaryConductances = unitary;
         DatabasePath = path;
         AllVersions = entries;
         _byKey = entries.ToDictionary(e => e.Key, StringComparer.Ordinal);
@@ -62,7 +76,20 @@ public sealed class ChannelCatalog
         Presets.TryGetValue(id, out var p) ? p
             : throw new CatalogException($"Unknown preset '{id}'. Presets: {string.Join(", ", Presets.Keys.Order(StringComparer.Ordinal))}.");
 
+    /// <summary>Loads the catalog database; an SQLite error is a <see cref="CatalogException"/> naming the file.</summary>
     public static ChannelCatalog Open(string databasePath)
+    {
+        try
+        {
+            return Load(databasePath);
+        }
+        catch (SqliteException e)
+        {
+            throw new CatalogException($"{databasePath}: the catalog database cannot be read: {e.Message}", e);
+        }
+    }
+
+    private static ChannelCatalog Load(string databasePath)
     {
         if (!File.Exists(databasePath)) throw new CatalogException($"{databasePath}: catalog database not found; run 'exprmodel catalog build'.");
         using var conn =
@@ -91,7 +118,7 @@ public sealed class ChannelCatalog
         }
         var gates = new Dictionary<(string, long), List<GateSpec>>();
         foreach (var r in Rows(conn, "SELECT entry_id, version, ordinal, name, power, kind, instantaneous, rate_factor, ca_half_mm, ca_hill, " +
-            "ca_tau_ms FROM gates ORDER BY entry_id, version, ordinal"))
+            "ca_tau_ms, na_half_mm, na_hill, na_tau_ms FROM gates ORDER BY entry_id, version, ordinal"))
         {
             var key = (r.GetString(0), r.GetInt64(1));
             if (!gates.TryGetValue(key, out var list)) gates[key] = list = [];
@@ -105,6 +132,7 @@ public sealed class ChannelCatalog
                 Instantaneous = r.GetInt64(6) != 0,
                 RateFactor = r.GetDouble(7),
                 Calcium = r.IsDBNull(8) ? null : new CalciumSensitivity(r.GetDouble(8), r.GetDouble(9), r.GetDouble(10)),
+                Sodium = r.IsDBNull(11) ? null : new SodiumSensitivity(r.GetDouble(11), r.GetDouble(12), r.GetDouble(13)),
                 Alpha = rr.GetValueOrDefault("alpha"),
                 Beta = rr.GetValueOrDefault("beta"),
                 SteadyState = rr.GetValueOrDefault("steady"),
@@ -130,7 +158,9 @@ public sealed class ChannelCatalog
         foreach (var r in Rows(conn, """
             SELECT e.entry_id, e.version, e.name, e.family, e.ion, e.reversal_rule, e.reversal_mv, e.temperature_c, e.q10,
                    e.density_typical, e.density_min, e.density_max, e.preparation, e.curator_note,
-                   s.authors, s.year, s.title, s.journal, s.volume, s.pages, s.doi, s.location, s.verification
+                   s.authors, s.year, s.title, s.journal, s.volume, s.pages, s.doi, s.location, s.verification,
+                   s.citation_check, s.citation_checked_at, s.citation_note, e.source_density_value, e.source_density_unit,
+                   e.source_density_capacitance_pf, e.source_density_area_um2, e.source_density_specific_capacitance, e.source_density_where
             FROM entries e JOIN sources s ON s.source_id = e.source_id ORDER BY e.entry_id, e.version
             """))
         {
@@ -162,20 +192,28 @@ public sealed class ChannelCatalog
                     Doi = r.GetString(20),
                     Location = r.GetString(21),
                     Verification = ParseWord<Verification>(r.GetString(22)),
+                    CitationCheck = ParseWord<CitationCheck>(r.GetString(23)),
+                    CitationCheckedAt = r.GetString(24),
+                    CitationNote = r.GetString(25),
                 },
+                SourceDensity = r.IsDBNull(26) ? null : new SourceDensity(r.GetDouble(26), r.GetString(27), r.IsDBNull(28) ? null : r.GetDouble(28),
+                    r.IsDBNull(29) ? null : r.GetDouble(29), r.GetDouble(30), r.GetString(31)),
                 Gates = gates.TryGetValue(key, out var gl) ? gl : [],
                 PublishedValues = published.TryGetValue(key, out var pl) ? pl : [],
             });
         }
-        var links = Rows(conn, "SELECT species, symbol, entry_id, weight, role FROM gene_links ORDER BY species, symbol, entry_id")
-            .Select(r => new GeneLink(ParseWord<Species>(r.GetString(0)), r.GetString(1), r.GetString(2), r.GetDouble(3), r.GetString(4))).ToList();
+        var links = Rows(conn, "SELECT species, symbol, entry_id, weight, role, reason FROM gene_links ORDER BY species, symbol, entry_id")
+            .Select(r => new GeneLink(ParseWord<Species>(r.GetString(0)), r.GetString(1), r.GetString(2), r.GetDouble(3), r.GetString(4), r.GetString(5)))
+            .ToList();
         var statuses = Rows(conn, "SELECT species, symbol, status, reason FROM gene_status ORDER BY species, symbol")
             .Select(r => new GeneStatus(ParseWord<Species>(r.GetString(0)), r.GetString(1), r.GetString(2), r.GetString(3))).ToList();
         var ids = Rows(conn, "SELECT identifier, kind, symbol, species FROM gene_identifiers")
             .Select(r => new GeneIdentifier(r.GetString(0), r.GetString(1), r.GetString(2), ParseWord<Species>(r.GetString(3)))).ToList();
         var presets = Rows(conn, "SELECT preset_id, model_json FROM presets")
             .ToDictionary(r => r.GetString(0), r => ModelDocument.Parse(r.GetString(1), "preset " + r.GetString(0)), StringComparer.Ordinal);
-        return new ChannelCatalog(databasePath, entries, links, statuses, ids, presets, meta);
+        var unitary = new UnitaryConductances(Rows(conn, "SELECT key, conductance_ps, family_default, citation, note FROM unitary_conductances ORDER BY key")
+            .Select(r => new UnitaryConductance(r.GetString(0), r.GetDouble(1), r.GetInt64(2) != 0, r.GetString(3), r.GetString(4))).ToList());
+        return new ChannelCatalog(databasePath, entries, links, statuses, ids, presets, meta, unitary);
     }
 
     private static T ParseWord<T>(string s) where T : struct, Enum => Enum.Parse<T>(s.Replace("-", ""), ignoreCase: true);

@@ -70,6 +70,7 @@ public static class EntryFile
         public string Preparation { get; set; } = "";
         public string CuratorNote { get; set; } = "";
         public List<PublishedDto> Published { get; set; } = [];
+        public SourceDensityDto? SourceDensity { get; set; }
 
         public ChannelEntry ToEntry() => new()
         {
@@ -90,6 +91,7 @@ public static class EntryFile
             Preparation = Preparation,
             CuratorNote = CuratorNote,
             PublishedValues = Published.Select(p => p.ToValue()).ToArray(),
+            SourceDensity = SourceDensity?.ToDensity(),
         };
 
         public static EntryDto From(ChannelEntry e) => new()
@@ -108,6 +110,7 @@ public static class EntryFile
             Preparation = e.Preparation,
             CuratorNote = e.CuratorNote,
             Published = e.PublishedValues.Select(PublishedDto.From).ToList(),
+            SourceDensity = SourceDensityDto.From(e.SourceDensity),
         };
     }
 
@@ -115,6 +118,29 @@ public static class EntryFile
     {
         public required ReversalRule Rule { get; set; }
         public double? Mv { get; set; }
+    }
+
+    /// <summary>The conductance as the paper states it: value and unit, with the capacitance or area an nS value refers to.</summary>
+    internal sealed class SourceDensityDto
+    {
+        public required double Value { get; set; }
+        public required string Unit { get; set; }
+        public double? CapacitancePf { get; set; }
+        public double? AreaUm2 { get; set; }
+        public double CapacitanceUfPerCm2 { get; set; } = 1;
+        public required string Where { get; set; }
+
+        public SourceDensity ToDensity() => new(Value, Unit, CapacitancePf, AreaUm2, CapacitanceUfPerCm2, Where);
+
+        public static SourceDensityDto? From(SourceDensity? d) => d is null ? null : new()
+        {
+            Value = d.Value,
+            Unit = d.Unit,
+            CapacitancePf = d.CapacitancePf,
+            AreaUm2 = d.AreaUm2,
+            CapacitanceUfPerCm2 = d.CapacitanceUfPerCm2,
+            Where = d.Where,
+        };
     }
 
     internal sealed class DensityDto
@@ -133,16 +159,21 @@ public static class EntryFile
         public RateDto? Steady { get; set; }
         public RateDto? TauMs { get; set; }
         public CalciumDto? Calcium { get; set; }
+        /// <summary>A sodium-gated subunit: the same fields as <see cref="Calcium"/>, in mM of shell sodium.</summary>
+        public CalciumDto? Sodium { get; set; }
         public bool Instantaneous { get; set; }
         public double RateFactor { get; set; } = 1;
 
         public GateSpec ToGate(int index)
         {
             bool calciumRates = (Alpha is not null && IsCalciumShape(Alpha.Shape)) || (Beta is not null && IsCalciumShape(Beta.Shape));
-            GateKind kind = Calcium is not null || calciumRates ? GateKind.Calcium
+            if (Sodium is not null && (Calcium is not null || calciumRates || Alpha is not null || Beta is not null || Steady is not null))
+                throw new ArgumentException($"gates[{index}] ({Name}): a sodium gate takes only 'sodium' (no calcium, alpha, beta or steady).");
+            GateKind kind = Sodium is not null ? GateKind.Sodium
+                : Calcium is not null || calciumRates ? GateKind.Calcium
                 : Alpha is not null || Beta is not null ? GateKind.AlphaBeta
                 : Steady is not null ? GateKind.SteadyStateAndTau
-                : throw new ArgumentException($"gates[{index}] ({Name}): give alpha and beta, or steady and tauMs, or calcium.");
+                : throw new ArgumentException($"gates[{index}] ({Name}): give alpha and beta, or steady and tauMs, or calcium, or sodium.");
             return new GateSpec
             {
                 Name = Name,
@@ -153,6 +184,7 @@ public static class EntryFile
                 SteadyState = Steady?.ToRate($"gates[{index}].steady"),
                 TimeConstantMs = TauMs?.ToRate($"gates[{index}].tauMs"),
                 Calcium = Calcium is null ? null : new CalciumSensitivity(Calcium.HalfActivationMm, Calcium.Hill, Calcium.TauMs),
+                Sodium = Sodium is null ? null : new SodiumSensitivity(Sodium.HalfActivationMm, Sodium.Hill, Sodium.TauMs),
                 Instantaneous = Instantaneous,
                 RateFactor = RateFactor,
             };
@@ -170,6 +202,8 @@ public static class EntryFile
             TauMs = RateDto.From(g.TimeConstantMs),
             Calcium = g.Calcium is null ? null
                 : new CalciumDto { HalfActivationMm = g.Calcium.HalfActivationMm, Hill = g.Calcium.HillCoefficient, TauMs = g.Calcium.TimeConstantMs },
+            Sodium = g.Sodium is null ? null
+                : new CalciumDto { HalfActivationMm = g.Sodium.HalfActivationMm, Hill = g.Sodium.HillCoefficient, TauMs = g.Sodium.TimeConstantMs },
             Instantaneous = g.Instantaneous,
             RateFactor = g.RateFactor,
         };
@@ -265,6 +299,10 @@ public static class EntryFile
         public string Doi { get; set; } = "";
         public string Location { get; set; } = "";
         public required Verification Verification { get; set; }
+        /// <summary>unchecked, confirmed or not-found: the citation compared with the paper's abstract page.</summary>
+        public CitationCheck Citation { get; set; } = CitationCheck.Unchecked;
+        public string CitationCheckedAt { get; set; } = "";
+        public string CitationNote { get; set; } = "";
 
         public Citation ToCitation() => new()
         {
@@ -277,6 +315,9 @@ public static class EntryFile
             Doi = Doi,
             Location = Location,
             Verification = Verification,
+            CitationCheck = Citation,
+            CitationCheckedAt = CitationCheckedAt,
+            CitationNote = CitationNote,
         };
 
         public static SourceDto From(Citation c) => new()
@@ -290,6 +331,9 @@ public static class EntryFile
             Doi = c.Doi,
             Location = c.Location,
             Verification = c.Verification,
+            Citation = c.CitationCheck,
+            CitationCheckedAt = c.CitationCheckedAt,
+            CitationNote = c.CitationNote,
         };
     }
 

@@ -71,6 +71,24 @@ public class ExpressionModelBuilderTests
     }
 
     [Fact]
+    public void ProxyLinksFeedTheirEntryAndAreReportedWithTheirReason()
+    {
+        var c = Catalog();
+        var links = c.Links.Select(l => l.Symbol == "Kcnq2" ? l with { Role = GeneLink.ProxyRole, Reason = "stand-in for a test" } : l).ToArray();
+        var cat = c with { Links = links };
+        var report = ExpressionMapping.Map(Table(), cat);
+        var kcnq2 = report.Genes.Single(g => g.Symbol == "Kcnq2").Entries.Single();
+        Assert.True(kcnq2.IsProxy);
+        Assert.Equal("stand-in for a test", kcnq2.ProxyReason);
+        Assert.False(report.Genes.Single(g => g.Symbol == "Kcnq3").Entries.Single().IsProxy);
+        Assert.Equal([new ProxyLink("Kcnq2", "kv7-m-yamada", "stand-in for a test")], report.Proxies);
+        // A proxy still feeds its entry: 0.5 x Kcnq2 per cell, as without the mark.
+        Assert.Equal([0, 0, 0, 100], report.EntryExpression()["kv7-m-yamada"]);
+        // Excluded by the user, it is no longer a proxy in use.
+        Assert.Empty(ExpressionMapping.Map(Table(), cat, [new GeneOverride("Kcnq2", Exclude: true)]).Proxies);
+    }
+
+    [Fact]
     public void ExponentReferenceGroupClampAndOverrides()
     {
         var cat = Catalog();

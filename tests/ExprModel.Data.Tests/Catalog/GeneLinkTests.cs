@@ -41,18 +41,28 @@ public class GeneLinkTests
         Assert.True(missing.Length == 0, "no status in catalog/genes/status.csv: " + string.Join(" ", missing));
     }
 
+    /// <summary>
+    /// Coverage counts only links to kinetics of the gene's own family (proxies excluded). Before the gene-gap entries of issue 17:
+    /// 36 of 47 (77 %); with them 47 of 47; the target of issue 17 is 95 %.
+    /// </summary>
+    private const double CoverageFloor = 0.95;
+
     [GenePackageFact]
-    public void At_least_90_percent_of_neuronal_pore_forming_voltage_gated_genes_are_linked()
+    public void Neuronal_pore_forming_voltage_gated_genes_linked_to_kinetics_of_their_own_family_reach_the_floor()
     {
         // Denominator from the package, not from our own table: GO:0005244 genes of the pore-forming voltage-gated families.
         var pores = GenePackage.Query("SELECT DISTINCT g.symbol FROM go_mf_all m JOIN gene_info g ON g._id = m._id WHERE m.go_id = 'GO:0005244'")
             .Select(r => r[0]).Where(s => GeneCoverage.VoltageGatedPoreSymbol.IsMatch(s)).ToArray();
         var status = Content.GeneStatuses.Where(s => s.Species == Species.Human).ToDictionary(s => s.Symbol, s => s.Status);
         var neuronal = pores.Where(s => status[s] != "non-neuronal").ToArray();
-        var linked = neuronal.Where(s => Content.GeneLinks.Any(l => l.Species == Species.Human && l.Symbol == s)).ToArray();
+        var linked = neuronal.Where(s => Content.GeneLinks.Any(l => l.Species == Species.Human && l.Symbol == s && !l.IsProxy)).ToArray();
         double coverage = (double)linked.Length / neuronal.Length;
         Assert.True(neuronal.Length >= 40, $"only {neuronal.Length} neuronal pore genes counted");
-        Assert.True(coverage >= 0.90, $"{linked.Length}/{neuronal.Length} linked ({coverage:P1}); unlinked: {string.Join(" ", neuronal.Except(linked))}");
+        Assert.True(coverage >= CoverageFloor,
+            $"{linked.Length}/{neuronal.Length} linked ({coverage:P1}); unlinked: {string.Join(" ", neuronal.Except(linked))}");
+        // The library's figure (catalog report, gene list) counts the same way.
+        var figure = GeneCoverage.VoltageGatedPoreCoverage(Content.GeneStatuses, Content.GeneLinks);
+        Assert.Equal((linked.Length, neuronal.Length), (figure.Linked, figure.Total));
     }
 
     [GenePackageFact]
@@ -94,13 +104,14 @@ public class GeneLinkTests
         var links = Content.GeneLinks;
         foreach (var l in links)
         {
-            Assert.Equal("pore", l.Role);
+            Assert.Contains(l.Role, new[] { "pore", GeneLink.ProxyRole });
+            Assert.Equal(l.IsProxy, l.Reason.Length > 0);
             if (l.Species == Species.Human) Assert.Matches("^[A-Z0-9-]+$", l.Symbol);
             else
             {
                 Assert.Matches("^[A-Z][a-z0-9-]+$", l.Symbol);
                 Assert.Contains(links, h => h.Species == Species.Human && h.Symbol == l.Symbol.ToUpperInvariant() && h.EntryId == l.EntryId
-                    && h.Weight == l.Weight);
+                    && h.Weight == l.Weight && h.Role == l.Role && h.Reason == l.Reason);
             }
         }
         foreach (var h in links.Where(l => l.Species == Species.Human))
@@ -121,5 +132,30 @@ public class GeneLinkTests
         Assert.All(linkedSymbols, sym => Assert.Contains(human, s => s.Symbol == sym));
         Assert.DoesNotContain(Content.GeneLinks, l => l.EntryId.StartsWith("squid-", StringComparison.Ordinal)
             || l.EntryId.StartsWith("wb-", StringComparison.Ordinal));
+    }
+
+    [Fact]
+    public void Genes_feeding_another_family_s_kinetics_are_proxies_with_a_reason()
+    {
+        // Issue 17: EAG (KCNH1, KCNH5) feed the Kv2 delayed rectifier and ELK (KCNH3, KCNH4, KCNH8) the M-current (Kv7);
+        // Nav1.9 (SCN11A) feeds the CA1 persistent sodium entry and Kv1.4 (KCNA4) the Kv4 A-type entry.
+        var family = Content.Entries.GroupBy(e => e.Id).ToDictionary(g => g.Key, g => g.First().Family);
+        var expected = new Dictionary<string, string>
+        {
+            ["KCNH1"] = "Kv2",
+            ["KCNH5"] = "Kv2",
+            ["KCNH3"] = "Kv7",
+            ["KCNH4"] = "Kv7",
+            ["KCNH8"] = "Kv7",
+            ["SCN11A"] = "Nav-persistent",
+            ["KCNA4"] = "Kv4",
+        };
+        foreach (var (symbol, fam) in expected)
+        {
+            var human = Content.GeneLinks.Where(l => l.Species == Species.Human && l.Symbol == symbol && family[l.EntryId] == fam).ToArray();
+            // A gene may gain an entry of its own later; the stand-in link, while it exists, must stay marked.
+            Assert.All(human, l => Assert.True(l.IsProxy, $"{symbol} -> {l.EntryId} is not marked proxy"));
+            Assert.All(human, l => Assert.Contains("stands in", l.Reason));
+        }
     }
 }

@@ -127,6 +127,29 @@ public sealed class WorkbenchSessionTests : IDisposable
 
     /// <summary>Demo cell FH2046, T-type calcium at slider position 860: spiking is not monotone (see the page test of the same name).</summary>
     [Fact]
+    public async Task The_channel_noise_switch_gives_a_seeded_noisy_trace_that_the_share_link_reproduces()
+    {
+        using var session = NewSession();
+        session.OpenInitial("hh1952");
+        await session.LiveRun;
+        var deterministic = session.Step!.FullVoltageMv;
+        session.SetChannelNoise(true);
+        await session.LiveRun;
+        var noisy = session.Step!.FullVoltageMv;
+        Assert.True(session.Protocol.ChannelNoise);
+        Assert.NotEqual(deterministic, noisy);
+        session.SetNoiseSeed("not a number");
+        Assert.Contains("seed", session.Error);
+
+        var snapshots = new SnapshotService(_store, _runner);
+        await session.ShareAsync(snapshots, "", storeExpression: false);
+        var opened = await snapshots.OpenAsync(session.SharedSnapshotId!, CancellationToken.None);
+        Assert.True(opened!.Protocol.Step.ChannelNoise);
+        var again = await _runner.StepAsync(opened.Model, opened.Protocol.Step, CancellationToken.None);
+        Assert.Equal(noisy, again.FullVoltageMv);
+    }
+
+    [Fact]
     public async Task A_cell_with_a_gap_in_its_spiking_shows_the_cold_readouts_and_sharing_changes_nothing()
     {
         var src = CatalogLocator.FindSourceDirectory()!;

@@ -92,7 +92,7 @@ public static class DelimitedTableReader
     private sealed record Parsed(List<string> Cells, Dictionary<string, double[]> Genes, double[] LibrarySizes, int TotalGenes);
 
     private static RecordReader OpenRecords(string path, string file, char delimiter, ExpressionReadOptions o) =>
-        new(InputFile.Open(path, o.MaxDecompressedBytes), file, delimiter, o.MaxRecordChars, o.MaxColumns);
+        new(InputFile.Open(path, o.MaxDecompressedBytes), file, delimiter, o.MaxRecordChars, o.MaxColumns, o.MaxLines, o.Cancel);
 
     private static Parsed ReadGenesAsRows(RecordReader r, string file, List<string> cellIds, int offset, ExpressionReadOptions o, ValueStats stats,
         List<string> notes)

@@ -210,7 +210,7 @@ public sealed class DelimitedTableReaderTests : IDisposable
         // A valid table bigger than the stated budget: the limit, not the content, must stop the read.
         var big = "gene,c1,c2\n" + string.Concat(Enumerable.Range(0, 5000).Select(i => $"G{i},1,2\n"));
         var path = _files.Text("big.csv.gz", big, gzip: true);
-        var e = Assert.Throws<ExpressionFormatException>(() => DelimitedTableReader.Read(path, new() { MaxDecompressedBytes = 10_000 }));
+        var e = Assert.Throws<ExpressionLimitException>(() => DelimitedTableReader.Read(path, new() { MaxDecompressedBytes = 10_000 }));
         Assert.Contains("big.csv.gz", e.Message);
         Assert.Contains("decompressed data", e.Message);
         Assert.Contains("limit of 10,000 bytes", e.Message);
