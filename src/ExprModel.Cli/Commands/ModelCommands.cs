@@ -204,7 +204,8 @@ public static class ModelCommands
 
     private static Command ClampSteps(CliContext ctx)
     {
-        var c = new Command("clamp-steps", "Voltage-clamp step family: I-V (peak and steady current per channel) and activation (normalised peak conductance).");
+        var c = new Command("clamp-steps",
+            "Voltage-clamp step family: I-V (peak and steady current per channel) and activation (normalised peak conductance).");
         var common = new Common();
         common.AddTo(c);
         var holding = new Option<double>("--holding") { Description = "Holding potential (mV).", DefaultValueFactory = _ => -80 };

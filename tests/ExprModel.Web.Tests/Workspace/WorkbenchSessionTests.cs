@@ -195,7 +195,8 @@ public sealed class WorkbenchSessionTests : IDisposable
 
         await session.ShareAsync(new SnapshotService(_store, _runner), "", storeExpression: false);
         Assert.Equal(real.Rows, session.Table.Rows);
-        Assert.Contains($"rheobase {ReadoutDisplay.Format(rheobase * 1.5, "uA/cm2")} uA/cm2 → {ReadoutDisplay.Format(rheobase, "uA/cm2")} uA/cm2", session.ShareNote);
+        Assert.Contains($"rheobase {ReadoutDisplay.Format(rheobase * 1.5, "uA/cm2")} uA/cm2 → {ReadoutDisplay.Format(rheobase, "uA/cm2")} uA/cm2",
+            session.ShareNote);
         // A new setting clears the note: it described the table at the moment of sharing.
         session.SetRelative(k, DensityScale.RelativeAt(690));
         Assert.Null(session.ShareNote);
