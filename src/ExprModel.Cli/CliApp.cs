@@ -4,6 +4,7 @@ using ExprModel.Core.Expression;
 using ExprModel.Core.Models;
 using ExprModel.Core.Simulation;
 using ExprModel.Data.Catalog;
+using ExprModel.Data.Store;
 
 namespace ExprModel.Cli;
 
@@ -20,6 +21,9 @@ public static class CliApp
         foreach (var c in WhatIfCommands.Create(ctx)) root.Subcommands.Add(c);
         root.Subcommands.Add(CompareCommand.Create(ctx));
         root.Subcommands.Add(RecordingCommands.Create(ctx));
+        root.Subcommands.Add(SnapshotCommands.Create(ctx));
+        root.Subcommands.Add(PatchCommand.Create(ctx));
+        root.Subcommands.Add(NoiseCommand.Create(ctx));
         var parse = root.Parse(args);
         if (parse.Errors.Count > 0)
         {
@@ -31,7 +35,8 @@ public static class CliApp
             return parse.Invoke(new InvocationConfiguration { Output = stdout, Error = stderr, EnableDefaultExceptionHandler = false });
         }
         catch (Exception e) when (e is CatalogException or ModelFileException or ModelException or SimulationBlowUpException
-            or ExpressionFormatException or CliException or ArgumentException or IOException or UnauthorizedAccessException)
+            or ExpressionFormatException or CliException or ArgumentException or IOException or UnauthorizedAccessException
+            or SnapshotException or SnapshotStoreException)
         {
             stderr.WriteLine($"error: {e.Message}");
             return 1;

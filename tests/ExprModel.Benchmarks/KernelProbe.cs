@@ -7,7 +7,8 @@ namespace ExprModel.Benchmarks;
 
 /// <summary>
 /// "kernel [model.json]": nanoseconds per integration step of one SIMD sweep group and of the scalar loop, for the model
-/// and for the model without its calcium machinery (BK, SK and calcium channels), so the cost of each part shows.
+/// and for the model without its calcium machinery (BK, SK and calcium channels) or its sodium-activated potassium (and so its
+/// sodium shell), so the cost of each part shows.
 /// Best of 15 runs: on a shared machine the minimum is the least disturbed figure.
 /// </summary>
 internal static class KernelProbe
@@ -24,6 +25,8 @@ internal static class KernelProbe
         Time("without BK and SK", doc with { Channels = doc.Channels.Where(c => !IsCalciumActivated(c)).ToArray() });
         Time("without calcium channels", doc with { Channels = doc.Channels.Where(c => !c.Entry.StartsWith("cav")).ToArray() });
         Time("without either", doc with { Channels = doc.Channels.Where(c => !IsCalciumActivated(c) && !c.Entry.StartsWith("cav")).ToArray() });
+        if (doc.Channels.Any(c => c.Entry.StartsWith("kna")))
+            Time("without KNa (sodium shell)", doc with { Channels = doc.Channels.Where(c => !c.Entry.StartsWith("kna")).ToArray(), SodiumShell = null });
 
         void Time(string label, ModelDocument d)
         {

@@ -22,6 +22,7 @@ public static class Program
             return 0;
         }
         if (args.Contains("whatif")) { WhatIfBenchmark.Run(); return 0; }
+        if (args.Contains("stochastic")) { StochasticBenchmark.Run(args.Contains("--quick")); return 0; }
         if (args.Contains("recordings")) { RecordingsBenchmark.Run(); return 0; }
         if (args.Contains("recovery"))
         {

@@ -13,6 +13,8 @@ public sealed class AppFactory : WebApplicationFactory<Program>
         builder.UseSetting("ExprModel:AppDatabasePath", Path.Combine(Dir, "snapshots.db"));
         builder.UseSetting("ExprModel:CatalogDatabasePath", Path.Combine(Dir, "catalog.db"));
         builder.UseSetting("ExprModel:MaxUploadMegabytes", "1");
+        // One test client makes hundreds of API calls; the per-client rate limit has its own tests (Hosting/RateLimitsTests).
+        builder.UseSetting("ExprModel:RateLimitPerMinute", "0");
         builder.UseEnvironment("Development");
     }
 

@@ -32,11 +32,12 @@ public static class CatalogCommands
                 ctx.Out.Write(t.ToString());
                 return 0;
             }
-            ctx.Out.WriteLine($"{"id",-24} {"ver",3} {"family",-15} {"ion",-11} {"gbar",8}  source");
+            ctx.Out.WriteLine($"{"id",-24} {"ver",3} {"family",-15} {"ion",-11} {"density",8}  source");
             foreach (var e in entries)
                 ctx.Out.WriteLine($"{e.Id,-24} {e.Version,3} {e.Family,-15} {Word(e.Ion),-11} {e.TypicalDensityMsPerCm2,8:G4}  " +
                     $"{e.Source.Authors.Split(',')[0]} {e.Source.Year} ({Word(e.Source.Verification)})");
-            ctx.Out.WriteLine($"{entries.Count} entries; presets: {string.Join(", ", ctx.Catalog.Presets.Keys.Order(StringComparer.Ordinal))}");
+            var presets = string.Join(", ", ctx.Catalog.Presets.Keys.Order(StringComparer.Ordinal));
+            ctx.Out.WriteLine($"{entries.Count} entries (density: typical, mS/cm2); presets: {presets}");
             return 0;
         });
 

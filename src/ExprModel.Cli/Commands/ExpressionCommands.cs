@@ -274,7 +274,10 @@ public static class ExpressionCommands
                 if (missing.Length > 0) throw new CliException("Items missing from the shards: " +
                     $"{string.Join(", ", missing.Take(20))}{(missing.Length > 20 ? " ..." : "")} ({missing.Length} of {n}).");
             }
-            var text = string.Join("\n", comments.Append(header).Concat(rows.Values)) + "\n";
+            // Shards are files a user may have edited: every line goes back through the one neutralising writer.
+            var lines = comments.Select(c => CsvTable.Comment(c.TrimStart('#').TrimStart()))
+                .Append(CsvTable.Line(header)).Concat(rows.Values.Select(CsvTable.Line));
+            var text = string.Join("\n", lines) + "\n";
             ctx.Emit(text, p.GetValue(output));
             return 0;
         });

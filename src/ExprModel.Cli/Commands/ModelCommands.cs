@@ -10,7 +10,7 @@ using ExprModel.Core.Simulation;
 
 namespace ExprModel.Cli.Commands;
 
-/// <summary>exprmodel simulate | fi | features | vclamp, each on a model file or --preset ID.</summary>
+/// <summary>exprmodel simulate | fi | features | clamp-steps | mechanisms | methods, each on a model file or --preset ID.</summary>
 public static class ModelCommands
 {
     private sealed class Common
@@ -57,7 +57,9 @@ public static class ModelCommands
         yield return Simulate(ctx);
         yield return Fi(ctx);
         yield return FeaturesCommand(ctx);
-        yield return VClamp(ctx);
+        yield return ClampSteps(ctx);
+        yield return Mechanisms(ctx);
+        yield return Methods(ctx);
     }
 
     internal static readonly JsonSerializerOptions Json =
@@ -84,7 +86,11 @@ public static class ModelCommands
         var wave = new Option<string?>("--waveform") { Description = "CSV with columns time_ms and current (in --units) for --protocol waveform." };
         var every = new Option<int>("--record-every") { Description = "Keep every Nth step in the output.", DefaultValueFactory = _ => 4 };
         var currents = new Option<bool>("--currents") { Description = "Add each channel's current (uA/cm2)." };
-        foreach (var o in new Option[] { protocol, amp, from, delay, duration, total, count, width, freq, sd, tau, seed, wave, every, currents })
+        var channelNoise = new Option<bool>("--channel-noise")
+        {
+            Description = "Stochastic channels: counts from density x area / the catalog's unitary conductance, seeded by --seed.",
+        };
+        foreach (var o in new Option[] { protocol, amp, from, delay, duration, total, count, width, freq, sd, tau, seed, wave, every, currents, channelNoise })
             c.Options.Add(o);
         c.SetAction(p =>
         {
@@ -103,6 +109,21 @@ public static class ModelCommands
             };
             double t = p.GetValue(total) ?? dl + du + 100;
             bool withCurrents = p.GetValue(currents);
+            if (p.GetValue(channelNoise))
+            {
+                if (withCurrents) throw new CliException("--currents is not available with --channel-noise.");
+                var noise = new ExprModel.Core.Stochastic.ChannelNoiseSettings
+                {
+                    UnitaryConductancesPs = ExprModel.Core.Stochastic.ChannelNoise.UnitaryConductances(cell.Model,
+                        e => ctx.Catalog.UnitaryConductances.For(e).ConductancePs),
+                    Seed = p.GetValue(seed),
+                    DtMs = p.GetValue(common.Dt),
+                    RecordEvery = Math.Max(1, p.GetValue(every)),
+                };
+                var noisy = ExprModel.Core.Stochastic.ChannelNoise.Run(cell, stim, t, noise);
+                ctx.Emit(NoisyTraceCsv.Write(doc.Name, cell.Model, noisy, noise), p.GetValue(common.Out));
+                return 0;
+            }
             var trace = Simulator.Run(cell, stim, t,
                 new SimulationSettings { DtMs = p.GetValue(common.Dt), RecordEvery = Math.Max(1, p.GetValue(every)), RecordCurrents = withCurrents });
             ctx.Emit(TraceCsv.Write(doc.Name, trace, unit, g), p.GetValue(common.Out));
@@ -181,9 +202,10 @@ public static class ModelCommands
         return c;
     }
 
-    private static Command VClamp(CliContext ctx)
+    private static Command ClampSteps(CliContext ctx)
     {
-        var c = new Command("vclamp", "Voltage-clamp step family: I-V (peak and steady current per channel) and activation (normalised peak conductance).");
+        var c = new Command("clamp-steps",
+            "Voltage-clamp step family: I-V (peak and steady current per channel) and activation (normalised peak conductance).");
         var common = new Common();
         common.AddTo(c);
         var holding = new Option<double>("--holding") { Description = "Holding potential (mV).", DefaultValueFactory = _ => -80 };
@@ -203,6 +225,74 @@ public static class ModelCommands
             var family = VoltageClamp.StepFamily(cell, p.GetValue(holding), commands, 50, p.GetValue(length), p.GetValue(common.Dt));
             var g = cell.Model.Geometry;
             ctx.Emit(ClampCsv.Write(doc.Name, ClampCurves.From(family), unit, g), p.GetValue(common.Out));
+            return 0;
+        });
+        return c;
+    }
+
+    private static Command Mechanisms(CliContext ctx)
+    {
+        var c = new Command("mechanisms",
+            "Adaptation mechanisms on a suprathreshold step train: threshold and after-hyperpolarisation per spike, each channel's " +
+            "inter-spike current, and the pulse threshold after one spike and after the train against rest.");
+        var common = new Common();
+        common.AddTo(c);
+        var amp = new Option<double?>("--amplitude") { Description = "Step amplitude (in --units); default twice the rheobase." };
+        var duration = new Option<double>("--duration") { Description = "Step length (ms).", DefaultValueFactory = _ => 1000 };
+        var delay = new Option<double>("--probe-delay") { Description = "Test pulse delay after the spike / the train (ms).", DefaultValueFactory = _ => 20 };
+        var width = new Option<double>("--probe-width") { Description = "Test pulse width (ms).", DefaultValueFactory = _ => 2 };
+        var format = new Option<string>("--format") { Description = "csv or json.", DefaultValueFactory = _ => "csv" };
+        foreach (var o in new Option[] { amp, duration, delay, width, format }) c.Options.Add(o);
+        c.SetAction(p =>
+        {
+            string fmt = p.GetValue(format)!;
+            if (fmt is not ("csv" or "json")) throw new CliException("--format must be csv or json.");
+            var (doc, cell, unit) = common.Load(p, ctx);
+            var g = cell.Model.Geometry;
+            var settings = MechanismSettings.Default with
+            {
+                Simulation = new SimulationSettings { DtMs = p.GetValue(common.Dt) },
+                StepDurationMs = p.GetValue(duration),
+                ProbeDelayMs = p.GetValue(delay),
+                ProbePulseMs = p.GetValue(width),
+            };
+            if (settings.Problem() is { } bad) throw new CliException(bad.Replace("stepDurationMs", "--duration").Replace("probeDelayMs", "--probe-delay")
+                .Replace("probePulseMs", "--probe-width"));
+            double? step = p.GetValue(amp) is { } a ? CurrentUnits.ToDensity(a, unit, g) : null;
+            var report = AdaptationMechanisms.Measure(cell, step, settings);
+            string text = fmt == "json"
+                ? MechanismCsv.Json(doc.Name, report, unit, g).ToJsonString(Json) + "\n"
+                : MechanismCsv.Write(doc.Name, report, unit, g);
+            ctx.Emit(text, p.GetValue(common.Out));
+            return 0;
+        });
+        return c;
+    }
+
+    private static Command Methods(CliContext ctx)
+    {
+        var c = new Command("methods", "A methods paragraph for a paper (model, channels with citations and densities, temperature and Q10, " +
+            "integration, protocols and read-out definitions, versions) and the BibTeX of every cited source.");
+        var common = new Common();
+        common.AddTo(c);
+        var bib = new Option<string?>("--bibtex") { Description = "Also write the BibTeX file here." };
+        var format = new Option<string>("--format")
+        {
+            Description = "text (the paragraph) or bibtex, to --out or standard output.",
+            DefaultValueFactory = _ => "text",
+        };
+        c.Options.Add(bib);
+        c.Options.Add(format);
+        c.SetAction(p =>
+        {
+            string fmt = p.GetValue(format)!;
+            if (fmt is not ("text" or "bibtex")) throw new CliException("--format must be text or bibtex.");
+            var (doc, cell, _) = common.Load(p, ctx);
+            var versions = MethodsVersions.Current(ctx.Catalog.VersionLabel);
+            var settings = ReadoutSettings.Default with { Simulation = new SimulationSettings { DtMs = p.GetValue(common.Dt) } };
+            string bibText = BibTex.Write(BibTex.For(cell.Model, doc.Citation, versions).Entries, ResearchCaution.Text);
+            if (p.GetValue(bib) is { } bibPath) ctx.Emit(bibText, bibPath);
+            ctx.Emit(fmt == "bibtex" ? bibText : MethodsText.Write(doc, cell.Model, versions, settings) + "\n", p.GetValue(common.Out));
             return 0;
         });
         return c;

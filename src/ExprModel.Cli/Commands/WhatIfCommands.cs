@@ -78,8 +78,10 @@ public static class WhatIfCommands
                 $"{ReadoutScales.Percent(Knockdown.DefaultSettings.RheobaseRelativeTolerance)} rheobase grid"])
                 .Concat(report.Failures.Select(f => $"{f.Key}: {f.Value}")).ToArray();
             var header = new[] { "readout", "unit", "target", "kind", "intact", "knocked_down", "change", "relative_change", "lost" };
-            var cells = rows.Select(r => new object?[] { r.Readout, r.Unit, r.Target, r.Kind.ToString().ToLowerInvariant(), r.Intact, r.KnockedDown, r.Change,
-                r.RelativeChange, r.Lost }).ToArray();
+            // The table shows each value to its read-out's resolution (ReadoutDisplay); the CSV keeps full precision.
+            object? Shown(double? v, string unit) => fmt == "csv" ? v : ReadoutDisplay.Format(v, unit);
+            var cells = rows.Select(r => new object?[] { r.Readout, r.Unit, r.Target, r.Kind.ToString().ToLowerInvariant(), Shown(r.Intact, r.Unit),
+                Shown(r.KnockedDown, r.Unit), Shown(r.Change, r.Unit), Shown(r.RelativeChange, "fraction"), r.Lost }).ToArray();
             ctx.Emit(fmt == "csv" ? Csv(notes, header, cells) : Table(notes, header, cells), p.GetValue(source.Out));
             return 0;
         });

@@ -10,6 +10,8 @@ public sealed record CellModel
     public double TemperatureC { get; init; } = 36;
     public IonConcentrations Ions { get; init; } = IonConcentrations.Mammalian;
     public CalciumShell? CalciumShell { get; init; }
+    /// <summary>The sodium shell; when null and a channel has a sodium-gated subunit, the default shell is used (<see cref="EffectiveSodiumShell"/>).</summary>
+    public SodiumShell? SodiumShell { get; init; }
     public required IReadOnlyList<ChannelInstance> Channels { get; init; }
     /// <summary>Initial membrane potential (mV); gates start at their steady state there.</summary>
     public double InitialVoltageMv { get; init; } = -65;
@@ -29,13 +31,31 @@ public sealed record CellModel
         };
     }
 
+    /// <summary>True when some channel has a sodium-gated subunit.</summary>
+    public bool HasSodiumGatedChannel => Channels.Any(c => c.Entry.Gates.Any(g => g.Kind == GateKind.Sodium));
+
+    /// <summary>The sodium shell the simulator uses: the model's, or the default one when a sodium-gated channel needs it; else null.</summary>
+    public SodiumShell? EffectiveSodiumShell => SodiumShell ?? (HasSodiumGatedChannel ? new SodiumShell() : null);
+
+    /// <summary>Resting shell sodium (mM): the shell's rest, or the cell's intracellular sodium.</summary>
+    public double SodiumShellRestMm => SodiumShell?.RestMm ?? Ions.SodiumInsideMm;
+
+    /// <summary>The temperatures a model may be simulated at (C): the one range every door checks (model files, builds, the API).</summary>
+    public const double LowestTemperatureC = -5, HighestTemperatureC = 50;
+
+    /// <summary>A problem naming temperatureC when <paramref name="temperatureC"/> lies outside the simulated range, else null.</summary>
+    public static string? TemperatureProblem(double temperatureC) =>
+        temperatureC is >= LowestTemperatureC and <= HighestTemperatureC ? null
+            : $"temperatureC must lie between {LowestTemperatureC} and {HighestTemperatureC} (got {temperatureC})";
+
     /// <summary>Returns a problem naming the parameter, or null when the model can be simulated.</summary>
     public string? Problem()
     {
         if (!(Geometry.AreaUm2 > 0) || double.IsInfinity(Geometry.AreaUm2)) return "cell.areaUm2 must be positive";
         if (!(Geometry.CapacitanceUfPerCm2 > 0)) return "cell.capacitanceUfPerCm2 must be positive";
-        if (TemperatureC < -5 || TemperatureC > 50 || double.IsNaN(TemperatureC)) return $"temperatureC must lie between -5 and 50 (got {TemperatureC})";
+        if (TemperatureProblem(TemperatureC) is { } t) return t;
         if (Ions.Problem() is { } p) return "ions." + p;
+        if (SodiumShell?.Problem() is { } sp) return sp;
         if (Channels.Count == 0) return "the model has no channels";
         foreach (var c in Channels)
         {

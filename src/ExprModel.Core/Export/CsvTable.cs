@@ -1,22 +1,26 @@
 using System.Globalization;
 using System.Text;
+using System.Text.RegularExpressions;
 using ExprModel.Core.Models;
 
 namespace ExprModel.Core.Export;
 
 /// <summary>
 /// The one CSV writer: RFC 4180 quoting, invariant numbers, '#' comment lines (the research caution goes there),
-/// and spreadsheet-formula neutralisation (a text cell starting with = + - @ tab or CR is prefixed with a quote,
-/// common practice against formula injection). Numbers are written as numbers and never neutralised.
+/// and spreadsheet-formula neutralisation on every line (common practice against formula injection): a text cell
+/// starting with = + - @ tab or CR is prefixed with a quote; a cell holding ',' ';' tab, a quote or a line break is
+/// quoted; and in every text cell and comment line, each piece a spreadsheet splitting at ',' ';' or tab would make a
+/// cell of gets a quote before a leading = + - or @ (a comment line is split like any other line). Numbers
+/// are written as numbers and never neutralised. Anything that writes CSV text goes through here.
 /// </summary>
-public sealed class CsvTable
+public sealed partial class CsvTable
 {
     private readonly StringBuilder _sb = new();
     private readonly int _columns;
 
     public CsvTable(IEnumerable<string> comments, IReadOnlyList<string> header)
     {
-        foreach (var c in comments) _sb.Append("# ").Append(c.Replace('\n', ' ').Replace('\r', ' ')).Append('\n');
+        foreach (var c in comments) _sb.Append(Comment(c)).Append('\n');
         _columns = header.Count;
         Row(header.Select(h => (object?)h).ToArray());
     }
@@ -48,11 +52,71 @@ public sealed class CsvTable
         _ => Text(Convert.ToString(value, CultureInfo.InvariantCulture) ?? ""),
     };
 
+    /// <summary>
+    /// A '#' comment line (without its line break): line breaks become spaces, and wherever a spreadsheet splitting the
+    /// line at ',' ';' or tab would start a cell (after optional blanks and quotes) with = + - or @, a quote is put first.
+    /// </summary>
+    public static string Comment(string text) => "# " + Pieces(text.Replace('\n', ' ').Replace('\r', ' '));
+
+    /// <summary>
+    /// Puts a quote before = + - or @ wherever a spreadsheet splitting the text at ',' ';' or tab would start a cell with
+    /// it (after optional blanks and quotes): quoting a cell protects it from the comma split only, not from a
+    /// semicolon- or tab-locale spreadsheet that splits the same line elsewhere.
+    /// </summary>
+    private static string Pieces(string text)
+    {
+        var sb = new StringBuilder(text.Length + 4);
+        bool cellStart = false;
+        foreach (var c in text)
+        {
+            if (cellStart && IsFormulaStart(c)) sb.Append('\'');
+            sb.Append(c);
+            if (c is ',' or ';' or '\t') cellStart = true;
+            else if (c is not (' ' or '"')) cellStart = false;
+        }
+        return sb.ToString();
+    }
+
+    /// <summary>
+    /// Re-writes one data line of a CSV file this writer produced elsewhere (a batch shard) through the same rules:
+    /// plain numbers stay as they are, every other field is neutralised and quoted as a text cell would be.
+    /// </summary>
+    public static string Line(string line) => string.Join(',', Fields(line).Select(f => PlainNumber().IsMatch(f) ? f : Text(f)));
+
+    /// <summary>The fields of one RFC 4180 line (quotes removed, doubled quotes undone).</summary>
+    public static IReadOnlyList<string> Fields(string line)
+    {
+        var fields = new List<string>();
+        var sb = new StringBuilder();
+        bool quoted = false;
+        for (int i = 0; i < line.Length; i++)
+        {
+            var c = line[i];
+            if (quoted)
+            {
+                if (c != '"') sb.Append(c);
+                else if (i + 1 < line.Length && line[i + 1] == '"') { sb.Append('"'); i++; }
+                else quoted = false;
+            }
+            else if (c == '"') quoted = true;
+            else if (c == ',') { fields.Add(sb.ToString()); sb.Clear(); }
+            else sb.Append(c);
+        }
+        fields.Add(sb.ToString());
+        return fields;
+    }
+
+    private static bool IsFormulaStart(char c) => c is '=' or '+' or '-' or '@';
+
     private static string Text(string s)
     {
-        if (s.Length > 0 && s[0] is '=' or '+' or '-' or '@' or '\t' or '\r') s = "'" + s;
-        return s.IndexOfAny([',', '"', '\n', '\r']) >= 0 ? "\"" + s.Replace("\"", "\"\"") + "\"" : s;
+        if (s.Length > 0 && (IsFormulaStart(s[0]) || s[0] is '\t' or '\r')) s = "'" + s;
+        s = Pieces(s);
+        return s.IndexOfAny([',', ';', '\t', '"', '\n', '\r']) >= 0 ? "\"" + s.Replace("\"", "\"\"") + "\"" : s;
     }
+
+    [GeneratedRegex(@"^-?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$")]
+    private static partial Regex PlainNumber();
 
     public override string ToString() => _sb.ToString();
 }

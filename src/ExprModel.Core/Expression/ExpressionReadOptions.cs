@@ -34,5 +34,11 @@ public sealed record ExpressionReadOptions
     /// <summary>The most fields a record may have (cells or genes plus the identifier column).</summary>
     public int MaxColumns { get; init; } = 500_000;
 
+    /// <summary>Guard against inputs of endless (often blank) lines: the most physical lines a text file may have, blank lines included.</summary>
+    public long MaxLines { get; init; } = long.MaxValue;
+
+    /// <summary>Stops reading (<see cref="OperationCanceledException"/>) when cancelled, e.g. when the client of a server request has gone.</summary>
+    public CancellationToken Cancel { get; init; }
+
     public static ExpressionReadOptions Default { get; } = new();
 }

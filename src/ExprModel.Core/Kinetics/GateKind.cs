@@ -13,4 +13,6 @@ public enum GateKind
     /// (BK-type, <see cref="RateShape.CalciumBoundOpening"/> and <see cref="RateShape.CalciumBoundClosing"/>).
     /// </summary>
     Calcium,
+    /// <summary>Sodium-gated: x_inf = na^n / (na^n + K^n) of the sodium shell with constant tau (<see cref="GateSpec.Sodium"/>).</summary>
+    Sodium,
 }

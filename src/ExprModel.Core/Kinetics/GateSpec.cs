@@ -14,6 +14,7 @@ public sealed record GateSpec
     public GateRate? SteadyState { get; init; }
     public GateRate? TimeConstantMs { get; init; }
     public CalciumSensitivity? Calcium { get; init; }
+    public SodiumSensitivity? Sodium { get; init; }
 
     /// <summary>The gate follows its steady state instantly (e.g. sodium activation in Wang &amp; Buzsaki 1996).</summary>
     public bool Instantaneous { get; init; }
@@ -21,8 +22,8 @@ public sealed record GateSpec
     /// <summary>A published multiplier on both rates (e.g. phi = 5 in Wang &amp; Buzsaki 1996); tau is divided by it.</summary>
     public double RateFactor { get; init; } = 1;
 
-    /// <summary>Steady-state open probability of this gate at V (mV) and intracellular calcium (mM).</summary>
-    public double SteadyStateAt(double vMv, double calciumMm = 5e-5)
+    /// <summary>Steady-state open probability of this gate at V (mV), intracellular calcium and shell sodium (mM).</summary>
+    public double SteadyStateAt(double vMv, double calciumMm = 5e-5, double sodiumMm = 10)
     {
         switch (Kind)
         {
@@ -43,6 +44,8 @@ public sealed record GateSpec
                 {
                     return Calcium!.SteadyStateAt(calciumMm);
                 }
+            case GateKind.Sodium:
+                return Sodium!.SteadyStateAt(sodiumMm);
             default:
                 throw new InvalidOperationException($"Unknown gate kind {Kind}.");
         }
@@ -63,6 +66,9 @@ public sealed record GateSpec
     /// <summary>True when the steady state depends on intracellular calcium (computed per step, not tabulated by voltage).</summary>
     public bool DependsOnCalcium => Kind == GateKind.Calcium;
 
+    /// <summary>True when the steady state depends on shell sodium (computed per step, not tabulated by voltage).</summary>
+    public bool DependsOnSodium => Kind == GateKind.Sodium;
+
     /// <summary>
     /// Time constant (ms) at V before temperature scaling, including the rate factor. For calcium gates written as
     /// alpha/beta rates it is evaluated at resting calcium (<see cref="GateRate.RestingCalciumMm"/>).
@@ -79,6 +85,8 @@ public sealed record GateSpec
                 return TimeConstantAt(vMv, GateRate.RestingCalciumMm);
             case GateKind.Calcium:
                 return Calcium!.TimeConstantMs / RateFactor;
+            case GateKind.Sodium:
+                return Sodium!.TimeConstantMs / RateFactor;
             default:
                 throw new InvalidOperationException($"Unknown gate kind {Kind}.");
         }
@@ -110,6 +118,15 @@ public sealed record GateSpec
                     return $"gate {Name}: calcium hill must be a non-zero number between -8 and 8 (negative: calcium-dependent inactivation)";
                 if (Instantaneous ? Calcium.TimeConstantMs != 0 : !(Calcium.TimeConstantMs > 0) || double.IsInfinity(Calcium.TimeConstantMs))
                     return $"gate {Name}: calcium tauMs must be positive (or 0 with instantaneous: true)";
+                return null;
+            case GateKind.Sodium:
+                if (Sodium is null) return $"gate {Name}: sodium sensitivity is required";
+                if (!(Sodium.HalfActivationMm > 0) || double.IsInfinity(Sodium.HalfActivationMm))
+                    return $"gate {Name}: sodium halfActivationMm must be positive";
+                if (!double.IsFinite(Sodium.HillCoefficient) || Sodium.HillCoefficient == 0 || Math.Abs(Sodium.HillCoefficient) > 8)
+                    return $"gate {Name}: sodium hill must be a non-zero number between -8 and 8";
+                if (Instantaneous ? Sodium.TimeConstantMs != 0 : !(Sodium.TimeConstantMs > 0) || double.IsInfinity(Sodium.TimeConstantMs))
+                    return $"gate {Name}: sodium tauMs must be positive (or 0 with instantaneous: true)";
                 return null;
         }
         return null;

@@ -80,6 +80,7 @@ public sealed record DensityRule
         if (!(Exponent > 0) || Exponent > 4) return "exponent must lie in (0, 4]";
         if (Reference == DensityReference.ReferenceGroup && string.IsNullOrWhiteSpace(ReferenceGroup)) return "a reference group must be named";
         if (!(CapacitancePf > 0)) return "capacitancePf must be positive";
+        if (Cell.CellModel.TemperatureProblem(TemperatureC) is { } t) return t;
         if (!(LeakMsPerCm2 >= 0)) return "leakMsPerCm2 must be >= 0";
         return null;
     }

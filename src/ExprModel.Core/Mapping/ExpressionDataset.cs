@@ -45,7 +45,13 @@ public sealed class ExpressionDataset
 
         var column = groupColumn!;
         var metadataName = Path.GetFileName(metadataPath);
-        var metadata = CellMetadataReader.Read(metadataPath, new CellMetadataOptions { GroupColumns = [column] });
+        var metadata = CellMetadataReader.Read(metadataPath, new CellMetadataOptions
+        {
+            GroupColumns = [column],
+            MaxDecompressedBytes = Math.Min(options.MaxDecompressedBytes, new CellMetadataOptions().MaxDecompressedBytes),
+            MaxLines = options.MaxLines,
+            Cancel = options.Cancel,
+        });
         if (!metadata.Labels.ContainsKey(column))
             throw new ExpressionFormatException($"{metadataName}: no column '{column}' (columns: {string.Join(", ", metadata.Labels.Keys)}).");
         var labels = new Dictionary<string, string>(StringComparer.Ordinal);

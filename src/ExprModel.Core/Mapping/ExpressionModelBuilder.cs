@@ -25,7 +25,7 @@ public static class ExpressionModelBuilder
         var entryExpression = report.EntryExpression();
         var channels = new List<ChannelDocument>();
         var derivations = new List<DensityDerivation>();
-        bool needsShell = false;
+        bool needsShell = false, needsSodiumShell = false;
         foreach (var (entryId, perCell) in entryExpression)
         {
             var entry = catalog.Entry(entryId)!;
@@ -40,6 +40,7 @@ public static class ExpressionModelBuilder
             if (density.DensityMsPerCm2 <= 0) continue;
             channels.Add(new ChannelDocument { Entry = entryId, Version = entry.Version, DensityMsPerCm2 = density.DensityMsPerCm2 });
             if (entry.Gates.Any(g => g.Kind == Kinetics.GateKind.Calcium) || entry.Ion == Kinetics.Ion.Calcium) needsShell = true;
+            if (entry.Gates.Any(g => g.Kind == Kinetics.GateKind.Sodium)) needsSodiumShell = true;
         }
         var leak = catalog.Entry("leak") ?? throw new ArgumentException("The catalog has no 'leak' entry.");
         channels.Add(new ChannelDocument { Entry = "leak", Version = leak.Version, DensityMsPerCm2 = rule.LeakMsPerCm2, ReversalMv = rule.LeakReversalMv });
@@ -89,6 +90,7 @@ public static class ExpressionModelBuilder
             TemperatureC = rule.TemperatureC,
             InitialVoltageMv = rule.LeakReversalMv,
             CalciumShell = needsShell ? new CalciumShell() : null,
+            SodiumShell = needsSodiumShell ? new SodiumShell() : null,
             Channels = channels,
             Derivation = derivation,
         };

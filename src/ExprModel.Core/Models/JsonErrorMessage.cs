@@ -20,6 +20,10 @@ public static class JsonErrorMessage
     /// <summary>The parser's message without the location it appends (" Path: ... | LineNumber: ..."), which <see cref="Location"/> gives.</summary>
     public static string Reason(JsonException e)
     {
+        // The serializer's refusal of an unknown member names a .NET type; say it in the request's terms.
+        const string Unmapped = "The JSON property '", UnmappedEnd = "' could not be mapped";
+        if (e.Message.StartsWith(Unmapped, StringComparison.Ordinal) && e.Message.IndexOf(UnmappedEnd, StringComparison.Ordinal) is int end and > 0)
+            return $"unknown field '{e.Message[Unmapped.Length..end]}': not a field here (check its spelling); unknown fields are refused";
         int cut = e.Message.IndexOf(" Path:", StringComparison.Ordinal);
         return cut > 0 ? e.Message[..cut] : e.Message;
     }

@@ -26,6 +26,8 @@ public sealed record ModelDocument
     public double InitialVoltageMv { get; init; } = -65;
     public IonConcentrations? Ions { get; init; }
     public CalciumShell? CalciumShell { get; init; }
+    /// <summary>Optional; a model with a sodium-gated channel and no sodiumShell gets the default shell.</summary>
+    public SodiumShell? SodiumShell { get; init; }
     public required IReadOnlyList<ChannelDocument> Channels { get; init; }
     /// <summary>How the densities were derived (expression rule, reference, inputs); free-form but always kept.</summary>
     public JsonObject? Derivation { get; init; }
@@ -106,6 +108,7 @@ public sealed record ModelDocument
             TemperatureC = TemperatureC,
             Ions = Ions ?? IonConcentrations.Mammalian,
             CalciumShell = CalciumShell,
+            SodiumShell = SodiumShell,
             Channels = channels,
             InitialVoltageMv = InitialVoltageMv,
         };

@@ -31,6 +31,8 @@ public sealed class CellKinetics
     internal readonly double[] GateShiftMv;
     internal readonly double[] GateTemperatureFactor;
     internal readonly bool[] GateIsCalcium;
+    /// <summary>Gates computed per step from a shell concentration (calcium or sodium), not tabulated by voltage.</summary>
+    internal readonly bool[] GateIsConcentrationGated;
     internal readonly bool[] GateIsInstantaneous;
     internal readonly bool[] CarriesCalcium;
     internal readonly double CapacitanceUfPerCm2;
@@ -39,6 +41,14 @@ public sealed class CellKinetics
     internal readonly double ShellInflowPerCurrent;
     internal readonly double ShellDecayMs;
     internal readonly double ShellRestMm;
+    /// <summary>True when the cell has a sodium shell (a sodium-gated channel, or a sodiumShell in the model).</summary>
+    internal readonly bool HasSodiumShell;
+    /// <summary>mM/ms of shell sodium per uA/cm2 of inward sodium current: 10 / (F d[um]) (see <see cref="SodiumShell"/>).</summary>
+    internal readonly double SodiumInflowPerCurrent;
+    internal readonly double SodiumShellDecayMs;
+    internal readonly double SodiumShellRestMm;
+    /// <summary>Channels whose current fills the sodium shell: those of ion sodium.</summary>
+    internal readonly bool[] CarriesSodium;
     internal readonly double CalciumOutsideMm;
     internal readonly double TemperatureC;
     /// <summary>What every loop reads per step: gate kinds, Hill and calcium-bound rate constants, drive modes.</summary>
@@ -87,6 +97,7 @@ public sealed class CellKinetics
         GateShiftMv = [.. shifts];
         GateTemperatureFactor = [.. factors];
         GateIsCalcium = Gates.Select(g => g.Kind == GateKind.Calcium).ToArray();
+        GateIsConcentrationGated = Gates.Select(g => g.Kind is GateKind.Calcium or GateKind.Sodium).ToArray();
         GateIsInstantaneous = Gates.Select(g => g.Instantaneous).ToArray();
         CarriesCalcium = model.Channels.Select(ch => ch.Entry.Ion == Ion.Calcium).ToArray();
         CapacitanceUfPerCm2 = model.Geometry.CapacitanceUfPerCm2;
@@ -101,6 +112,15 @@ public sealed class CellKinetics
         else
         {
             ShellRestMm = model.Ions.CalciumInsideMm;
+        }
+        CarriesSodium = model.Channels.Select(ch => ch.Entry.Ion == Ion.Sodium).ToArray();
+        SodiumShellRestMm = model.SodiumShellRestMm;
+        if (model.EffectiveSodiumShell is { } sodium)
+        {
+            HasSodiumShell = true;
+            // 1 uA/cm2 for 1 ms into a shell of depth d um: 1e-9 C/cm2 / F mol over d x 1e-4 cm3... = 10 / (F d) mM.
+            SodiumInflowPerCurrent = 10.0 / (PhysicalConstants.Faraday * sodium.DepthUm);
+            SodiumShellDecayMs = sodium.DecayMs;
         }
         Plan = new StepPlan(this);
     }
@@ -124,7 +144,7 @@ public sealed class CellKinetics
     {
         if (ReferenceEquals(model, _source)) return true;
         if (model.Geometry != _source.Geometry || model.TemperatureC != _source.TemperatureC || model.Ions != _source.Ions
-            || model.CalciumShell != _source.CalciumShell || model.InitialVoltageMv != _source.InitialVoltageMv
+            || model.CalciumShell != _source.CalciumShell || model.SodiumShell != _source.SodiumShell || model.InitialVoltageMv != _source.InitialVoltageMv
             || model.Channels.Count != ChannelCount)
             return false;
         for (int c = 0; c < ChannelCount; c++)
@@ -140,10 +160,14 @@ public sealed class CellKinetics
         || (a.Id == b.Id && a.Version == b.Version && a.Ion == b.Ion && a.Reversal == b.Reversal && a.ReversalMv == b.ReversalMv
             && a.ReferenceTemperatureC == b.ReferenceTemperatureC && a.Q10 == b.Q10 && a.Gates.SequenceEqual(b.Gates));
 
-    /// <summary>Steady state of gate g at V (mV) and calcium (mM), with the channel's voltage shift.</summary>
-    internal double GateSteadyState(int g, double vMv, double calciumMm) =>
-        Plan.Update[g] == GateUpdate.CalciumHill ? Plan.HillSteadyState<ScalarLanes, double>(g, calciumMm)
-            : Gates[g].SteadyStateAt(vMv - GateShiftMv[g], calciumMm);
+    /// <summary>Steady state of gate g at V (mV), calcium and shell sodium (mM), with the channel's voltage shift.</summary>
+    internal double GateSteadyState(int g, double vMv, double calciumMm, double sodiumMm) =>
+        Plan.Update[g] switch
+        {
+            GateUpdate.CalciumHill => Plan.HillSteadyState<ScalarLanes, double>(g, calciumMm),
+            GateUpdate.SodiumHill => Plan.HillSteadyState<ScalarLanes, double>(g, sodiumMm),
+            _ => Gates[g].SteadyStateAt(vMv - GateShiftMv[g], calciumMm),
+        };
 
     /// <summary>Time constant (ms) of gate g at V and intracellular calcium, scaled for temperature by Q10.</summary>
     internal double GateTimeConstantMs(int g, double vMv, double calciumMm) =>

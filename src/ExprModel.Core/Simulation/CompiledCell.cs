@@ -28,6 +28,10 @@ public sealed class CompiledCell
     internal double ShellRestMm => Kinetics.ShellRestMm;
     internal double CalciumOutsideMm => Kinetics.CalciumOutsideMm;
     internal double TemperatureC => Kinetics.TemperatureC;
+    internal bool HasSodiumShell => Kinetics.HasSodiumShell;
+    internal double SodiumInflowPerCurrent => Kinetics.SodiumInflowPerCurrent;
+    internal double SodiumShellDecayMs => Kinetics.SodiumShellDecayMs;
+    internal double SodiumShellRestMm => Kinetics.SodiumShellRestMm;
 
     public CompiledCell(CellModel model) : this(Checked(model), null) { }
 
@@ -64,8 +68,9 @@ public sealed class CompiledCell
     /// <summary>Channel names in model order, as "entry-id" (used to label recorded currents).</summary>
     public IReadOnlyList<string> ChannelIds => Model.Channels.Select(c => c.Entry.Id).ToArray();
 
-    /// <summary>Steady state of gate g at V (mV) and calcium (mM), with the channel's voltage shift.</summary>
-    public double GateSteadyState(int g, double vMv, double calciumMm) => Kinetics.GateSteadyState(g, vMv, calciumMm);
+    /// <summary>Steady state of gate g at V (mV), calcium and shell sodium (mM; NaN = resting shell sodium), with the channel's voltage shift.</summary>
+    public double GateSteadyState(int g, double vMv, double calciumMm, double sodiumMm = double.NaN) =>
+        Kinetics.GateSteadyState(g, vMv, calciumMm, double.IsNaN(sodiumMm) ? SodiumShellRestMm : sodiumMm);
 
     /// <summary>Time constant (ms) of gate g at V, scaled for temperature by Q10.</summary>
     public double GateTimeConstantMs(int g, double vMv) => Kinetics.GateTimeConstantMs(g, vMv);
@@ -77,8 +82,8 @@ public sealed class CompiledCell
     public CellState SteadyState(double vMv)
     {
         var x = new double[GateCount];
-        for (int g = 0; g < GateCount; g++) x[g] = GateSteadyState(g, vMv, ShellRestMm);
-        return new CellState(vMv, x, ShellRestMm);
+        for (int g = 0; g < GateCount; g++) x[g] = GateSteadyState(g, vMv, ShellRestMm, SodiumShellRestMm);
+        return new CellState(vMv, x, ShellRestMm, SodiumShellRestMm);
     }
 
     public CellState InitialState() => SteadyState(Model.InitialVoltageMv);
@@ -111,24 +116,34 @@ public sealed class CompiledCell
         return sum;
     }
 
+    /// <summary>Total sodium current (uA/cm2) for the sodium shell: every channel of ion sodium.</summary>
+    internal double SodiumCurrent(double vMv, ReadOnlySpan<double> gates, double calciumMm)
+    {
+        double sum = 0;
+        for (int c = 0; c < ChannelCount; c++)
+            if (Plan.CarriesSodium[c]) sum += ChannelCurrent(c, vMv, gates, calciumMm);
+        return sum;
+    }
+
     /// <summary>
-    /// Right-hand side of the full ODE, y = [V, gates..., Ca], used by the reference integrators and the
+    /// Right-hand side of the full ODE, y = [V, gates..., Ca (with a calcium shell), Na (with a sodium shell)], used by the reference integrators and the
     /// stability analysis. Instantaneous gates are held at their steady state (their derivative is zero).
     /// </summary>
     public void Derivatives(ReadOnlySpan<double> y, double stimulusUaPerCm2, Span<double> dy)
     {
         double v = y[0];
         double ca = HasShell ? y[GateCount + 1] : ShellRestMm;
+        double na = HasSodiumShell ? y[SodiumIndex] : SodiumShellRestMm;
         Span<double> x = GateCount <= 64 ? stackalloc double[GateCount] : new double[GateCount];
         for (int g = 0; g < GateCount; g++)
-            x[g] = GateIsInstantaneous[g] ? GateSteadyState(g, v, ca) : y[g + 1];
+            x[g] = GateIsInstantaneous[g] ? GateSteadyState(g, v, ca, na) : y[g + 1];
         double total = 0;
         for (int c = 0; c < ChannelCount; c++) total += ChannelCurrent(c, v, x, ca);
         dy[0] = (stimulusUaPerCm2 - total) / CapacitanceUfPerCm2;
         for (int g = 0; g < GateCount; g++)
         {
             if (GateIsInstantaneous[g]) { dy[g + 1] = 0; continue; }
-            double inf = GateSteadyState(g, v, ca);
+            double inf = GateSteadyState(g, v, ca, na);
             double tau = GateTimeConstantMs(g, v, ca);
             dy[g + 1] = (inf - y[g + 1]) / tau;
         }
@@ -137,9 +152,17 @@ public sealed class CompiledCell
             double ica = CalciumCurrent(v, x, ca);
             dy[GateCount + 1] = -ShellInflowPerCurrent * ica - (ca - ShellRestMm) / ShellDecayMs;
         }
+        if (HasSodiumShell)
+        {
+            double ina = SodiumCurrent(v, x, ca);
+            dy[SodiumIndex] = -SodiumInflowPerCurrent * ina - (na - SodiumShellRestMm) / SodiumShellDecayMs;
+        }
     }
 
-    public int StateLength => GateCount + (HasShell ? 2 : 1);
+    public int StateLength => GateCount + (HasShell ? 2 : 1) + (HasSodiumShell ? 1 : 0);
+
+    /// <summary>Index of shell sodium in the packed state (after the calcium shell's, when there is one).</summary>
+    private int SodiumIndex => GateCount + (HasShell ? 2 : 1);
 
     public double[] Pack(CellState s)
     {
@@ -147,11 +170,12 @@ public sealed class CompiledCell
         y[0] = s.VoltageMv;
         Array.Copy(s.Gates, 0, y, 1, GateCount);
         if (HasShell) y[GateCount + 1] = s.CalciumMm;
+        if (HasSodiumShell) y[SodiumIndex] = double.IsNaN(s.SodiumMm) ? SodiumShellRestMm : s.SodiumMm;
         return y;
     }
 
     public CellState Unpack(ReadOnlySpan<double> y) =>
-        new(y[0], y.Slice(1, GateCount).ToArray(), HasShell ? y[GateCount + 1] : ShellRestMm);
+        new(y[0], y.Slice(1, GateCount).ToArray(), HasShell ? y[GateCount + 1] : ShellRestMm, HasSodiumShell ? y[SodiumIndex] : SodiumShellRestMm);
 
     /// <summary>Names each gate as "entry-id.gate" for error messages.</summary>
     public string GateLabel(int g) => Kinetics.GateLabel(g);

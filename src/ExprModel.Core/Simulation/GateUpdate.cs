@@ -11,4 +11,6 @@ internal enum GateUpdate : byte
     CalciumHill,
     /// <summary>Calcium-bound opening and closing rates (BK-type) evaluated every step from V and calcium.</summary>
     CalciumRates,
+    /// <summary>Hill steady state of shell sodium (KNa-type) with a constant time constant; the Hill constants are the calcium Hill gate's.</summary>
+    SodiumHill,
 }

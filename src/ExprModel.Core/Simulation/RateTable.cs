@@ -13,7 +13,7 @@ internal sealed unsafe class RateTable
     public const double ResolutionMv = 0.01;
     public readonly int Points;
     public readonly double[]?[] Data;
-    /// <summary>For calcium gates: the per-step decay e^(-dt/tau) (tau is voltage-independent).</summary>
+    /// <summary>For calcium- and sodium-gated (Hill) gates: the per-step decay e^(-dt/tau) (tau is voltage-independent).</summary>
     public readonly double[] CalciumDecay;
     public readonly double DtMs;
     /// <summary>
@@ -58,7 +58,7 @@ internal sealed unsafe class RateTable
         CalciumDecay = new double[cell.GateCount];
         for (int g = 0; g < cell.GateCount; g++)
         {
-            if (cell.GateIsCalcium[g])
+            if (cell.GateIsConcentrationGated[g])
             {
                 CalciumDecay[g] = Math.Exp(-dtMs / cell.GateTimeConstantMs(g, 0));
                 continue;
@@ -82,7 +82,7 @@ internal sealed unsafe class RateTable
         for (int i = 0; i < points; i++)
         {
             double v = MinMv + i * ResolutionMv;
-            double inf = cell.GateSteadyState(g, v, cell.ShellRestMm);
+            double inf = cell.GateSteadyState(g, v, cell.ShellRestMm, cell.SodiumShellRestMm);
             if (instant)
             {
                 t[2 * i] = 0;

@@ -31,6 +31,7 @@ internal static class ScalarLoop
         double dt = settings.DtMs;
         var x = (double[])init.Gates.Clone();
         double v = init.VoltageMv, ca = init.CalciumMm;
+        double na = double.IsNaN(init.SodiumMm) ? cell.SodiumShellRestMm : init.SodiumMm;
         var data = table.Data;
         var caDecay = table.CalciumDecay;
         var plan = cell.Plan;
@@ -53,6 +54,12 @@ internal static class ScalarLoop
         double shellDecay = hasShell ? Math.Exp(-dt / cell.ShellDecayMs) : 0;
         double shellGain = hasShell ? cell.ShellInflowPerCurrent * cell.ShellDecayMs : 0;
         double shellRest = cell.ShellRestMm;
+        // The sodium shell (KNa): the calcium shell's exact relaxation, filled by the sodium channels' current.
+        bool hasSodiumShell = cell.HasSodiumShell;
+        var carriesSodium = plan.CarriesSodium;
+        double sodiumDecay = hasSodiumShell ? Math.Exp(-dt / cell.SodiumShellDecayMs) : 0;
+        double sodiumGain = hasSodiumShell ? cell.SodiumInflowPerCurrent * cell.SodiumShellDecayMs : 0;
+        double sodiumRest = cell.SodiumShellRestMm;
 
         int every = settings.RecordEvery;
         int samples = every > 0 ? (steps - firstStep) / every + 1 : 0;
@@ -61,6 +68,7 @@ internal static class ScalarLoop
         var iRec = new double[samples];
         double[][]? currents = every > 0 && settings.RecordCurrents ? Enumerable.Range(0, channelCount).Select(_ => new double[samples]).ToArray() : null;
         double[]? caRec = every > 0 && hasShell ? new double[samples] : null;
+        double[]? naRec = every > 0 && hasSodiumShell ? new double[samples] : null;
         double[]? gatesRec = every > 0 && settings.RecordGateStates ? new double[samples * gateCount] : null;
         var spikes = new List<double>();
         var resumePoints = new List<ResumePoint>();
@@ -73,6 +81,7 @@ internal static class ScalarLoop
             tRec[0] = firstStep * dt;
             vRec[0] = v;
             if (caRec is not null) caRec[0] = ca;
+            if (naRec is not null) naRec[0] = na;
             if (currents is not null) RecordCurrents(cell, currents, 0, v, x, ca);
             if (gatesRec is not null) Array.Copy(x, 0, gatesRec, 0, gateCount);
         }
@@ -81,7 +90,7 @@ internal static class ScalarLoop
         {
             if ((s & 0xFFF) == 0 && cancel.IsCancellationRequested) cancel.ThrowIfCancellationRequested();
             if (keepResume && s % SimulationSettings.ResumePointEverySteps == 0)
-                resumePoints.Add(new ResumePoint(s, s * dt, new CellState(v, (double[])x.Clone(), ca), vPrevious));
+                resumePoints.Add(new ResumePoint(s, s * dt, new CellState(v, (double[])x.Clone(), ca, na), vPrevious));
             double pos = (v - RateTable.MinMv) * invRes;
             if (pos < 0) pos = 0;
             else if (pos > maxIndex) pos = maxIndex;
@@ -123,6 +132,12 @@ internal static class ScalarLoop
                             // BK-type: both rates once per step give the steady state and the exact decay for the step.
                             double inf = plan.CalciumRatesSteadyState(k, v, ca, out double rateSum);
                             x[k] = inf + (x[k] - inf) * Math.Exp(rateSum * calciumRateExponent[k]);
+                            break;
+                        }
+                    case GateUpdate.SodiumHill:
+                        {
+                            double inf = plan.HillSteadyState<ScalarLanes, double>(k, na);
+                            x[k] = inf + (x[k] - inf) * caDecay[k];
                             break;
                         }
                 }
@@ -177,6 +192,17 @@ internal static class ScalarLoop
                 if (ca < 0) ca = 0;
             }
 
+            if (hasSodiumShell)
+            {
+                // Sodium channels are ohmic (fixed E_Na): current at the midpoint V with the step's midpoint conductances.
+                double vMid = 0.5 * (v + vOld), ina = 0;
+                for (int c = 0; c < channelCount; c++)
+                    if (carriesSodium[c]) ina += g[c] * (vMid - erev[c]);
+                double naInf = sodiumRest - sodiumGain * ina;
+                na = naInf + (na - naInf) * sodiumDecay;
+                if (na < 0) na = 0;
+            }
+
             if (!(v > -1000 && v < 1000))
                 throw Simulator.BlowUp(cell, (s + 1) * dt, vOld, x, ca, iStim);
 
@@ -195,6 +221,7 @@ internal static class ScalarLoop
                 vRec[r] = v;
                 iRec[r] = iStim;
                 if (caRec is not null) caRec[r] = ca;
+                if (naRec is not null) naRec[r] = na;
                 if (currents is not null) RecordCurrents(cell, currents, r, v, x, ca);
                 if (gatesRec is not null) Array.Copy(x, 0, gatesRec, r * gateCount, gateCount);
             }
@@ -210,10 +237,11 @@ internal static class ScalarLoop
             StimulusUaPerCm2 = iRec,
             ChannelCurrentsUaPerCm2 = dict,
             CalciumMm = caRec,
+            SodiumMm = naRec,
             GateStates = gatesRec,
             SpikeTimesMs = spikes,
             ResumePoints = resumePoints,
-            FinalState = new CellState(v, x, ca),
+            FinalState = new CellState(v, x, ca, na),
             DurationMs = steps * dt,
         };
     }

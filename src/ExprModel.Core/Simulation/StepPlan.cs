@@ -25,7 +25,8 @@ internal sealed class StepPlan
     public readonly DriveMode[] Mode;
     public readonly double[] ErevMv;
     public readonly bool[] CarriesCalcium;
-    /// <summary>Hill gates: |n|, n itself when it is a whole number 1 to 8 (powered by multiplication, else 0), the direction and K^|n|.</summary>
+    public readonly bool[] CarriesSodium;
+    /// <summary>Hill gates (calcium or sodium): |n|, n when it is a whole number 1 to 8 (powered by multiplication, else 0), direction, K^|n|.</summary>
     public readonly double[] HillMagnitude;
     public readonly int[] HillWholePower;
     public readonly bool[] HillRises;
@@ -39,6 +40,7 @@ internal sealed class StepPlan
     private readonly double[] _rateFactor;
     private readonly double[] _temperatureFactor;
     public readonly bool AnyInstantaneous;
+    public readonly bool AnySodiumGate;
     public readonly bool AnyNonOhmic;
     public readonly bool AnyNernstCalcium;
     public readonly bool AnyGhkCalcium;
@@ -56,6 +58,7 @@ internal sealed class StepPlan
         Mode = k.Mode;
         ErevMv = k.Erev;
         CarriesCalcium = k.CarriesCalcium;
+        CarriesSodium = k.CarriesSodium;
         var gates = k.Gates;
         Update = new GateUpdate[GateCount];
         HillMagnitude = new double[GateCount];
@@ -72,6 +75,14 @@ internal sealed class StepPlan
         for (int g = 0; g < GateCount; g++)
         {
             var gate = gates[g];
+            if (gate.Kind == GateKind.Sodium)
+            {
+                // Same Hill constants as a calcium Hill gate; the loops feed it shell sodium instead.
+                var na = gate.Sodium!;
+                Update[g] = GateUpdate.SodiumHill;
+                SetHill(g, na.HillCoefficient, na.HalfActivationMm);
+                continue;
+            }
             if (gate.Kind != GateKind.Calcium)
             {
                 Update[g] = gate.Instantaneous ? GateUpdate.TableInstantaneous : GateUpdate.Table;
@@ -81,11 +92,7 @@ internal sealed class StepPlan
             {
                 // x_inf = ca^m / (ca^m + K^m), or K^m / (K^m + ca^m) for a negative coefficient (see CalciumSensitivity).
                 Update[g] = GateUpdate.CalciumHill;
-                double m = Math.Abs(hill.HillCoefficient);
-                HillMagnitude[g] = m;
-                HillWholePower[g] = m == Math.Floor(m) && m is >= 1 and <= 8 ? (int)m : 0;
-                HillRises[g] = hill.RisesWithCalcium;
-                HillHalfPower[g] = Math.Pow(hill.HalfActivationMm, m);
+                SetHill(g, hill.HillCoefficient, hill.HalfActivationMm);
                 continue;
             }
             Update[g] = GateUpdate.CalciumRates;
@@ -95,10 +102,20 @@ internal sealed class StepPlan
             else
                 CalciumRatesAreBound = false;
         }
+        AnySodiumGate = Update.Contains(GateUpdate.SodiumHill);
         AnyInstantaneous = Update.Contains(GateUpdate.TableInstantaneous);
         AnyNonOhmic = Mode.Any(m => m != DriveMode.Ohmic);
         AnyNernstCalcium = Mode.Contains(DriveMode.NernstCalcium);
         AnyGhkCalcium = Mode.Contains(DriveMode.GhkCalcium);
+    }
+
+    private void SetHill(int g, double coefficient, double halfActivationMm)
+    {
+        double m = Math.Abs(coefficient);
+        HillMagnitude[g] = m;
+        HillWholePower[g] = m == Math.Floor(m) && m is >= 1 and <= 8 ? (int)m : 0;
+        HillRises[g] = coefficient > 0;
+        HillHalfPower[g] = Math.Pow(halfActivationMm, m);
     }
 
     /// <summary>Conductance (mS/cm2) of channel c: its density times each gate raised to its power (by multiplication).</summary>
@@ -124,19 +141,20 @@ internal sealed class StepPlan
         return g;
     }
 
-    /// <summary>Steady state of Hill gate g at shell calcium (mM): whole coefficients by multiplication, others by a power.</summary>
+    /// <summary>Steady state of Hill gate g at its shell concentration (calcium or sodium, mM): whole coefficients by multiplication, else a power.</summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    public T HillSteadyState<TMath, T>(int g, T calciumMm) where TMath : ILaneMath<T> where T : struct =>
-        HillSteadyState<TMath, T>(calciumMm, HillWholePower[g], TMath.Broadcast(HillMagnitude[g]), TMath.Broadcast(HillHalfPower[g]), HillRises[g]);
+    public T HillSteadyState<TMath, T>(int g, T concentrationMm) where TMath : ILaneMath<T> where T : struct =>
+        HillSteadyState<TMath, T>(concentrationMm, HillWholePower[g], TMath.Broadcast(HillMagnitude[g]), TMath.Broadcast(HillHalfPower[g]), HillRises[g]);
 
     /// <summary>
     /// The Hill steady state from a gate's constants (<see cref="HillWholePower"/>, <see cref="HillMagnitude"/>,
     /// <see cref="HillHalfPower"/>, <see cref="HillRises"/>), for hot loops that keep them broadcast in locals.
     /// </summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    public static T HillSteadyState<TMath, T>(T calciumMm, int wholePower, T magnitude, T halfPower, bool rises) where TMath : ILaneMath<T> where T : struct
+    public static T HillSteadyState<TMath, T>(T concentrationMm, int wholePower, T magnitude, T halfPower, bool rises)
+        where TMath : ILaneMath<T> where T : struct
     {
-        var c0 = TMath.Max(calciumMm, TMath.Broadcast(0));
+        var c0 = TMath.Max(concentrationMm, TMath.Broadcast(0));
         T cn;
         if (wholePower > 0)
         {

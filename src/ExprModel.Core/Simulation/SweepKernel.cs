@@ -5,8 +5,8 @@ namespace ExprModel.Core.Simulation;
 
 /// <summary>
 /// The sweep hot loop with four stimuli as SIMD lanes (AVX2 gathers from the rate tables, FMA, vector exp). Same staggered scheme and the same spike rule as
-/// the scalar loop, so results agree with it to rounding. Handles voltage gates from tables, calcium-gated (Hill) gates, calcium
-/// channels with a Nernst or GHK driving force and the calcium shell, exactly as the scalar loop orders them. What each
+/// the scalar loop, so results agree with it to rounding. Handles voltage gates from tables, calcium- and sodium-gated (Hill) gates,
+/// calcium channels with a Nernst or GHK driving force and the calcium and sodium shells, exactly as the scalar loop orders them. What each
 /// gate and channel needs comes from the cell's <see cref="StepPlan"/>; the shared formulas run here on <see cref="VectorLanes"/>.
 /// </summary>
 internal static unsafe class SweepKernel
@@ -103,6 +103,13 @@ internal static unsafe class SweepKernel
         var shellGain = Vector256.Create(hasShell ? cell.ShellInflowPerCurrent * cell.ShellDecayMs : 0);
         var shellRest = Vector256.Create(cell.ShellRestMm);
         var ca = Vector256.Create(init.CalciumMm);
+        // The sodium shell (KNa), as the scalar loop keeps it.
+        bool hasSodiumShell = cell.HasSodiumShell;
+        var carriesSodium = plan.CarriesSodium;
+        var sodiumDecay = Vector256.Create(hasSodiumShell ? Math.Exp(-dt / cell.SodiumShellDecayMs) : 0);
+        var sodiumGain = Vector256.Create(hasSodiumShell ? cell.SodiumInflowPerCurrent * cell.SodiumShellDecayMs : 0);
+        var sodiumRest = Vector256.Create(cell.SodiumShellRestMm);
+        var na = Vector256.Create(double.IsNaN(init.SodiumMm) ? cell.SodiumShellRestMm : init.SodiumMm);
         var gcs = new Vector256<double>[channels];
         var v = Vector256.Create(init.VoltageMv);
         var vPrev = v;
@@ -138,6 +145,7 @@ internal static unsafe class SweepKernel
         var ckV = new Vector256<double>[ring];
         var ckVPrev = new Vector256<double>[ring];
         var ckCa = new Vector256<double>[ring];
+        var ckNa = new Vector256<double>[ring];
         var ckStep = new int[ring];
         Array.Fill(ckStep, -1);
         var crossed = new bool[width];
@@ -158,6 +166,7 @@ internal static unsafe class SweepKernel
                     ckV[slot] = v;
                     ckVPrev[slot] = vPrev;
                     ckCa[slot] = ca;
+                    ckNa[slot] = na;
                     Array.Copy(x, 0, ckX, slot * gates, gates);
                 }
                 var pos = Vector256.Min(Vector256.Max((v - vMin) * invRes, zero), maxPos);
@@ -178,8 +187,16 @@ internal static unsafe class SweepKernel
                 for (int g = 0; g < gates; g++)
                 {
                     var kind = update[g];
-                    if (kind == GateUpdate.CalciumRates)
+                    if (kind > GateUpdate.TableInstantaneous)
                     {
+                        if (kind != GateUpdate.CalciumRates)
+                        {
+                            // Hill steady state of a calcium- or sodium-gated subunit; constant time constant.
+                            var hill = StepPlan.HillSteadyState<VectorLanes, Vector256<double>>(kind == GateUpdate.SodiumHill ? na : ca, hillWhole[g], hillV[g],
+                                hillHalfPower[g], hillRises[g]);
+                            x[g] = Fma.MultiplyAdd(x[g] - hill, caDecay[g], hill);
+                            continue;
+                        }
                         // BK-type: rates depend on V (with the channel's shift) and calcium; exact update for the step.
                         var vs = v - shiftV[g];
                         var opening = CalciumBoundRate.Evaluate(opens[g], openA[g], openC1[g], openK[g], vs, ca);
@@ -187,13 +204,6 @@ internal static unsafe class SweepKernel
                         var sum = opening + closing;
                         var inf = opening / sum;
                         x[g] = Fma.MultiplyAdd(x[g] - inf, InlineExp.Exp(sum * rateMult[g]), inf);
-                        continue;
-                    }
-                    if (kind == GateUpdate.CalciumHill)
-                    {
-                        // Hill steady state of a calcium-gated subunit; constant time constant.
-                        var inf = StepPlan.HillSteadyState<VectorLanes, Vector256<double>>(ca, hillWhole[g], hillV[g], hillHalfPower[g], hillRises[g]);
-                        x[g] = Fma.MultiplyAdd(x[g] - inf, caDecay[g], inf);
                         continue;
                     }
                     double* q = quads[g];
@@ -266,6 +276,16 @@ internal static unsafe class SweepKernel
                     ca = Vector256.Max(Fma.MultiplyAdd(ca - caInf, shellDecay, caInf), zero);
                 }
 
+                if (hasSodiumShell)
+                {
+                    var vMid = (v + vPrev) * half;
+                    var ina = zero;
+                    for (int c = 0; c < channels; c++)
+                        if (carriesSodium[c]) ina = Fma.MultiplyAdd(gcs[c], vMid - erev[c], ina);
+                    var naInf = sodiumRest - sodiumGain * ina;
+                    na = Vector256.Max(Fma.MultiplyAdd(na - naInf, sodiumDecay, naInf), zero);
+                }
+
                 if (!Vector256.LessThanAll(Vector256.Abs(v), limit))
                 {
                     for (int l = 0; l < lanes; l++)
@@ -302,7 +322,7 @@ internal static unsafe class SweepKernel
                             {
                                 crossed[l] = true;
                                 firstCrossTime[l] = pending[l];
-                                candidate[l] = Snapshot(l, (int)Math.Floor(pending[l] / dt) - marginSteps, ckStep, ckX, ckV, ckVPrev, ckCa, gates, dt);
+                                candidate[l] = Snapshot(l, (int)Math.Floor(pending[l] / dt) - marginSteps, ckStep, ckX, ckV, ckVPrev, ckCa, ckNa, gates, dt);
                             }
                         }
                         if (!double.IsNaN(pending[l])) anyPending = true;
@@ -331,7 +351,7 @@ internal static unsafe class SweepKernel
 
     /// <summary>Lane l of the newest ring snapshot taken at or before step 'latest' (null when none is that early).</summary>
     private static ResumePoint? Snapshot(int l, int latest, int[] ckStep, Vector256<double>[] ckX, Vector256<double>[] ckV, Vector256<double>[] ckVPrev,
-        Vector256<double>[] ckCa, int gates, double dt)
+        Vector256<double>[] ckCa, Vector256<double>[] ckNa, int gates, double dt)
     {
         int best = -1;
         for (int k = 0; k < ckStep.Length; k++)
@@ -339,6 +359,6 @@ internal static unsafe class SweepKernel
         if (best < 0) return null;
         var gs = new double[gates];
         for (int g = 0; g < gates; g++) gs[g] = ckX[best * gates + g][l];
-        return new ResumePoint(ckStep[best], ckStep[best] * dt, new CellState(ckV[best][l], gs, ckCa[best][l]), ckVPrev[best][l]);
+        return new ResumePoint(ckStep[best], ckStep[best] * dt, new CellState(ckV[best][l], gs, ckCa[best][l], ckNa[best][l]), ckVPrev[best][l]);
     }
 }

@@ -10,6 +10,8 @@ public sealed class Trace
     /// <summary>Per channel id, membrane current density (uA/cm2, outward positive), when recorded.</summary>
     public IReadOnlyDictionary<string, double[]> ChannelCurrentsUaPerCm2 { get; init; } = new Dictionary<string, double[]>();
     public double[]? CalciumMm { get; init; }
+    /// <summary>Shell sodium (mM) per sample, for cells with a sodium shell.</summary>
+    public double[]? SodiumMm { get; init; }
     /// <summary>Gate states per recorded sample, sample-major (sample r, gate k at r * gate count + k), when recorded.</summary>
     public double[]? GateStates { get; init; }
     public required IReadOnlyList<double> SpikeTimesMs { get; init; }

@@ -42,7 +42,7 @@ public static class VoltageClamp
     {
         var state = cell.SteadyState(holdingMv);
         var x = state.Gates;
-        double ca = state.CalciumMm;
+        double ca = state.CalciumMm, na = state.SodiumMm;
         var ends = new int[before.Length];
         int holdSteps = 0;
         for (int k = 0; k < before.Length; k++) ends[k] = holdSteps += (int)Math.Round(before[k].Ms / dtMs);
@@ -61,7 +61,7 @@ public static class VoltageClamp
             {
                 for (int g = 0; g < cell.GateCount; g++)
                 {
-                    double inf = cell.GateSteadyState(g, v, ca);
+                    double inf = cell.GateSteadyState(g, v, ca, na);
                     if (cell.GateIsInstantaneous[g]) { x[g] = inf; continue; }
                     double tau = cell.GateTimeConstantMs(g, v, ca);
                     x[g] = inf + (x[g] - inf) * Math.Exp(-dtMs / tau);
@@ -71,6 +71,12 @@ public static class VoltageClamp
                     double ica = cell.CalciumCurrent(v, x, ca);
                     double caInf = cell.ShellRestMm - cell.ShellInflowPerCurrent * cell.ShellDecayMs * ica;
                     ca = Math.Max(0, caInf + (ca - caInf) * Math.Exp(-dtMs / cell.ShellDecayMs));
+                }
+                if (cell.HasSodiumShell)
+                {
+                    double ina = cell.SodiumCurrent(v, x, ca);
+                    double naInf = cell.SodiumShellRestMm - cell.SodiumInflowPerCurrent * cell.SodiumShellDecayMs * ina;
+                    na = Math.Max(0, naInf + (na - naInf) * Math.Exp(-dtMs / cell.SodiumShellDecayMs));
                 }
             }
             for (int c = 0; c < cell.ChannelCount; c++)

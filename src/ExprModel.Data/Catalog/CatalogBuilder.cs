@@ -14,8 +14,11 @@ namespace ExprModel.Data.Catalog;
 /// </summary>
 public static class CatalogBuilder
 {
-    /// <summary>2: citation check (sources), the paper's stated conductance (entries), link reason (gene_links).</summary>
-    public const int SchemaVersion = 2;
+    /// <summary>
+    /// 2: citation check (sources), the paper's stated conductance (entries), link reason (gene_links). 3: unitary_conductances.
+    /// 4: sodium-gated gates (na_half_mm, na_hill, na_tau_ms).
+    /// </summary>
+    public const int SchemaVersion = 4;
 
     public const string Schema = """
         CREATE TABLE meta (key TEXT PRIMARY KEY, value TEXT NOT NULL);
@@ -36,7 +39,7 @@ public static class CatalogBuilder
         CREATE TABLE gates (
             entry_id TEXT NOT NULL, version INTEGER NOT NULL, ordinal INTEGER NOT NULL, name TEXT NOT NULL,
             power INTEGER NOT NULL, kind TEXT NOT NULL, instantaneous INTEGER NOT NULL, rate_factor REAL NOT NULL,
-            ca_half_mm REAL, ca_hill REAL, ca_tau_ms REAL,
+            ca_half_mm REAL, ca_hill REAL, ca_tau_ms REAL, na_half_mm REAL, na_hill REAL, na_tau_ms REAL,
             PRIMARY KEY (entry_id, version, ordinal), FOREIGN KEY (entry_id, version) REFERENCES entries(entry_id, version));
         CREATE TABLE gate_rates (
             entry_id TEXT NOT NULL, version INTEGER NOT NULL, gate_ordinal INTEGER NOT NULL,
@@ -57,6 +60,8 @@ public static class CatalogBuilder
             identifier TEXT NOT NULL, kind TEXT NOT NULL, symbol TEXT NOT NULL, species TEXT NOT NULL);
         CREATE INDEX gene_identifiers_by_id ON gene_identifiers(identifier);
         CREATE TABLE presets (preset_id TEXT PRIMARY KEY, name TEXT NOT NULL, citation TEXT NOT NULL, model_json TEXT NOT NULL);
+        CREATE TABLE unitary_conductances (
+            key TEXT PRIMARY KEY, conductance_ps REAL NOT NULL, family_default INTEGER NOT NULL, citation TEXT NOT NULL, note TEXT NOT NULL);
         """;
 
     /// <summary>Parses every source (failing with file and line on the first bad one) and writes the database.</summary>
@@ -78,6 +83,9 @@ public static class CatalogBuilder
                 WriteGenes(conn, tx, content);
                 foreach (var (id, doc) in content.Presets.OrderBy(p => p.Key, StringComparer.Ordinal))
                     Insert(conn, tx, "INSERT INTO presets VALUES ($a,$b,$c,$d)", id, doc.Name, doc.Citation, doc.ToJson());
+                foreach (var u in content.UnitaryConductances.Rows)
+                    Insert(conn, tx, "INSERT INTO unitary_conductances VALUES ($a,$b,$c,$d,$e)", u.Key, u.ConductancePs, u.IsFamilyDefault ? 1 : 0,
+                        u.Citation, u.Note);
                 tx.Commit();
             }
             File.Move(tmp, databasePath, overwrite: true);
@@ -117,9 +125,10 @@ public static class CatalogBuilder
             for (int i = 0; i < e.Gates.Count; i++)
             {
                 var g = e.Gates[i];
-                Insert(conn, tx, "INSERT INTO gates VALUES ($a,$b,$c,$d,$e,$f,$g,$h,$i,$j,$k)",
+                Insert(conn, tx, "INSERT INTO gates VALUES ($a,$b,$c,$d,$e,$f,$g,$h,$i,$j,$k,$l,$m,$n)",
                     e.Id, e.Version, i, g.Name, g.Power, Word(g.Kind), g.Instantaneous ? 1 : 0, g.RateFactor,
-                    g.Calcium?.HalfActivationMm, g.Calcium?.HillCoefficient, g.Calcium?.TimeConstantMs);
+                    g.Calcium?.HalfActivationMm, g.Calcium?.HillCoefficient, g.Calcium?.TimeConstantMs,
+                    g.Sodium?.HalfActivationMm, g.Sodium?.HillCoefficient, g.Sodium?.TimeConstantMs);
                 foreach (var (role, r) in new[] { ("alpha", g.Alpha), ("beta", g.Beta), ("steady", g.SteadyState), ("tau", g.TimeConstantMs) })
                 {
                     if (r is null) continue;

@@ -4,6 +4,7 @@ using ExprModel.Core.Expression.Identifiers;
 using ExprModel.Core.Kinetics;
 using ExprModel.Core.Mapping;
 using ExprModel.Core.Models;
+using ExprModel.Core.Stochastic;
 
 namespace ExprModel.Data.Catalog;
 
@@ -18,6 +19,8 @@ public sealed class CatalogContent
     public required IReadOnlyDictionary<string, ModelDocument> Presets { get; init; }
     /// <summary>Provenance of the identifier table (source package, dates), from genes/identifiers.provenance.json.</summary>
     public required IReadOnlyDictionary<string, string> Provenance { get; init; }
+    /// <summary>Unitary conductances per entry or family default, from unitary-conductances.csv.</summary>
+    public required UnitaryConductances UnitaryConductances { get; init; }
 
     public static CatalogContent Parse(CatalogSources sources)
     {
@@ -93,8 +96,10 @@ public sealed class CatalogContent
             }
             presets[id] = doc;
         }
+        var unitary = ParseUnitary(sources, ids, entries.Select(e => e.Family).ToHashSet(StringComparer.Ordinal));
         return new CatalogContent
         {
+            UnitaryConductances = unitary,
             Entries = entries,
             EntryFiles = files,
             GeneLinks = links,
@@ -103,6 +108,36 @@ public sealed class CatalogContent
             Presets = presets,
             Provenance = provenance,
         };
+    }
+
+    internal const string UnitaryFile = "unitary-conductances.csv";
+
+    /// <summary>Reads the unitary-conductance table: entry ids must exist, families be known, values positive pS.</summary>
+    private static UnitaryConductances ParseUnitary(CatalogSources sources, HashSet<string> ids, HashSet<string> families)
+    {
+        if (!sources.Files.TryGetValue(UnitaryFile, out var text))
+            throw new CatalogException($"catalog/{UnitaryFile}: missing (every entry needs a unitary conductance or a family default).");
+        var rows = new List<UnitaryConductance>();
+        var seen = new HashSet<string>(StringComparer.Ordinal);
+        foreach (var (line, cols) in Csv(text, UnitaryFile, ["key", "conductance_ps", "basis", "citation", "note"]))
+        {
+            string key = cols[0];
+            bool family = key.StartsWith("family:", StringComparison.Ordinal);
+            if (family ? key != UnitaryConductances.LastResortKey && !families.Contains(key["family:".Length..]) : !ids.Contains(key))
+                throw new CatalogException($"catalog/{UnitaryFile}: line {line}, column key: unknown {(family ? "family" : "entry")} '{key}'.");
+            if (!seen.Add(key)) throw new CatalogException($"catalog/{UnitaryFile}: line {line}, column key: '{key}' appears twice.");
+            if (!double.TryParse(cols[1], NumberStyles.Float, CultureInfo.InvariantCulture, out var ps) || !(ps > 0) || ps > 1000)
+                throw new CatalogException($"catalog/{UnitaryFile}: line {line}, column conductance_ps: '{cols[1]}' is not a number of pS in (0, 1000].");
+            if (cols[2] != (family ? "family-default" : "entry"))
+                throw new CatalogException(
+                    $"catalog/{UnitaryFile}: line {line}, column basis: must be '{(family ? "family-default" : "entry")}' for key '{key}'.");
+            if (cols[3].Length == 0)
+                throw new CatalogException($"catalog/{UnitaryFile}: line {line}, column citation: empty (name the source or 'common practice').");
+            rows.Add(new UnitaryConductance(key, ps, family, cols[3], cols[4]));
+        }
+        if (!seen.Contains(UnitaryConductances.LastResortKey))
+            throw new CatalogException($"catalog/{UnitaryFile}: needs a '{UnitaryConductances.LastResortKey}' row (the default of last resort).");
+        return new UnitaryConductances(rows);
     }
 
     internal static Species ParseSpecies(string s, string file, int line) => s.ToLowerInvariant() switch

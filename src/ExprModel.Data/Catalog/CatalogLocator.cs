@@ -41,7 +41,10 @@ public static class CatalogLocator
         return Path.Combine(baseDir, "exprmodel", "catalog.db");
     }
 
-    /// <summary>True when the database at <paramref name="path"/> was built from exactly these sources.</summary>
+    /// <summary>
+    /// True when the database at <paramref name="path"/> was built from exactly these sources and passes
+    /// <c>PRAGMA quick_check</c> (damaged pages under an intact meta table make it stale: it is a cache, rebuilt from sources).
+    /// </summary>
     public static bool IsCurrent(string path, CatalogSources sources)
     {
         if (!File.Exists(path)) return false;
@@ -55,6 +58,8 @@ public static class CatalogLocator
             var hash = cmd.ExecuteScalar() as string;
             cmd.CommandText = "SELECT value FROM meta WHERE key = 'schema_version'";
             var schema = cmd.ExecuteScalar() as string;
+            cmd.CommandText = "PRAGMA quick_check";
+            if (cmd.ExecuteScalar() as string != "ok") return false;
             return hash == sources.ContentHash() && schema == CatalogBuilder.SchemaVersion.ToString(System.Globalization.CultureInfo.InvariantCulture);
         }
         catch (SqliteException)
@@ -69,7 +74,16 @@ public static class CatalogLocator
         databasePath ??= DefaultDatabasePath();
         sources ??= DefaultSources();
         if (!IsCurrent(databasePath, sources)) CatalogBuilder.Build(sources, databasePath);
-        return ChannelCatalog.Open(databasePath);
+        try
+        {
+            return ChannelCatalog.Open(databasePath);
+        }
+        catch (CatalogException e) when (e.InnerException is SqliteException)
+        {
+            // Damage quick_check missed: the database is a cache, so rebuild it once from the sources.
+            CatalogBuilder.Build(sources, databasePath);
+            return ChannelCatalog.Open(databasePath);
+        }
     }
 
     /// <summary>The process-wide default catalog, built on first use.</summary>

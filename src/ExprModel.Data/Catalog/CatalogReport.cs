@@ -131,7 +131,7 @@ public static class CatalogReport
     /// </summary>
     public static double? HalfActivationMv(GateSpec gate)
     {
-        if (gate.DependsOnCalcium) return null;
+        if (gate.DependsOnCalcium || gate.DependsOnSodium) return null;
         Func<double, double> f = gate.Kind == GateKind.SteadyStateAndTau && gate.SteadyState is { Shape: RateShape.Boltzmann, Exponent: not 1 } b
             ? v => (b with { Exponent = 1 }).Evaluate(v)
             : v => gate.SteadyStateAt(v);
@@ -140,7 +140,7 @@ public static class CatalogReport
 
     /// <summary>Voltage (mV) where the gate's contribution x_inf^p to the open probability crosses 0.5 (the conductance's half-activation).</summary>
     public static double? ConductanceHalfActivationMv(GateSpec gate) =>
-        gate.DependsOnCalcium ? null : Bisect(v => Math.Pow(gate.SteadyStateAt(v), gate.Power), -150, 100);
+        gate.DependsOnCalcium || gate.DependsOnSodium ? null : Bisect(v => Math.Pow(gate.SteadyStateAt(v), gate.Power), -150, 100);
 
     /// <summary>Intracellular calcium (mM) at which a calcium gate's steady state at <paramref name="vMv"/> is 0.5, by bisection in log
     /// concentration.</summary>
@@ -201,6 +201,12 @@ public static class CatalogReport
             }
             return sb.ToString();
         }
+        if (g.Sodium is { } na)
+        {
+            sb.Append(Inv, $"sodium half-activation {na.HalfActivationMm:G4} mM of shell sodium (Hill {na.HillCoefficient:G3}, ");
+            sb.Append(g.Instantaneous ? "follows sodium instantly)" : string.Format(Inv, "tau {0:G4} ms)", na.TimeConstantMs));
+            return sb.ToString();
+        }
         var half = HalfActivationMv(g);
         var cond = ConductanceHalfActivationMv(g);
         string what = ClosesWithDepolarisation(g) ? "half-(in)activation" : "half-activation";
@@ -219,6 +225,7 @@ public static class CatalogReport
     {
         var parts = e.Gates.Select(g => g.DependsOnCalcium
             ? $"{g.Name}: Ca {((CalciumHalfActivationMm(g, 0) ?? double.NaN) * 1000).ToString("G3", Inv)} uM"
+            : g.Sodium is { } na ? $"{g.Name}: Na {na.HalfActivationMm.ToString("G3", Inv)} mM"
             : $"{g.Name}: {(HalfActivationMv(g) is { } h ? h.ToString("0.0", Inv) : "-")}").ToArray();
         return parts.Length == 0 ? "-" : string.Join("; ", parts);
     }

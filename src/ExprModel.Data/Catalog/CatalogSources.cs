@@ -72,5 +72,5 @@ public sealed class CatalogSources
         (rel.StartsWith("models/", StringComparison.Ordinal) && rel.EndsWith(".json", StringComparison.Ordinal)) ||
         (rel.StartsWith("genes/", StringComparison.Ordinal)
             && (rel.EndsWith(".csv", StringComparison.Ordinal) || rel.EndsWith(".json", StringComparison.Ordinal))) ||
-        rel == "versions.lock";
+        rel == "versions.lock" || rel == "unitary-conductances.csv";
 }

@@ -2,6 +2,7 @@ using ExprModel.Core.Expression.Identifiers;
 using ExprModel.Core.Kinetics;
 using ExprModel.Core.Mapping;
 using ExprModel.Core.Models;
+using ExprModel.Core.Stochastic;
 using Microsoft.Data.Sqlite;
 
 namespace ExprModel.Data.Catalog;
@@ -23,10 +24,23 @@ public sealed class ChannelCatalog
     public IReadOnlyDictionary<string, ModelDocument> Presets { get; }
     public IReadOnlyDictionary<string, string> Meta { get; }
     public string DatabasePath { get; }
+    /// <summary>Unitary conductance of each entry (its own cited value or its family's labelled default).</summary>
+    public UnitaryConductances UnitaryConductances { get; }
+
+    /// <summary>How a methods paragraph names this catalog: its schema version and the first 12 hex digits of its sources' hash.</summary>
+    public string VersionLabel
+    {
+        get
+        {
+            string hash = Meta.GetValueOrDefault("source_hash", "?");
+            return $"schema {Meta.GetValueOrDefault("schema_version", "?")}, sources {hash[..Math.Min(12, hash.Length)]}";
+        }
+    }
 
     private ChannelCatalog(string path, List<ChannelEntry> entries, List<GeneLink> links, List<GeneStatus> statuses,
-        List<GeneIdentifier> ids, Dictionary<string, ModelDocument> presets, Dictionary<string, string> meta)
+        List<GeneIdentifier> ids, Dictionary<string, ModelDocument> presets, Dictionary<string, string> meta, UnitaryConductances unitary)
     {
+        UnitaryConductances = unitary;
         DatabasePath = path;
         AllVersions = entries;
         _byKey = entries.ToDictionary(e => e.Key, StringComparer.Ordinal);
@@ -62,7 +76,20 @@ public sealed class ChannelCatalog
         Presets.TryGetValue(id, out var p) ? p
             : throw new CatalogException($"Unknown preset '{id}'. Presets: {string.Join(", ", Presets.Keys.Order(StringComparer.Ordinal))}.");
 
+    /// <summary>Loads the catalog database; an SQLite error is a <see cref="CatalogException"/> naming the file.</summary>
     public static ChannelCatalog Open(string databasePath)
+    {
+        try
+        {
+            return Load(databasePath);
+        }
+        catch (SqliteException e)
+        {
+            throw new CatalogException($"{databasePath}: the catalog database cannot be read: {e.Message}", e);
+        }
+    }
+
+    private static ChannelCatalog Load(string databasePath)
     {
         if (!File.Exists(databasePath)) throw new CatalogException($"{databasePath}: catalog database not found; run 'exprmodel catalog build'.");
         using var conn =
@@ -91,7 +118,7 @@ public sealed class ChannelCatalog
         }
         var gates = new Dictionary<(string, long), List<GateSpec>>();
         foreach (var r in Rows(conn, "SELECT entry_id, version, ordinal, name, power, kind, instantaneous, rate_factor, ca_half_mm, ca_hill, " +
-            "ca_tau_ms FROM gates ORDER BY entry_id, version, ordinal"))
+            "ca_tau_ms, na_half_mm, na_hill, na_tau_ms FROM gates ORDER BY entry_id, version, ordinal"))
         {
             var key = (r.GetString(0), r.GetInt64(1));
             if (!gates.TryGetValue(key, out var list)) gates[key] = list = [];
@@ -105,6 +132,7 @@ public sealed class ChannelCatalog
                 Instantaneous = r.GetInt64(6) != 0,
                 RateFactor = r.GetDouble(7),
                 Calcium = r.IsDBNull(8) ? null : new CalciumSensitivity(r.GetDouble(8), r.GetDouble(9), r.GetDouble(10)),
+                Sodium = r.IsDBNull(11) ? null : new SodiumSensitivity(r.GetDouble(11), r.GetDouble(12), r.GetDouble(13)),
                 Alpha = rr.GetValueOrDefault("alpha"),
                 Beta = rr.GetValueOrDefault("beta"),
                 SteadyState = rr.GetValueOrDefault("steady"),
@@ -183,7 +211,9 @@ public sealed class ChannelCatalog
             .Select(r => new GeneIdentifier(r.GetString(0), r.GetString(1), r.GetString(2), ParseWord<Species>(r.GetString(3)))).ToList();
         var presets = Rows(conn, "SELECT preset_id, model_json FROM presets")
             .ToDictionary(r => r.GetString(0), r => ModelDocument.Parse(r.GetString(1), "preset " + r.GetString(0)), StringComparer.Ordinal);
-        return new ChannelCatalog(databasePath, entries, links, statuses, ids, presets, meta);
+        var unitary = new UnitaryConductances(Rows(conn, "SELECT key, conductance_ps, family_default, citation, note FROM unitary_conductances ORDER BY key")
+            .Select(r => new UnitaryConductance(r.GetString(0), r.GetDouble(1), r.GetInt64(2) != 0, r.GetString(3), r.GetString(4))).ToList());
+        return new ChannelCatalog(databasePath, entries, links, statuses, ids, presets, meta, unitary);
     }
 
     private static T ParseWord<T>(string s) where T : struct, Enum => Enum.Parse<T>(s.Replace("-", ""), ignoreCase: true);

@@ -159,16 +159,21 @@ public static class EntryFile
         public RateDto? Steady { get; set; }
         public RateDto? TauMs { get; set; }
         public CalciumDto? Calcium { get; set; }
+        /// <summary>A sodium-gated subunit: the same fields as <see cref="Calcium"/>, in mM of shell sodium.</summary>
+        public CalciumDto? Sodium { get; set; }
         public bool Instantaneous { get; set; }
         public double RateFactor { get; set; } = 1;
 
         public GateSpec ToGate(int index)
         {
             bool calciumRates = (Alpha is not null && IsCalciumShape(Alpha.Shape)) || (Beta is not null && IsCalciumShape(Beta.Shape));
-            GateKind kind = Calcium is not null || calciumRates ? GateKind.Calcium
+            if (Sodium is not null && (Calcium is not null || calciumRates || Alpha is not null || Beta is not null || Steady is not null))
+                throw new ArgumentException($"gates[{index}] ({Name}): a sodium gate takes only 'sodium' (no calcium, alpha, beta or steady).");
+            GateKind kind = Sodium is not null ? GateKind.Sodium
+                : Calcium is not null || calciumRates ? GateKind.Calcium
                 : Alpha is not null || Beta is not null ? GateKind.AlphaBeta
                 : Steady is not null ? GateKind.SteadyStateAndTau
-                : throw new ArgumentException($"gates[{index}] ({Name}): give alpha and beta, or steady and tauMs, or calcium.");
+                : throw new ArgumentException($"gates[{index}] ({Name}): give alpha and beta, or steady and tauMs, or calcium, or sodium.");
             return new GateSpec
             {
                 Name = Name,
@@ -179,6 +184,7 @@ public static class EntryFile
                 SteadyState = Steady?.ToRate($"gates[{index}].steady"),
                 TimeConstantMs = TauMs?.ToRate($"gates[{index}].tauMs"),
                 Calcium = Calcium is null ? null : new CalciumSensitivity(Calcium.HalfActivationMm, Calcium.Hill, Calcium.TauMs),
+                Sodium = Sodium is null ? null : new SodiumSensitivity(Sodium.HalfActivationMm, Sodium.Hill, Sodium.TauMs),
                 Instantaneous = Instantaneous,
                 RateFactor = RateFactor,
             };
@@ -196,6 +202,8 @@ public static class EntryFile
             TauMs = RateDto.From(g.TimeConstantMs),
             Calcium = g.Calcium is null ? null
                 : new CalciumDto { HalfActivationMm = g.Calcium.HalfActivationMm, Hill = g.Calcium.HillCoefficient, TauMs = g.Calcium.TimeConstantMs },
+            Sodium = g.Sodium is null ? null
+                : new CalciumDto { HalfActivationMm = g.Sodium.HalfActivationMm, Hill = g.Sodium.HillCoefficient, TauMs = g.Sodium.TimeConstantMs },
             Instantaneous = g.Instantaneous,
             RateFactor = g.RateFactor,
         };

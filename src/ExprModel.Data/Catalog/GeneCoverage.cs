@@ -51,11 +51,9 @@ public static class GeneCoverage
     /// <summary>CSV with header <c>symbol,species,status,entries</c>; entries separated by ';'.</summary>
     public static string ToCsv(IEnumerable<GeneCoverageRow> rows)
     {
-        var sb = new StringBuilder("symbol,species,status,entries\n");
-        foreach (var r in rows)
-            sb.Append(r.Symbol).Append(',').Append(r.Species.ToString().ToLowerInvariant()).Append(',').Append(r.Status).Append(',')
-              .Append(string.Join(';', r.Entries)).Append('\n');
-        return sb.ToString();
+        var csv = new ExprModel.Core.Export.CsvTable([], ["symbol", "species", "status", "entries"]);
+        foreach (var r in rows) csv.Row(r.Symbol, r.Species.ToString().ToLowerInvariant(), r.Status, string.Join(';', r.Entries));
+        return csv.ToString();
     }
 
     /// <summary>

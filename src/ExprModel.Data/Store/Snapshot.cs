@@ -25,4 +25,6 @@ public sealed record Snapshot
     /// <summary>What was recorded from the cell or group the model was built for (JSON, the app's own shape); null when
     /// nothing was, and in snapshots made before schema 2.</summary>
     public string? RecordedJson { get; init; }
+    /// <summary>SHA-256 of the content (<see cref="SnapshotContent.Sha256"/>), as stored and verified on reading; empty until stored.</summary>
+    public string ContentSha256 { get; init; } = "";
 }

@@ -30,19 +30,25 @@ public static class BuildApi
         var api = app.MapGroup("/api").WithTags("Build");
 
         api.MapPost("/build",
-            async Task<Ok<BuildResponse>> (HttpRequest request, IOptions<WebOptions> options, ChannelCatalog catalog, CancellationToken cancel) =>
+            async Task<Ok<BuildResponse>> (HttpRequest request, IOptions<WebOptions> options, ChannelCatalog catalog, BuildQueue queue,
+                CancellationToken cancel) =>
             {
+                // A slot first, then the body: the queue bounds the uploads held in memory as well as the builds running.
+                using var slot = await queue.EnterAsync(cancel);
                 // Read the body ourselves, so an oversized upload stops at the limit with a clear message (one limit for both forms).
-                long limit = options.Value.MaxUploadBytes;
+                var o = options.Value;
+                long limit = o.MaxUploadBytes;
                 var upload = MultipartForm.IsMultipart(request)
                     ? FromForm(await MultipartForm.ReadAsync(request, limit, "The upload (expression and metadata files)", cancel))
-                    : FromJson(await BoundedUpload.ReadAsync(request.Body, request.ContentLength, limit, "The request (expression table)", cancel));
-                return TypedResults.Ok(await Task.Run(() => Build(catalog, upload), cancel));
+                    : FromJson(await BoundedUpload.ReadAsync(request.Body, request.ContentLength, limit, "The request (expression table)", cancel),
+                        o.MaxTextFieldChars);
+                return TypedResults.Ok(await Task.Run(() => Build(catalog, upload, o.UploadLimits, cancel), cancel));
             })
             .WithName("BuildModel")
             .WithSummary("Builds a model from an expression table: a JSON body (expression as text) or a multipart form "
                 + "(expression and optional metadata as file parts; groupBy, group or cell, orientation, unit, referenceGroup, exponent, clamp, "
-                + "capacitancePf, temperatureC and overrides (a JSON array) as fields).")
+                + "capacitancePf, temperatureC and overrides (a JSON array) as fields). At most ExprModel:MaxConcurrentBuilds run at once and "
+                + "MaxQueuedBuilds wait; past that the answer is 503 with Retry-After.")
             // One Accepts call with both types: routing and the OpenAPI generator read only the last Accepts metadata, so a
             // second call would turn JSON requests away (415). The form's own schema replaces the JSON one for multipart.
             .Accepts<BuildRequest>("application/json", "multipart/form-data")
@@ -51,7 +57,8 @@ public static class BuildApi
                 if (operation.RequestBody?.Content?.TryGetValue("multipart/form-data", out var form) == true)
                     form.Schema = await context.GetOrCreateSchemaAsync(typeof(BuildForm), null, cancel);
             })
-            .ProducesProblem(400).ProducesProblem(413)
+            .ProducesProblem(400).ProducesProblem(413).ProducesProblem(429).ProducesProblem(503)
+            .RequireRateLimiting(RateLimits.ExpensivePolicy)
             // Scripts call this API with no cookie: the app has no sign-in and no cookie authentication, so a forged
             // cross-site request carries no credentials and gains nothing the caller could not do directly. The other
             // API routes take JSON and need no token either; the form here is read by hand, not by form binding.
@@ -59,14 +66,14 @@ public static class BuildApi
         return app;
     }
 
-    private static BuildResponse Build(ChannelCatalog catalog, BuildUpload upload)
+    private static BuildResponse Build(ChannelCatalog catalog, BuildUpload upload, UploadLimits limits, CancellationToken cancel)
     {
         var body = upload.Options;
         if ((body.Group is null) == (body.Cell is null)) throw new UserInputException("give exactly one of group (with metadata and groupBy) or cell.");
         if (body.Group is not null && (upload.Metadata is null || body.GroupBy is null))
             throw new UserInputException("group: needs metadata and groupBy (its column).");
         var session = ExpressionSession.Read(catalog, upload.Expression, upload.ExpressionName, upload.Metadata, upload.MetadataName,
-            body.ReadChoices());
+            body.ReadChoices(), limits, cancel);
         var report = session.Map(body.Overrides ?? []);
         var built = session.Build(report, body.DensityRule(), body.Group is not null ? ModelTarget.ForGroup(body.Group) : ModelTarget.ForCell(body.Cell!));
         var doc = built.Document with { Caution = ResearchCaution.Text };
@@ -74,15 +81,17 @@ public static class BuildApi
             report.Proxies);
     }
 
-    private static BuildUpload FromJson(byte[] bytes)
+    private static BuildUpload FromJson(byte[] bytes, int maxTextFieldChars)
     {
         BuildRequest? body;
-        try { body = JsonSerializer.Deserialize<BuildRequest>(bytes, SnapshotService.Json); }
+        try { body = JsonSerializer.Deserialize<BuildRequest>(bytes, SnapshotService.StrictJson); }
         catch (JsonException e)
         {
-            throw new UserInputException(JsonErrorMessage.For(e, "request body", "not valid JSON for a build request."));
+            throw new UserInputException(JsonErrorMessage.For(e, "request body"));
         }
-        if (body?.Expression is not { Length: > 0 } table) throw new UserInputException("expression: required (the table as CSV or TSV text).");
+        if (body is null) throw new UserInputException("request body: a JSON object with the field expression (the table as text) is required.");
+        RequestFieldLimits.CheckRequest(body, maxTextFieldChars);
+        if (body.Expression is not { } table) throw new UserInputException("expression: required (the table as CSV or TSV text).");
         return new BuildUpload(body, Encoding.UTF8.GetBytes(table), body.ExpressionName, body.Metadata is null ? null : Encoding.UTF8.GetBytes(body.Metadata),
             body.MetadataName);
     }
@@ -93,7 +102,7 @@ public static class BuildApi
         foreach (var name in form.Names)
             if (!FormFields.Contains(name, StringComparer.OrdinalIgnoreCase))
                 throw new UserInputException($"{name}: not a field of this endpoint (fields: {string.Join(", ", FormFields)}).");
-        if (form.Part("expression") is not { Bytes.Length: > 0 } expression)
+        if (form.Part("expression") is not { } expression)
             throw new UserInputException("expression: required, as a file part (CSV or TSV, optionally gzip, or AnnData .h5ad).");
         var metadata = form.Part("metadata");
         var defaults = new BuildRequest();
@@ -120,7 +129,7 @@ public static class BuildApi
     internal static List<GeneOverride>? Overrides(MultipartForm form)
     {
         if (Text(form, "overrides") is not { } json) return null;
-        try { return JsonSerializer.Deserialize<List<GeneOverride>>(json, SnapshotService.Json); }
+        try { return JsonSerializer.Deserialize<List<GeneOverride>>(json, SnapshotService.StrictJson); }
         catch (JsonException e)
         {
             throw new UserInputException(JsonErrorMessage.For(e, "overrides",

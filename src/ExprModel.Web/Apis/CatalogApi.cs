@@ -1,3 +1,4 @@
+using ExprModel.Core.Kinetics;
 using ExprModel.Data.Catalog;
 using ExprModel.Web.Workspace;
 using Microsoft.AspNetCore.Http.HttpResults;
@@ -31,7 +32,7 @@ public static class CatalogApi
                     var versions = catalog.AllVersions.Where(x => x.Id == id).Select(x => x.Version).Order().ToArray();
                     return TypedResults.Ok(new CatalogEntryDetail(CatalogViews.Summary(catalog, e), versions, e.Preparation, e.CuratorNote,
                         CatalogViews.Word(e.Reversal), e.ReversalMv, e.MinDensityMsPerCm2, e.MaxDensityMsPerCm2, e.Source.Location, at,
-                            CatalogViews.Curves(e, at)));
+                            CatalogViews.Curves(e, at), CatalogViews.Forms(e, at), GateForms.ParameterCount(e)));
                 }
                 catch (CatalogException ex)
                 {
@@ -39,7 +40,8 @@ public static class CatalogApi
                 }
             })
             .WithName("GetCatalogEntry")
-            .WithSummary("One entry (latest or ?version=N) with citation, genes and its gates' steady-state and time-constant curves at ?temperatureC.");
+            .WithSummary("One entry (latest or ?version=N) with citation, genes and its gates' steady-state and time-constant curves at ?temperatureC, " +
+                "each gate in both forms (rates and steady state with time constant, one converted) and the parameter counts.");
 
         api.MapGet("/presets", (ChannelCatalog catalog) =>
                 TypedResults.Ok(catalog.Presets.OrderBy(p => p.Key, StringComparer.Ordinal)

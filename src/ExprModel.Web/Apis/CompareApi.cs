@@ -37,14 +37,17 @@ public static class CompareApi
     {
         var api = app.MapGroup("/api").WithTags("Compare");
         api.MapPost("/compare", async Task<Ok<CompareResponse>> (HttpRequest request, IOptions<WebOptions> options, ChannelCatalog catalog,
-            SimulationGate gate, CancellationToken cancel) =>
+            SimulationGate gate, BuildQueue queue, CancellationToken cancel) =>
             {
-                long limit = options.Value.MaxUploadBytes;
+                // As a build: a slot before the body is read.
+                using var slot = await queue.EnterAsync(cancel);
+                var o = options.Value;
+                long limit = o.MaxUploadBytes;
                 var upload = MultipartForm.IsMultipart(request)
                     ? FromForm(await MultipartForm.ReadAsync(request, limit, "The upload (expression, metadata and recorded files)", cancel))
                     : FromJson(await BoundedUpload.ReadAsync(request.Body, request.ContentLength, limit, "The request (expression and recorded tables)",
-                        cancel));
-                return TypedResults.Ok(await Compare(catalog, gate, upload, cancel));
+                        cancel), o.MaxTextFieldChars);
+                return TypedResults.Ok(await Compare(catalog, gate, upload, o.UploadLimits, cancel));
             })
             .WithName("CompareWithRecordings")
             .WithSummary("Builds a model per recorded cell (or per group), measures it and compares every read-out the recorded table has (columns matched by "
@@ -53,13 +56,15 @@ public static class CompareApi
                 + "recorded sweeps as file parts recording, recording2, ... (NWB or trace tables), measured per cell; where a table is also sent, "
                 + "a cell's sweeps win).")
             .Accepts<CompareRequest>("application/json", "multipart/form-data")
-            .ProducesProblem(400).ProducesProblem(413).ProducesProblem(503)
+            .ProducesProblem(400).ProducesProblem(413).ProducesProblem(429).ProducesProblem(503)
+            .RequireRateLimiting(RateLimits.ExpensivePolicy)
             // As the build API: no cookies or sign-in, so a cross-site request gains nothing; the form is read by hand.
             .DisableAntiforgery();
         return app;
     }
 
-    private static async Task<CompareResponse> Compare(ChannelCatalog catalog, SimulationGate gate, CompareUpload upload, CancellationToken cancel)
+    private static async Task<CompareResponse> Compare(ChannelCatalog catalog, SimulationGate gate, CompareUpload upload, UploadLimits limits,
+        CancellationToken cancel)
     {
         var body = upload.Options;
         var per = body.Per switch
@@ -86,7 +91,7 @@ public static class CompareApi
                 + "recordings are sent.");
 
         var session = ExpressionSession.Read(catalog, upload.Expression, upload.ExpressionName, upload.Metadata, upload.MetadataName,
-            body.ReadChoices());
+            body.ReadChoices(), limits, cancel);
         var report = session.Map(body.Overrides ?? []);
         var rule = body.DensityRule();
         var cells = session.Dataset.Table.CellIds.ToHashSet(StringComparer.Ordinal);
@@ -110,16 +115,17 @@ public static class CompareApi
             [.. session.Dataset.Notes, .. features.Notes], csv, ResearchCaution.Text);
     }
 
-    private static CompareUpload FromJson(byte[] bytes)
+    private static CompareUpload FromJson(byte[] bytes, int maxTextFieldChars)
     {
         CompareRequest? body;
-        try { body = JsonSerializer.Deserialize<CompareRequest>(bytes, SnapshotService.Json); }
+        try { body = JsonSerializer.Deserialize<CompareRequest>(bytes, SnapshotService.StrictJson); }
         catch (JsonException e)
         {
-            throw new UserInputException($"request body: line {(e.LineNumber ?? 0) + 1}, position {(e.BytePositionInLine ?? 0) + 1}: not valid JSON for a "
-                + "compare request.");
+            throw new UserInputException(JsonErrorMessage.For(e, "request body"));
         }
-        if (body?.Expression is not { Length: > 0 } table) throw new UserInputException("expression: required (the table as CSV or TSV text).");
+        if (body is null) throw new UserInputException("request body: a JSON object with the fields expression and recorded is required.");
+        RequestFieldLimits.CheckRequest(body, maxTextFieldChars);
+        if (body.Expression is not { } table) throw new UserInputException("expression: required (the table as CSV or TSV text).");
         static byte[]? Bytes(string? text) => text is null ? null : Encoding.UTF8.GetBytes(text);
         return new CompareUpload(body, Encoding.UTF8.GetBytes(table), body.ExpressionName, Bytes(body.Metadata), body.MetadataName, Bytes(body.Recorded),
             body.RecordedName);
@@ -131,7 +137,7 @@ public static class CompareApi
             if (!FormFields.Contains(name, StringComparer.OrdinalIgnoreCase) && !IsRecordingPart(name))
                 throw new UserInputException($"{name}: not a field of this endpoint (fields: {string.Join(", ", FormFields)}, and recording, recording2, "
                     + "... for recorded sweeps).");
-        if (form.Part("expression") is not { Bytes.Length: > 0 } expression)
+        if (form.Part("expression") is not { } expression)
             throw new UserInputException("expression: required, as a file part (CSV or TSV, optionally gzip, or AnnData .h5ad).");
         var (metadata, recorded) = (form.Part("metadata"), form.Part("recorded"));
         var d = new CompareRequest();
@@ -154,7 +160,7 @@ public static class CompareApi
     private static Dictionary<string, string>? Map(MultipartForm form)
     {
         if (BuildApi.Text(form, "map") is not { } json) return null;
-        try { return JsonSerializer.Deserialize<Dictionary<string, string>>(json, SnapshotService.Json); }
+        try { return JsonSerializer.Deserialize<Dictionary<string, string>>(json, SnapshotService.StrictJson); }
         catch (JsonException e)
         {
             throw new UserInputException($"map: line {(e.LineNumber ?? 0) + 1}, position {(e.BytePositionInLine ?? 0) + 1}: not a JSON object of column: "

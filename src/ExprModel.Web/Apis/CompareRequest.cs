@@ -7,6 +7,7 @@ namespace ExprModel.Web.Apis;
 public sealed record CompareRequest : ExpressionRequest
 {
     /// <summary>Per-cell recorded values with units in the headers, as CSV or TSV text; absent = the metadata table.</summary>
+    [BulkText]
     public string? Recorded { get; init; }
     public string RecordedName { get; init; } = "recorded.csv";
     /// <summary>Cell id column of the recorded table; absent = a column named like a cell id.</summary>

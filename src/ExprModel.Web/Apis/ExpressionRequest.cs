@@ -12,8 +12,10 @@ namespace ExprModel.Web.Apis;
 public abstract record ExpressionRequest
 {
     /// <summary>The expression table as CSV or TSV text (genes x cells or cells x genes).</summary>
+    [BulkText]
     public string? Expression { get; init; }
     public string ExpressionName { get; init; } = "expression.csv";
+    [BulkText]
     public string? Metadata { get; init; }
     public string MetadataName { get; init; } = "metadata.csv";
     public string? GroupBy { get; init; }

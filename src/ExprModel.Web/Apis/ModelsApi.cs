@@ -1,9 +1,11 @@
 using System.Text;
 using System.Text.Json;
 using ExprModel.Core.Models;
+using ExprModel.Web.Hosting;
 using ExprModel.Web.Simulation;
 using ExprModel.Web.Workspace;
 using Microsoft.AspNetCore.Http.HttpResults;
+using Microsoft.Extensions.Options;
 
 namespace ExprModel.Web.Apis;
 
@@ -15,19 +17,23 @@ public static class ModelsApi
         var api = app.MapGroup("/api/models").WithTags("Shared models");
 
         api.MapPost("/",
-            async Task<Created<SavedModelResponse>> (SaveModelRequest request, SnapshotService snapshots, HttpContext http, CancellationToken cancel) =>
+            async Task<Created<SavedModelResponse>> (SaveModelRequest request, SnapshotService snapshots, HttpContext http, IOptions<WebOptions> options,
+                CancellationToken cancel) =>
             {
                 var model = request.ReadModel();
                 byte[]? expression = request.Expression is null ? null : Encoding.UTF8.GetBytes(request.Expression);
                 var (snap, readouts) = await snapshots.SaveAsync(model, request.Protocol ?? new SnapshotProtocol(), request.Notes ?? "",
                     request.ParentId, expression, request.ExpressionName, cancel);
-                var link = $"{http.Request.Scheme}://{http.Request.Host}/m/{snap.Id}";
+                var link = $"{PublicBase(options.Value, http.Request)}/m/{snap.Id}";
                 return TypedResults.Created($"/api/models/{snap.Id}",
                     new SavedModelResponse(snap.Id, link, snap.CatalogVersions, readouts.Rows, ResearchCaution.Text));
             })
             .WithName("SaveModel")
             .WithSummary("Stores an immutable snapshot (pinned model, protocol, read-outs, notes, optional expression table); returns its id and link.")
-            .ProducesProblem(400);
+            .ProducesProblem(400).ProducesProblem(413).ProducesProblem(429)
+            .WithBodyLimit(BodyLimit.Snapshot)
+            .AddEndpointFilter<RequestFieldLimits>()
+            .RequireRateLimiting(RateLimits.ExpensivePolicy);
 
         api.MapGet("/{id}", Results<Ok<SnapshotResponse>, ProblemHttpResult> (string id, SnapshotService snapshots) =>
             {
@@ -44,4 +50,11 @@ public static class ModelsApi
             .WithSummary("A stored snapshot: the pinned model file, its protocol and the read-outs saved with it.");
         return app;
     }
+
+    /// <summary>
+    /// Where share links start: the configured <see cref="WebOptions.PublicBaseUrl"/> (without a trailing slash), else the
+    /// request's own scheme and Host header (right when clients reach the server directly).
+    /// </summary>
+    public static string PublicBase(WebOptions options, HttpRequest request) =>
+        options.PublicBaseUrl is { Length: > 0 } configured ? configured.TrimEnd('/') : $"{request.Scheme}://{request.Host}{request.PathBase}";
 }

@@ -9,6 +9,7 @@ public sealed record SaveModelRequest : ModelRequest
     public string? ParentId { get; init; }
     public SnapshotProtocol? Protocol { get; init; }
     /// <summary>The raw expression table, stored only when given here (the user asked for it).</summary>
+    [BulkText]
     public string? Expression { get; init; }
     public string? ExpressionName { get; init; }
 }

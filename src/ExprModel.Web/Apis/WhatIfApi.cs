@@ -2,6 +2,7 @@ using ExprModel.Core.Confrontation;
 using ExprModel.Core.Models;
 using ExprModel.Core.Perturbation;
 using ExprModel.Core.Recordings;
+using ExprModel.Web.Hosting;
 using ExprModel.Web.Simulation;
 using Microsoft.AspNetCore.Http.HttpResults;
 
@@ -12,7 +13,9 @@ public static class WhatIfApi
 {
     public static IEndpointRouteBuilder MapWhatIfApi(this IEndpointRouteBuilder app)
     {
-        var api = app.MapGroup("/api/whatif").WithTags("What if");
+        var api = app.MapGroup("/api/whatif").WithTags("What if")
+            .AddEndpointFilter<RequestFieldLimits>()
+            .RequireRateLimiting(RateLimits.ExpensivePolicy);
 
         api.MapPost("/knockdown", async Task<Ok<KnockdownResponse>> (KnockdownRequest request, ModelRunner runner, SimulationGate gate,
             CancellationToken cancel) =>
@@ -31,10 +34,11 @@ public static class WhatIfApi
                         c.RelativeChange, c.Lost)).ToArray();
                 return TypedResults.Ok(new KnockdownResponse(report.Level, rows, report.Failures, ResearchCaution.Text));
             })
+            .WithBodyLimit(BodyLimit.ModelRequest)
             .WithName("Knockdown")
             .WithSummary("Knocks down each channel entry (or each gene of a model built from expression) to a level and ranks every read-out's change "
                 + "against the intact model.")
-            .ProducesProblem(400).ProducesProblem(503);
+            .ProducesProblem(400).ProducesProblem(413).ProducesProblem(429).ProducesProblem(503);
 
         api.MapPost("/sensitivity", async Task<Ok<SensitivityResponse>> (SensitivityRequest request, ModelRunner runner, SimulationGate gate,
             CancellationToken cancel) =>
@@ -48,10 +52,11 @@ public static class WhatIfApi
                     m.Columns.Select(c => c.Quantisation).ToArray(),
                     m.Values, m.StepLn, m.Notes, ResearchCaution.Text));
             })
+            .WithBodyLimit(BodyLimit.ModelRequest)
             .WithName("Sensitivity")
             .WithSummary("Sensitivity of every read-out to every channel density (central differences in ln density) as heat-map data; potentials are per "
                 + "unit ln density, the rest log ratios.")
-            .ProducesProblem(400).ProducesProblem(503);
+            .ProducesProblem(400).ProducesProblem(413).ProducesProblem(429).ProducesProblem(503);
 
         api.MapPost("/fit", async Task<Ok<FitResponse>> (FitRequest request, ModelRunner runner, SimulationGate gate, CancellationToken cancel) =>
             {
@@ -90,11 +95,13 @@ public static class WhatIfApi
                     fit.ObjectiveBefore, fit.ObjectiveAfter, fit.Evaluations, fit.Summary, ResearchCaution.Text)
                 { TargetNotes = recorded?.Notes ?? [] });
             })
+            // Recorded sweeps come inside the body (base64), so it takes the upload limit.
+            .WithBodyLimit(BodyLimit.Upload)
             .WithName("FitDensities")
             .WithSummary("Fits relative densities to recorded read-outs under an expression prior; returns the fitted model, fold changes, residuals and "
                 + "which densities the data pin down. "
                 + "Targets are typed, or taken from a recorded-features table (recorded) or recorded sweeps (recordings, base64) for a cell or a group's mean.")
-            .ProducesProblem(400).ProducesProblem(503);
+            .ProducesProblem(400).ProducesProblem(413).ProducesProblem(429).ProducesProblem(503);
         return app;
     }
 

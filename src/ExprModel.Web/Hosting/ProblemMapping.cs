@@ -1,5 +1,6 @@
 using System.Text.Json;
 using ExprModel.Core.Models;
+using ExprModel.Data.Store;
 using ExprModel.Web.Simulation;
 using Microsoft.AspNetCore.Diagnostics;
 using Microsoft.AspNetCore.Mvc;
@@ -14,8 +15,10 @@ public sealed class ProblemMapping(IProblemDetailsService problems) : IException
         var (status, title, detail) = exception switch
         {
             UserInputException e => (400, "The request cannot be used", e.Message),
-            UploadTooLargeException e => (413, "Upload too large", e.Message),
+            UploadTooLargeException e => (413, "Request too large", e.Message),
+            ServerBusyException e => (503, "Server busy", e.Message),
             SimulationTimeoutException e => (503, "Simulation time limit reached", e.Message),
+            SnapshotStoreException e => (503, "The shared-model store is unavailable", e.Message),
             BadHttpRequestException { InnerException: JsonException j } => (400, "The request body is not valid JSON for this endpoint",
                 JsonErrorMessage.For(j)),
             BadHttpRequestException e => (e.StatusCode, "Bad request", e.Message),
@@ -24,6 +27,8 @@ public sealed class ProblemMapping(IProblemDetailsService problems) : IException
         };
         if (status == 0) return false;
         http.Response.StatusCode = status;
+        if (exception is ServerBusyException busy)
+            http.Response.Headers.RetryAfter = busy.RetryAfterSeconds.ToString(System.Globalization.CultureInfo.InvariantCulture);
         return await problems.TryWriteAsync(new ProblemDetailsContext
         {
             HttpContext = http,

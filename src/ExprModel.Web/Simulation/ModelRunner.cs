@@ -2,6 +2,7 @@ using ExprModel.Core.Analysis;
 using ExprModel.Core.Mapping;
 using ExprModel.Core.Models;
 using ExprModel.Core.Simulation;
+using ExprModel.Core.Stochastic;
 using ExprModel.Data.Catalog;
 
 namespace ExprModel.Web.Simulation;
@@ -64,7 +65,35 @@ public sealed class ModelRunner(ChannelCatalog catalog, SimulationGate gate)
     {
         if (step.Problem() is { } p) throw new UserInputException(p);
         var cell = Compile(doc);
-        return gate.RunAsync(token => Step(cell, step, token), cancel);
+        return gate.RunAsync(token => step.ChannelNoise ? NoisyStep(cell, step, token) : Step(cell, step, token), cancel);
+    }
+
+    /// <summary>The step with stochastic channels: counts from density x area / the catalog's unitary conductance.</summary>
+    public StepView NoisyStep(CompiledCell cell, StepProtocol step, CancellationToken cancel)
+    {
+        var stimulus = new StepCurrent(step.DelayMs, step.StepMs, step.AmplitudeUaPerCm2);
+        var settings = new ChannelNoiseSettings
+        {
+            UnitaryConductancesPs = ChannelNoise.UnitaryConductances(cell.Model, e => catalog.UnitaryConductances.For(e).ConductancePs),
+            Seed = step.NoiseSeed,
+            RecordEvery = 1,
+        };
+        try
+        {
+            return StepView.FromNoisy(ChannelNoise.Run(cell, stimulus, step.TotalMs, settings, cancel), step, stimulus);
+        }
+        catch (SimulationBlowUpException e)
+        {
+            throw new UserInputException(e.Message);
+        }
+    }
+
+
+    /// <summary>A stochastic patch simulation (<see cref="PatchClamp"/>) in one simulation slot.</summary>
+    public Task<PatchResult> PatchAsync(PatchSettings settings, CancellationToken cancel)
+    {
+        if (settings.Problem() is { } p) throw new UserInputException(p);
+        return gate.RunAsync(token => PatchClamp.Run(settings, token), cancel);
     }
 
     public Task<IReadOnlyList<FiRow>> FiAsync(ModelDocument doc, FiProtocol fi, CancellationToken cancel)
@@ -162,6 +191,40 @@ public sealed class ModelRunner(ChannelCatalog catalog, SimulationGate gate)
 
     /// <summary>Kinetics compiled so far: a relative-density move adds none (test hook).</summary>
     internal int KineticsBuilt => _kinetics.KineticsBuilt;
+
+    /// <summary>
+    /// The adaptation-mechanism protocol (<see cref="AdaptationMechanisms"/>) on a step of <paramref name="stepUaPerCm2"/> (null: twice
+    /// the rheobase), with the cell's geometry for absolute units.
+    /// </summary>
+    public Task<(MechanismReport Report, ExprModel.Core.Cell.Geometry Geometry)> MechanismsAsync(ModelDocument doc, double? stepUaPerCm2,
+        double? probeDelayMs, CancellationToken cancel)
+    {
+        var settings = MechanismSettings.Default with { ProbeDelayMs = probeDelayMs ?? MechanismSettings.Default.ProbeDelayMs };
+        if (settings.Problem() is { } p) throw new UserInputException(p);
+        if (stepUaPerCm2 is { } a && !(a > 0 && a <= 1000)) throw new UserInputException($"amplitudeUaPerCm2 must lie in (0, 1000] (got {a}).");
+        var cell = Compile(doc);
+        return gate.RunAsync(token =>
+        {
+            try
+            {
+                return (AdaptationMechanisms.Measure(cell, stepUaPerCm2, settings, token), cell.Model.Geometry);
+            }
+            catch (Exception e) when (e is ArgumentException or SimulationBlowUpException)
+            {
+                throw new UserInputException(e.Message);
+            }
+        }, cancel);
+    }
+
+    /// <summary>The methods paragraph (with the live read-out settings the pages use) and the BibTeX file of a model.</summary>
+    public (string Paragraph, string BibTex) Methods(ModelDocument doc)
+    {
+        var model = Compile(doc).Model;
+        var versions = ExprModel.Core.Export.MethodsVersions.Current(catalog.VersionLabel);
+        var (entries, _) = ExprModel.Core.Export.BibTex.For(model, doc.Citation, versions);
+        return (ExprModel.Core.Export.MethodsText.Write(doc, model, versions, ReadoutSettings.Live),
+            ExprModel.Core.Export.BibTex.Write(entries, ResearchCaution.Text));
+    }
 
     /// <summary>The trace of one step with channel currents, shaped for the plots.</summary>
     public static StepView Step(CompiledCell cell, StepProtocol step, CancellationToken cancel)

@@ -8,6 +8,9 @@ public sealed record StepProtocol
     public double StepMs { get; init; } = 500;
     public double AfterMs { get; init; } = 100;
     public double TotalMs => DelayMs + StepMs + AfterMs;
+    /// <summary>Stochastic channels (counts from density x the cell's area / unitary conductance), seeded by <see cref="NoiseSeed"/>.</summary>
+    public bool ChannelNoise { get; init; }
+    public long NoiseSeed { get; init; } = 1;
 
     /// <summary>A problem naming the field, or null.</summary>
     public string? Problem()

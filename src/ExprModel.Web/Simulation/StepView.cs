@@ -58,6 +58,29 @@ public sealed record StepView
         };
     }
 
+    /// <summary>Shapes a run with channel noise (no channel currents are recorded for it).</summary>
+    public static StepView FromNoisy(Core.Stochastic.NoisyTrace trace, StepProtocol step, Core.Simulation.Stimulus stimulus)
+    {
+        var t = trace.TimeMs;
+        var v = trace.VoltageMv;
+        var (tt, vv) = Thin(t, v, ModelRunner.PlotBuckets);
+        var (pv, ps) = Phase(t, v);
+        return new StepView
+        {
+            Protocol = step,
+            TimeMs = tt,
+            VoltageMv = vv,
+            PhaseVoltageMv = pv,
+            PhaseSlopeMvPerMs = ps,
+            SpikeTimesMs = trace.SpikeTimesMs,
+            SpikeWindowMs = [],
+            SpikeWindowCurrents = new Dictionary<string, double[]>(),
+            FullTimeMs = t,
+            FullVoltageMv = v,
+            FullStimulusUaPerCm2 = t.Select(stimulus.DensityAt).ToArray(),
+        };
+    }
+
     /// <summary>Keeps each bucket's first extreme then its other extreme, in time order.</summary>
     internal static (double[] T, double[] V) Thin(double[] t, double[] v, int buckets)
     {

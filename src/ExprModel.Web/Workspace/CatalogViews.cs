@@ -42,8 +42,20 @@ public static class CatalogViews
         return e.Gates.Select(g => new GateCurveSet(
             g.Name, g.Power, v,
             v.Select(x => g.SteadyStateAt(x)).ToArray(),
-            g.Kind == GateKind.Calcium || g.Instantaneous ? [] : v.Select(x => g.TimeConstantAt(x) / factor).ToArray())).ToArray();
+            g.Kind is GateKind.Calcium or GateKind.Sodium || g.Instantaneous ? [] : v.Select(x => g.TimeConstantAt(x) / factor).ToArray())).ToArray();
     }
+
+    /// <summary>Voltages of the both-forms table (mV).</summary>
+    public static readonly double[] FormVoltagesMv = [-80, -60, -40, -20, 0, 20, 40];
+
+    /// <summary>Each voltage-dependent gate in both forms at <paramref name="temperatureC"/> (<see cref="GateForms"/>); calcium and
+    /// instantaneous gates are listed with their parameter count and no table.</summary>
+    public static IReadOnlyList<GateFormTable> Forms(ChannelEntry e, double temperatureC) => e.Gates.Select(g => new GateFormTable(
+        g.Name, g.Power,
+        g.Kind == GateKind.Calcium ? "calcium" : GateForms.WrittenAsRates(g) ? "rates" : "steady-state",
+        g.Kind == GateKind.Calcium || g.Instantaneous ? "no voltage-only rate pair (calcium-dependent or instantaneous)"
+            : GateForms.WrittenAsRates(g) ? "x_inf = alpha/(alpha + beta), tau = 1/(alpha + beta)" : "alpha = x_inf/tau, beta = (1 - x_inf)/tau",
+        GateForms.ParameterCount(g), GateForms.At(e, g, FormVoltagesMv, temperatureC))).ToArray();
 
     /// <summary>An enum value as the catalog files write it (kebab case).</summary>
     public static string Word<T>(T value) where T : struct, Enum => System.Text.Json.JsonNamingPolicy.KebabCaseLower.ConvertName(value.ToString());

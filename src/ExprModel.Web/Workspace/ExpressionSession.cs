@@ -1,6 +1,7 @@
 using ExprModel.Core.Expression;
 using ExprModel.Core.Mapping;
 using ExprModel.Data.Catalog;
+using ExprModel.Web.Hosting;
 using ExprModel.Web.Simulation;
 
 namespace ExprModel.Web.Workspace;
@@ -17,9 +18,15 @@ public sealed class ExpressionSession
     public required ExpressionDataset Dataset { get; init; }
     public required ReadChoices Choices { get; init; }
 
-    public static ExpressionSession Read(ChannelCatalog catalog, byte[] table, string tableName, byte[]? metadata, string? metadataName, ReadChoices choices)
+    /// <param name="limits">What the table may inflate to and how many lines it may have; a passed limit is <see cref="UploadTooLargeException"/>.</param>
+    /// <param name="cancel">Stops the reading (the request was aborted, the page closed).</param>
+    public static ExpressionSession Read(ChannelCatalog catalog, byte[] table, string tableName, byte[]? metadata, string? metadataName, ReadChoices choices,
+        UploadLimits? limits = null, CancellationToken cancel = default)
     {
-        var options = choices.ToOptions();
+        limits ??= UploadLimits.None;
+        if (table.Length == 0) throw new UserInputException($"{Path.GetFileName(tableName)}: the file is empty (0 bytes).");
+        if (metadata is { Length: 0 }) throw new UserInputException($"{Path.GetFileName(metadataName)}: the file is empty (0 bytes).");
+        var options = choices.ToOptions() with { MaxDecompressedBytes = limits.MaxDecompressedBytes, MaxLines = limits.MaxLines, Cancel = cancel };
         var dir = Path.Combine(Path.GetTempPath(), "exprmodel-upload-" + Guid.NewGuid().ToString("N"));
         try
         {
@@ -29,6 +36,7 @@ public sealed class ExpressionSession
             ExpressionDataset dataset;
             string? groupColumn = metadataPath is null ? null : choices.GroupColumn;
             try { dataset = ExpressionDataset.Read(catalog.ForMapping(), tablePath, options, metadataPath, groupColumn, Path.GetFileName(tablePath)); }
+            catch (ExpressionLimitException e) { throw new UploadTooLargeException(limits.Explain(e)); }
             catch (ExpressionFormatException e) { throw new UserInputException(e.Message); }
             catch (ArgumentException e) { throw new UserInputException($"{tableName}: {e.Message}"); }
             if (dataset.Groups is { Members.Count: 0 } && metadataPath is not null)

@@ -9,7 +9,7 @@ public static class StoredReadoutsNote
 {
     public static string For(IReadOnlyList<ReadoutChange> changes)
     {
-        static string V(double? v, string unit) => v is { } x ? $"{ReadoutPanel.Format(x)} {unit}" : "none";
+        static string V(double? v, string unit) => v is { } x ? $"{ReadoutDisplay.Format(x, unit)} {unit}" : "none";
         var listed = changes.Take(4).Select(c => $"{c.Name.Replace('_', ' ')} {V(c.Before, c.Unit)} → {V(c.After, c.Unit)}");
         string more = changes.Count > 4 ? $" and {changes.Count - 4} more" : "";
         return "The link stores the read-outs measured from scratch, as the command line and the HTTP API measure them. " +

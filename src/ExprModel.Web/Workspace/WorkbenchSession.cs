@@ -144,6 +144,19 @@ public sealed class WorkbenchSession(ModelRunner runner, WorkspaceState workspac
         else { AreaUm2 = a; ScheduleLive(); }
     }
 
+    /// <summary>Switches stochastic channels on or off for the trace (read-outs stay deterministic).</summary>
+    public void SetChannelNoise(bool on)
+    {
+        Protocol = Protocol with { ChannelNoise = on };
+        ScheduleLive(includeFi: false);
+    }
+
+    public void SetNoiseSeed(string? text)
+    {
+        if (!long.TryParse(text, NumberStyles.Integer, CultureInfo.InvariantCulture, out var seed)) Refuse($"seed: '{text}' is not a whole number");
+        else { Protocol = Protocol with { NoiseSeed = seed }; ScheduleLive(includeFi: false); }
+    }
+
     public void SetAmplitude(string? text)
     {
         if (!TryNumber(text, out var a)) Refuse("Step: enter a number of µA/cm².");

@@ -1,4 +1,5 @@
 using ExprModel.Core.Models;
+using ExprModel.Data.Store;
 using ExprModel.Web.Simulation;
 
 namespace ExprModel.Web.Workspace;
@@ -52,7 +53,7 @@ public sealed class WorkbenchShare(WorkspaceState workspace, Func<Task> changed)
                 session.ShowStored(model, stored);
             }
         }
-        catch (Exception e) when (e is UserInputException or SimulationTimeoutException) { session.Error = e.Message; }
+        catch (Exception e) when (e is UserInputException or SimulationTimeoutException or SnapshotStoreException) { session.Error = e.Message; }
         finally { InProgress = false; }
         await changed();
     }

@@ -42,7 +42,7 @@ public class CatalogGenesAndReportTests
     {
         var (exit, stdout, err) = CliRunner.Run("catalog", "report");
         Assert.True(exit == 0, err);
-        Assert.Contains("squid-na-hh1952@1", stdout);
+        Assert.Contains("squid-na-hh1952@2", stdout);
         Assert.Contains("recalled", stdout);
         Assert.Contains("half-activation", stdout);
     }

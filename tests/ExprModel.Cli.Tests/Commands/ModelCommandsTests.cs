@@ -69,7 +69,7 @@ public class ModelCommandsTests
     [Fact]
     public void VoltageClampReportsSodiumInwardAndPotassiumOutward()
     {
-        var (exit, stdout, err) = CliRunner.Run("vclamp", "--preset", "hh1952", "--holding", "-80", "--from", "-40", "--to", "0", "--step", "20");
+        var (exit, stdout, err) = CliRunner.Run("clamp-steps", "--preset", "hh1952", "--holding", "-80", "--from", "-40", "--to", "0", "--step", "20");
         Assert.True(exit == 0, err);
         var lines = stdout.Split('\n', StringSplitOptions.RemoveEmptyEntries).Where(l => !l.StartsWith('#')).ToArray();
         var header = lines[0].Split(',');
@@ -104,5 +104,58 @@ public class ModelCommandsTests
         Assert.Contains("line 5", err);
         Assert.Contains("densityMsPerCm2", err);
         File.Delete(path);
+    }
+
+    [Fact]
+    public void MechanismsNamesTheMCurrentAsBuildingUpOnTheRegularSpikingPreset()
+    {
+        // Pospischil et al. 2008: the regular-spiking model adapts through its M-current (common practice: it builds up over a train).
+        var (exit, stdout, err) = CliRunner.Run("mechanisms", "--preset", "cortex-rs2008", "--format", "json");
+        Assert.True(exit == 0, err);
+        using var doc = JsonDocument.Parse(stdout);
+        var root = doc.RootElement;
+        Assert.Equal("kv7-m-yamada", root.GetProperty("building_up").GetString());
+        Assert.Contains("clinical", root.GetProperty("caution").GetString());
+        Assert.True(root.GetProperty("spikes").GetArrayLength() >= 10);
+        Assert.True(root.GetProperty("after_train").GetProperty("ratio").GetDouble() > 1);
+
+        var csv = CliRunner.Run("mechanisms", "--preset", "cortex-rs2008", "--units", "pA", "--amplitude", "600");
+        Assert.True(csv.Exit == 0, csv.Err);
+        Assert.Contains("Research tool", csv.Out);
+        var header = csv.Out.Split('\n').First(l => !l.StartsWith('#')).Split(',');
+        Assert.Equal(["spike", "time_ms", "threshold_mv", "trough_mv", "ahp_depth_mv", "interval_ms"], header.Take(6));
+        Assert.Contains("ramp_current_kv7-m-yamada_pa", header);
+    }
+
+    [Fact]
+    public void MechanismsRefusesABadProbeWidthNamingTheOption()
+    {
+        var (exit, _, err) = CliRunner.Run("mechanisms", "--preset", "hh1952", "--probe-width", "0", "--amplitude", "10");
+        Assert.Equal(1, exit);
+        Assert.Contains("--probe-width", err);
+    }
+
+    [Fact]
+    public void MethodsWritesTheParagraphAndABibTexFileCitingEveryChannel()
+    {
+        var bib = Path.Combine(Path.GetTempPath(), $"exprmodel-methods-{Guid.NewGuid():N}.bib");
+        try
+        {
+            var (exit, stdout, err) = CliRunner.Run("methods", "--preset", "wb1996", "--bibtex", bib);
+            Assert.True(exit == 0, err);
+            // Wang & Buzsaki 1996 (J Neurosci 16:6402): the preset's sodium and potassium entries cite it.
+            Assert.Contains("[Wang1996]", stdout);
+            Assert.Contains("at 35 mS/cm2", stdout);
+            Assert.Contains("clinical", stdout);
+            string text = File.ReadAllText(bib);
+            Assert.Contains("@article{Wang1996,", text);
+            Assert.Contains("pages = {6402--6413}", text);
+            var viaFormat = CliRunner.Run("methods", "--preset", "wb1996", "--format", "bibtex");
+            Assert.Equal(text, viaFormat.Out);
+        }
+        finally
+        {
+            File.Delete(bib);
+        }
     }
 }

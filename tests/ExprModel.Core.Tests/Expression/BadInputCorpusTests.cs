@@ -34,7 +34,8 @@ public sealed class BadInputCorpusTests(ITestOutputHelper output) : IDisposable
         { "ragged_long_row.csv", Reader.Expression, "ragged_long_row.csv", "line 2, column 4", "ragged" },
         { "ragged_cells_as_rows.csv", Reader.Expression, "ragged_cells_as_rows.csv", "line 3, column 4", "ragged" },
         { "non_numeric_value.csv", Reader.Expression, "non_numeric_value.csv", "line 2, column 3", "not a number" },
-        { "decimal_comma_value.csv", Reader.Expression, "decimal_comma_value.csv", "line 2, column 3", "not a number" },
+        { "mixed_separators.csv", Reader.Expression, "mixed_separators.csv", "line 2, column 3", "mixes thousands and decimal separators" },
+        { "decimal_comma_in_comma_table.csv", Reader.Expression, "decimal_comma_in_comma_table.csv", "line 2, column 3", "not a number" },
         { "negative_value.csv", Reader.Expression, "negative_value.csv", "line 3, column 2", "negative" },
         { "nan_value.csv", Reader.Expression, "nan_value.csv", "line 2, column 3", "NaN" },
         { "infinite_value.csv", Reader.Expression, "infinite_value.csv", "line 3, column 2", "infinite" },
@@ -54,7 +55,7 @@ public sealed class BadInputCorpusTests(ITestOutputHelper output) : IDisposable
         { "quote_inside_field.csv", Reader.Expression, "quote_inside_field.csv", "line 2, character 8", "quote inside an unquoted field" },
         { "text_after_closing_quote.csv", Reader.Expression, "text_after_closing_quote.csv", "line 2, character 8", "after a closing quote" },
         { "nul_character.csv", Reader.Expression, "nul_character.csv", "line 2, character 9", "NUL" },
-        { "invalid_utf8.csv", Reader.Expression, "invalid_utf8.csv", "line 1", "not UTF-8" },
+        { "invalid_utf8.csv", Reader.Expression, "invalid_utf8.csv", "line 2, character 4", "byte 0xE9 (column 1) is not UTF-8" },
         { "utf16_without_bom.csv", Reader.Expression, "utf16_without_bom.csv", "line 1, character 2", "NUL" },
         { "orientation_unclear.csv", Reader.Expression, "orientation_unclear.csv", "line 1, column 1", "rows or columns" },
         { "mtx_row_out_of_range", Reader.Expression, "matrix.mtx", "line 4, column 1", "outside 1..3" },
@@ -107,6 +108,14 @@ public sealed class BadInputCorpusTests(ITestOutputHelper output) : IDisposable
 
     private static readonly Dictionary<string, (Maker Make, Reader Reader, string Place, string Problem)> GeneratedCases = new()
     {
+        // A bad byte on line 3, and one far past the decoder's first 64 K block: the message names its own line and character.
+        ["invalid_utf8_line3.csv"] = ((f, n) => f.Bytes(n, [.. "gene,c1,c2\nScn1a,1,2\nKcnc1,3,"u8, 0xFF, .. "4\n"u8]), Reader.Expression,
+            "line 3, character 9", "byte 0xFF (column 3) is not UTF-8"),
+        ["invalid_utf8_late.csv.gz"] = ((f, n) => f.Bytes(n, TempFiles.Gzip([.. Encoding.UTF8.GetBytes(SmallTable(20_000)), .. "G\u00e9x,"u8, 0xC3, 0x28,
+            .. ",1,1\n"u8])), Reader.Expression, "line 20002, character 5", "byte 0xC3 (column 2)"),
+        // After a byte-order mark (which a reader must not answer by switching to a decoder that replaces bad bytes).
+        ["invalid_utf8_after_bom.csv"] = ((f, n) => f.Bytes(n, [0xEF, 0xBB, 0xBF, .. "gene,c1\nScn1a,"u8, 0x80, .. "\n"u8]), Reader.Expression,
+            "line 2, character 7", "byte 0x80"),
         ["binary_garbage.csv"] = ((f, n) => f.Bytes(n, RandomBytes(1 << 16, seed: 1)), Reader.Expression, "line 1", ""),
         // 1,000 gzip members of 1 MB of '0' each: about 1 MB on disk, 1 GB inflated, with no line break at all. The
         // record-length limit stops it after 32 M characters.
@@ -144,6 +153,43 @@ public sealed class BadInputCorpusTests(ITestOutputHelper output) : IDisposable
         ["truncated_hdf5.h5ad"] = ((f, n) => TruncateFile(H5ad(f, n, x: AnnDataReaderTests.Dense), keep: 0.4), Reader.AnnData, "dataset /", ""),
     };
 
+    /// <summary>A valid two-line table followed by <paramref name="megabytes"/> MB of blank lines, as concatenated gzip members (small on disk).</summary>
+    private static byte[] BlankLineBomb(int megabytes)
+    {
+        var head = TempFiles.Gzip(Encoding.UTF8.GetBytes("gene,c1\nScn1a,1\n"));
+        var member = TempFiles.Gzip(Enumerable.Repeat((byte)'\n', 1 << 20).ToArray());
+        return [.. head, .. Enumerable.Range(0, megabytes).SelectMany(_ => member)];
+    }
+
+    [Fact]
+    public void BlankLinesPastTheLineLimit_StopWithTheLimitNamed()
+    {
+        var path = _files.Bytes("blank_lines.csv.gz", BlankLineBomb(64));
+        var e = Assert.Throws<ExpressionLimitException>(() => ExpressionReader.Read(path, new ExpressionReadOptions { MaxLines = 100_000 }));
+        Assert.Contains("blank_lines.csv.gz: line 100,001: more than 100,000 lines", e.Message);
+    }
+
+    [Fact]
+    public void InflatingPastTheByteLimit_StopsWithTheLimitNamed()
+    {
+        var path = _files.Bytes("inflates.csv.gz", BlankLineBomb(8));
+        var e = Assert.Throws<ExpressionLimitException>(() =>
+            ExpressionReader.Read(path, new ExpressionReadOptions { MaxDecompressedBytes = 1_000_000 }));
+        Assert.Contains("inflates.csv.gz", e.Message);
+        Assert.Contains("past the limit of 1,000,000 bytes", e.Message);
+    }
+
+    [Fact]
+    public void ACancelledRead_Stops()
+    {
+        // 2 GB of blank lines: read to the end this returns a one-gene table, so only cancellation can make it throw.
+        var path = _files.Bytes("endless_blank_lines.csv.gz", BlankLineBomb(2048));
+        using var cancel = new CancellationTokenSource(TimeSpan.FromMilliseconds(300));
+        var task = Task.Run(() => ExpressionReader.Read(path, new ExpressionReadOptions { Cancel = cancel.Token }));
+        Assert.True(((IAsyncResult)task).AsyncWaitHandle.WaitOne(TimeSpan.FromMinutes(2)), "reader did not finish");
+        Assert.IsAssignableFrom<OperationCanceledException>(task.Exception?.InnerException);
+    }
+
     private void AssertLocatedFailure(string path, Reader reader, string file, string place, string problem)
     {
         long before = GC.GetTotalAllocatedBytes(precise: false);
@@ -161,7 +207,7 @@ public sealed class BadInputCorpusTests(ITestOutputHelper output) : IDisposable
         Assert.True(finished, $"{file}: reader did not finish");
         var inner = task.Exception?.InnerException;
         Assert.NotNull(inner);
-        var e = Assert.IsType<ExpressionFormatException>(inner);
+        var e = Assert.IsAssignableFrom<ExpressionFormatException>(inner);
         output.WriteLine($"{Path.GetFileName(path)}: {e.Message} (allocated {(GC.GetTotalAllocatedBytes() - before) >> 20} MB)");
         Assert.Contains(file, e.Message);
         Assert.Contains(place, e.Message);

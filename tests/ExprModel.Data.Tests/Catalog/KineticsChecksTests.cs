@@ -83,6 +83,7 @@ public class KineticsChecksTests
                 "tau-at" => g!.TimeConstantAt(p.AtMv),
                 "steady-at" => g!.SteadyStateAt(p.AtMv),
                 "calcium-half-activation" => CalciumHalf(g!, p.AtMv),
+                "sodium-half-activation" => SodiumHalf(g!, p.AtMv),
                 _ => throw new Xunit.Sdk.XunitException($"{key}: unknown published quantity '{p.Quantity}'"),
             };
             Assert.True(Math.Abs(actual - p.Value) <= p.Tolerance,
@@ -101,6 +102,18 @@ public class KineticsChecksTests
         const double h = 1e-4;
         double d = (f(vh + h) - f(vh - h)) / (2 * h);
         return 1 / (4 * d);
+    }
+
+    /// <summary>Shell sodium (mM) at which the gate's steady state is 0.5, by bisection on 0.001-1000 mM in log concentration.</summary>
+    private static double SodiumHalf(GateSpec g, double vMv)
+    {
+        double lo = -3, hi = 3; // log10 mM
+        for (int i = 0; i < 200; i++)
+        {
+            double mid = 0.5 * (lo + hi);
+            if (g.SteadyStateAt(vMv, sodiumMm: Math.Pow(10, mid)) < 0.5) lo = mid; else hi = mid;
+        }
+        return Math.Pow(10, 0.5 * (lo + hi));
     }
 
     private static double CalciumHalf(GateSpec g, double vMv)
@@ -161,7 +174,7 @@ public class KineticsChecksTests
     [Fact]
     public void Bk_gate_depends_on_voltage_and_calcium_as_moczydlowski_and_latorre_1983_describe()
     {
-        var bk = CatalogFiles.Content.Entries.Single(e => e.Id == "bk-moczydlowski1983").Gates.Single();
+        var bk = CatalogFiles.Content.Entries.Where(e => e.Id == "bk-moczydlowski1983").MaxBy(e => e.Version)!.Gates.Single();
         // Depolarisation and calcium both raise the open probability; calcium shifts activation to more negative voltages.
         Assert.True(bk.SteadyStateAt(40, 1e-3) > bk.SteadyStateAt(-40, 1e-3));
         Assert.True(bk.SteadyStateAt(0, 1e-2) > bk.SteadyStateAt(0, 1e-3));

@@ -158,12 +158,192 @@ public sealed class SnapshotStoreTests : IDisposable
         Assert.Equal(("old one", "[]", (string?)null), (old.Notes, old.ReadoutsJson, old.RecordedJson));
         var child = store.Save(Sample(parent: old.Id) with { RecordedJson = "{}" });
         Assert.Equal("{}", store.Find(child.Id)!.RecordedJson);
-        SnapshotStore.Open(DbPath); // migrated once; opening again finds schema 2
+        SnapshotStore.Open(DbPath); // migrated once; opening again finds the current schema
         using var check = new SqliteConnection($"Data Source={DbPath};Pooling=False");
         check.Open();
         using var update = check.CreateCommand();
         update.CommandText = "UPDATE snapshots SET recorded_json = 'x'";
         Assert.Throws<SqliteException>(() => update.ExecuteNonQuery());
+    }
+
+    [Theory]
+    [InlineData("INSERT OR REPLACE INTO snapshots (snapshot_id, created_utc, model_json, catalog_versions, protocol_json, readouts_json, notes) " +
+        "VALUES ($id, '2026-01-01T00:00:00.0000000+00:00', '{\"forged\":1}', '', '{}', '[]', 'forged')")]
+    [InlineData("REPLACE INTO snapshots (snapshot_id, created_utc, model_json, catalog_versions, protocol_json, readouts_json, notes) " +
+        "VALUES ($id, '2026-01-01T00:00:00.0000000+00:00', '{\"forged\":1}', '', '{}', '[]', 'forged')")]
+    [InlineData("INSERT INTO snapshots (snapshot_id, created_utc, model_json, catalog_versions, protocol_json, readouts_json, notes) " +
+        "VALUES ($id, '2026-01-01T00:00:00.0000000+00:00', '{}', '', '{}', '[]', 'x') ON CONFLICT(snapshot_id) DO UPDATE SET notes = 'forged'")]
+    public void Replacing_a_stored_snapshot_is_refused_by_the_schema(string sql)
+    {
+        var store = SnapshotStore.Open(DbPath);
+        var saved = store.Save(Sample());
+        using var conn = new SqliteConnection($"Data Source={DbPath};Pooling=False");
+        conn.Open();
+        using var cmd = conn.CreateCommand();
+        cmd.CommandText = sql;
+        cmd.Parameters.AddWithValue("$id", saved.Id);
+        var e = Assert.Throws<SqliteException>(() => cmd.ExecuteNonQuery());
+        Assert.Contains("immutable", e.Message);
+        var found = store.Find(saved.Id)!;
+        Assert.Equal(("first try", saved.ModelJson), (found.Notes, found.ModelJson));
+        Assert.Equal(1, CountRows());
+    }
+
+    [Fact]
+    public void The_stored_checksum_is_the_sha256_of_the_content_and_a_tampered_row_is_refused_by_id_and_path()
+    {
+        var store = SnapshotStore.Open(DbPath);
+        var saved = store.Save(Sample());
+        var other = store.Save(Sample("untouched"));
+        Assert.Matches("^[0-9a-f]{64}$", saved.ContentSha256);
+        Assert.Equal(saved.ContentSha256, store.Find(saved.Id)!.ContentSha256);
+        // Tampering as a hostile writer would: lift the trigger, change the notes, put the trigger back.
+        using (var conn = new SqliteConnection($"Data Source={DbPath};Pooling=False"))
+        {
+            conn.Open();
+            using var cmd = conn.CreateCommand();
+            cmd.CommandText = "DROP TRIGGER snapshots_immutable_update; UPDATE snapshots SET notes = 'forged' WHERE snapshot_id = $id;";
+            cmd.Parameters.AddWithValue("$id", saved.Id);
+            cmd.ExecuteNonQuery();
+        }
+        var e = Assert.Throws<SnapshotStoreException>(() => store.Find(saved.Id));
+        Assert.Contains(saved.Id, e.Message);
+        Assert.Contains(store.DatabasePath, e.Message);
+        Assert.Contains("SHA-256", e.Message);
+        Assert.Equal("untouched", store.Find(other.Id)!.Notes);
+        var check = store.Verify();
+        Assert.Equal(2, check.Checked);
+        Assert.Single(check.Problems);
+        Assert.Contains(saved.Id, check.Problems[0]);
+    }
+
+    [Fact]
+    public void A_stored_checksum_equals_an_independent_sha256_of_the_documented_encoding()
+    {
+        // System.Security.Cryptography.SHA256 (FIPS 180-4) over the encoding the class documents, built here by hand.
+        var store = SnapshotStore.Open(DbPath);
+        var s = store.Find(store.Save(Sample() with { Expression = [7, 8], ExpressionName = "t.csv" }).Id)!;
+        var bytes = new List<byte>();
+        void Field(byte[]? v)
+        {
+            bytes.Add(v is null ? (byte)0 : (byte)1);
+            var len = BitConverter.GetBytes((long)(v?.Length ?? 0));
+            if (BitConverter.IsLittleEndian) Array.Reverse(len);
+            bytes.AddRange(len);
+            if (v is not null) bytes.AddRange(v);
+        }
+        byte[]? T(string? t) => t is null ? null : System.Text.Encoding.UTF8.GetBytes(t);
+        Field(T(s.Id));
+        Field(T(s.ParentId));
+        Field(T(s.CreatedUtc.ToString("O", System.Globalization.CultureInfo.InvariantCulture)));
+        Field(T(s.ModelJson));
+        Field(T(string.Join('\n', s.CatalogVersions)));
+        Field(T(s.ProtocolJson));
+        Field(T(s.ReadoutsJson));
+        Field(T(s.Notes));
+        Field(s.Expression);
+        Field(T(s.ExpressionName));
+        Field(T(s.RecordedJson));
+        Assert.Equal(Convert.ToHexStringLower(System.Security.Cryptography.SHA256.HashData(bytes.ToArray())), s.ContentSha256);
+    }
+
+    [Fact]
+    public void A_schema_2_database_is_migrated_keeping_every_snapshot_with_a_checksum_and_refusing_replace()
+    {
+        Directory.CreateDirectory(Path.GetDirectoryName(DbPath)!);
+        using (var conn = new SqliteConnection($"Data Source={DbPath};Pooling=False"))
+        {
+            conn.Open();
+            using var cmd = conn.CreateCommand();
+            cmd.CommandText = """
+                CREATE TABLE store_meta (key TEXT PRIMARY KEY, value TEXT NOT NULL);
+                INSERT INTO store_meta VALUES ('schema_version', '2');
+                CREATE TABLE snapshots (snapshot_id TEXT PRIMARY KEY, parent_id TEXT REFERENCES snapshots(snapshot_id), created_utc TEXT NOT NULL,
+                    model_json TEXT NOT NULL, catalog_versions TEXT NOT NULL, protocol_json TEXT NOT NULL, readouts_json TEXT NOT NULL, notes TEXT NOT NULL,
+                    expression BLOB, expression_name TEXT, recorded_json TEXT);
+                CREATE INDEX snapshots_by_parent ON snapshots(parent_id);
+                CREATE TRIGGER snapshots_immutable_update BEFORE UPDATE ON snapshots BEGIN SELECT RAISE(ABORT, 'snapshots are immutable'); END;
+                CREATE TRIGGER snapshots_immutable_delete BEFORE DELETE ON snapshots BEGIN SELECT RAISE(ABORT, 'snapshots are immutable'); END;
+                INSERT INTO snapshots VALUES ('AAAAAAAAAAAAAAAAAAAAAA', NULL, '2026-01-02T03:04:05.0000000+00:00', '{"a":1}', 'leak@1', '{}',
+                    '[]', 'old one', X'0102', 'counts.csv', '{"target":"cell 1"}');
+                INSERT INTO snapshots VALUES ('BBBBBBBBBBBBBBBBBBBBBB', 'AAAAAAAAAAAAAAAAAAAAAA', '2026-01-03T03:04:05.0000000+00:00', '{"a":2}', '', '{}',
+                    '[]', 'its child', NULL, NULL, NULL);
+                """;
+            cmd.ExecuteNonQuery();
+        }
+        var store = SnapshotStore.Open(DbPath);
+        var all = store.All();
+        Assert.Equal(["AAAAAAAAAAAAAAAAAAAAAA", "BBBBBBBBBBBBBBBBBBBBBB"], all.Select(s => s.Id));
+        Assert.Equal(("old one", "{\"a\":1}", "{\"target\":\"cell 1\"}"), (all[0].Notes, all[0].ModelJson, all[0].RecordedJson));
+        Assert.Equal(new byte[] { 1, 2 }, all[0].Expression);
+        Assert.All(all, s => Assert.Equal(SnapshotContent.Sha256(s), s.ContentSha256));
+        Assert.True(store.Verify().Sound);
+        using var check = new SqliteConnection($"Data Source={DbPath};Pooling=False");
+        check.Open();
+        using var c = check.CreateCommand();
+        c.CommandText = "SELECT value FROM store_meta WHERE key = 'schema_version'";
+        Assert.Equal("3", c.ExecuteScalar());
+        c.CommandText = "UPDATE snapshots SET notes = 'x'";
+        Assert.Throws<SqliteException>(() => c.ExecuteNonQuery());
+        c.CommandText = "REPLACE INTO snapshots (snapshot_id, created_utc, model_json, catalog_versions, protocol_json, readouts_json, notes) " +
+            "VALUES ('AAAAAAAAAAAAAAAAAAAAAA', 'x', '{}', '', '{}', '[]', 'forged')";
+        Assert.Throws<SqliteException>(() => c.ExecuteNonQuery());
+        Assert.Equal("old one", store.Find("AAAAAAAAAAAAAAAAAAAAAA")!.Notes);
+    }
+
+    [Fact]
+    public void A_junk_file_is_refused_at_opening_with_its_path_and_reason()
+    {
+        Directory.CreateDirectory(Path.GetDirectoryName(DbPath)!);
+        File.WriteAllText(DbPath, "this is not a database, just some text that happens to sit at the configured path\n");
+        var e = Assert.Throws<SnapshotStoreException>(() => SnapshotStore.Open(DbPath));
+        Assert.Contains(Path.GetFullPath(DbPath), e.Message);
+        Assert.Contains("not a database", e.Message);
+    }
+
+    [Fact]
+    public void A_database_with_damaged_pages_is_refused_at_opening()
+    {
+        var store = SnapshotStore.Open(DbPath);
+        for (int i = 0; i < 40; i++) store.Save(Sample(new string('n', 2000)));
+        StoreFiles.DamagePages(DbPath, "snapshots");
+        var e = Assert.Throws<SnapshotStoreException>(() => SnapshotStore.Open(DbPath));
+        Assert.Contains(Path.GetFullPath(DbPath), e.Message);
+        Assert.True(e.Message.Contains("damaged") || e.Message.Contains("malformed"), e.Message);
+    }
+
+    [Fact]
+    public void A_read_only_file_is_refused_at_opening()
+    {
+        if (OperatingSystem.IsWindows()) return; // file modes are a Unix notion; the app's image and CI run on Linux
+        SnapshotStore.Open(DbPath).Save(Sample());
+        File.SetUnixFileMode(DbPath, UnixFileMode.UserRead | UnixFileMode.GroupRead | UnixFileMode.OtherRead);
+        var e = Assert.Throws<SnapshotStoreException>(() => SnapshotStore.Open(DbPath));
+        Assert.Contains(Path.GetFullPath(DbPath), e.Message);
+        Assert.Contains("read-only", e.Message);
+        File.SetUnixFileMode(DbPath, UnixFileMode.UserRead | UnixFileMode.UserWrite);
+    }
+
+    [Fact]
+    public void A_store_that_cannot_take_a_write_is_refused_at_opening_not_at_the_first_share()
+    {
+        // SQLite writes its rollback journal beside the file; a directory in that place makes every write fail, even
+        // for a superuser, which is how this test makes the store unwritable whoever runs it.
+        SnapshotStore.Open(DbPath).Save(Sample());
+        Directory.CreateDirectory(DbPath + "-journal");
+        var e = Assert.Throws<SnapshotStoreException>(() => SnapshotStore.Open(DbPath));
+        Assert.Contains(Path.GetFullPath(DbPath), e.Message);
+        Directory.Delete(DbPath + "-journal");
+    }
+
+    [Fact]
+    public void Store_errors_after_opening_name_the_file()
+    {
+        var store = SnapshotStore.Open(DbPath);
+        Directory.CreateDirectory(DbPath + "-journal");
+        var e = Assert.Throws<SnapshotStoreException>(() => store.Save(Sample()));
+        Assert.Contains(store.DatabasePath, e.Message);
+        Directory.Delete(DbPath + "-journal");
     }
 
     private long CountRows()

@@ -1,10 +1,11 @@
 using System.Net.Http.Json;
 using System.Text.Json;
 using System.Text.Json.Nodes;
+using Microsoft.AspNetCore.Mvc.Testing;
 
 namespace ExprModel.Web.Tests.Apis;
 
-public abstract class ApiTestBase(AppFactory factory) : IClassFixture<AppFactory>
+public abstract class ApiTestBase(WebApplicationFactory<Program> factory) : IClassFixture<AppFactory>
 {
     protected HttpClient Client { get; } = factory.CreateClient();
 

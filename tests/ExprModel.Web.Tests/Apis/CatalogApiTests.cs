@@ -20,10 +20,12 @@ public sealed class CatalogApiTests(AppFactory factory) : ApiTestBase(factory)
         var body = await Json(await Client.GetAsync("/api/catalog"));
         var kv2 = body.EnumerateArray().First(e => e.GetProperty("id").GetString() == "kv2-cortex-mainen1996");
         var links = kv2.GetProperty("geneLinks").EnumerateArray().ToDictionary(l => l.GetProperty("symbol").GetString()!);
-        // Issue 17: EAG (KCNH1) feeds the Kv2 delayed rectifier as a proxy; KCNB1 (Kv2.1) is the entry's own family.
-        Assert.True(links["KCNH1"].GetProperty("proxy").GetBoolean());
-        Assert.Contains("stands in", links["KCNH1"].GetProperty("reason").GetString());
+        // Issue 17: EAG (KCNH1) fed the Kv2 delayed rectifier as a proxy until it got its own EAG entry; KCNB1 (Kv2.1) is Kv2's own.
+        Assert.False(links.ContainsKey("KCNH1"));
         Assert.False(links["KCNB1"].GetProperty("proxy").GetBoolean());
+        var eag = body.EnumerateArray().First(e => e.GetProperty("id").GetString() == "kv10-eag-ludwig1994");
+        var kcnh1 = eag.GetProperty("geneLinks").EnumerateArray().Single(l => l.GetProperty("symbol").GetString() == "KCNH1");
+        Assert.False(kcnh1.GetProperty("proxy").GetBoolean());
         Assert.All(body.EnumerateArray(), e =>
             Assert.Contains(e.GetProperty("citationCheck").GetString(), new[] { "unchecked", "confirmed", "not-found" }));
         var butera = await Json(await Client.GetAsync("/api/catalog/nap-prebotc-butera1999"));
@@ -74,5 +76,22 @@ public sealed class CatalogApiTests(AppFactory factory) : ApiTestBase(factory)
         foreach (var path in new[]
             { "/api/catalog", "/api/catalog/{id}", "/api/models", "/api/models/{id}", "/api/simulate", "/api/fi", "/api/readouts", "/api/build" })
             Assert.Contains($"\"{path}\"", doc);
+    }
+
+    [Fact]
+    public async Task An_entry_shows_both_gate_forms_and_its_parameter_counts()
+    {
+        // Hodgkin & Huxley 1952: n is written as rates; x_inf = alpha/(alpha + beta) and tau = 1/(alpha + beta) at every voltage listed.
+        var body = await Json(await Client.GetAsync("/api/catalog/squid-k-hh1952?temperatureC=6.3"));
+        var n = body.GetProperty("gateForms")[0];
+        Assert.Equal("rates", n.GetProperty("writtenAs").GetString());
+        Assert.Equal(6, n.GetProperty("parameterCount").GetInt32());
+        Assert.Equal(6, body.GetProperty("parameterCount").GetInt32());
+        foreach (var p in n.GetProperty("points").EnumerateArray())
+        {
+            double a = p.GetProperty("alphaPerMs").GetDouble(), b = p.GetProperty("betaPerMs").GetDouble();
+            Assert.Equal(a / (a + b), p.GetProperty("steadyState").GetDouble(), 12);
+            Assert.Equal(1 / (a + b), p.GetProperty("timeConstantMs").GetDouble(), 9);
+        }
     }
 }

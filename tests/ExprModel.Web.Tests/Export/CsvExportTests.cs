@@ -22,7 +22,7 @@ public sealed class CsvExportTests
     [InlineData("+1+1", "'+1+1")]
     [InlineData("-2+3", "'-2+3")]
     [InlineData("@SUM(A1)", "'@SUM(A1)")]
-    [InlineData("\tx", "'\tx")]
+    [InlineData("\tx", "\"'\tx\"")]
     [InlineData("plain, with comma", "\"plain, with comma\"")]
     public void Text_cells_a_spreadsheet_would_run_are_neutralised(string variant, string cell)
     {
@@ -31,6 +31,17 @@ public sealed class CsvExportTests
         Assert.Equal("readout,unit," + cell, header);
         // Numbers stay numbers, even negative ones.
         Assert.Equal("rheobase,uA/cm2,-0.5", csv.Split('\n')[3]);
+    }
+
+    public static TheoryData<string> Probes() => [.. ExprModel.Core.Tests.Export.FormulaProbes.All];
+
+    [Theory]
+    [MemberData(nameof(Probes))]
+    public void Every_line_of_every_web_csv_is_inert_for_a_hostile_model_or_variant_name(string probe)
+    {
+        ExprModel.Core.Tests.Export.FormulaProbes.AssertInert(CsvExport.Fi(probe, [new FiRow(-1, 0, 0, 0, 0), new FiRow(1, 3, 6, 10, 5)]), "f-I");
+        ExprModel.Core.Tests.Export.FormulaProbes.AssertInert(
+            CsvExport.Readouts([(probe, [new ReadoutRow("rheobase", "uA/cm2", -0.5)]), ("b" + probe, [new ReadoutRow(probe, probe, 1)])]), "read-outs");
     }
 
     [Fact]

@@ -1,4 +1,5 @@
 using ExprModel.Core.Analysis;
+using ExprModel.Core.Export;
 using ExprModel.Core.Expression;
 using ExprModel.Core.Mapping;
 using ExprModel.Core.Models;
@@ -126,6 +127,29 @@ public sealed class WorkbenchSessionTests : IDisposable
 
     /// <summary>Demo cell FH2046, T-type calcium at slider position 860: spiking is not monotone (see the page test of the same name).</summary>
     [Fact]
+    public async Task The_channel_noise_switch_gives_a_seeded_noisy_trace_that_the_share_link_reproduces()
+    {
+        using var session = NewSession();
+        session.OpenInitial("hh1952");
+        await session.LiveRun;
+        var deterministic = session.Step!.FullVoltageMv;
+        session.SetChannelNoise(true);
+        await session.LiveRun;
+        var noisy = session.Step!.FullVoltageMv;
+        Assert.True(session.Protocol.ChannelNoise);
+        Assert.NotEqual(deterministic, noisy);
+        session.SetNoiseSeed("not a number");
+        Assert.Contains("seed", session.Error);
+
+        var snapshots = new SnapshotService(_store, _runner);
+        await session.ShareAsync(snapshots, "", storeExpression: false);
+        var opened = await snapshots.OpenAsync(session.SharedSnapshotId!, CancellationToken.None);
+        Assert.True(opened!.Protocol.Step.ChannelNoise);
+        var again = await _runner.StepAsync(opened.Model, opened.Protocol.Step, CancellationToken.None);
+        Assert.Equal(noisy, again.FullVoltageMv);
+    }
+
+    [Fact]
     public async Task A_cell_with_a_gap_in_its_spiking_shows_the_cold_readouts_and_sharing_changes_nothing()
     {
         var src = CatalogLocator.FindSourceDirectory()!;
@@ -171,7 +195,8 @@ public sealed class WorkbenchSessionTests : IDisposable
 
         await session.ShareAsync(new SnapshotService(_store, _runner), "", storeExpression: false);
         Assert.Equal(real.Rows, session.Table.Rows);
-        Assert.Contains($"rheobase {ReadoutPanel.Format(rheobase * 1.5)} uA/cm2 → {ReadoutPanel.Format(rheobase)} uA/cm2", session.ShareNote);
+        Assert.Contains($"rheobase {ReadoutDisplay.Format(rheobase * 1.5, "uA/cm2")} uA/cm2 → {ReadoutDisplay.Format(rheobase, "uA/cm2")} uA/cm2",
+            session.ShareNote);
         // A new setting clears the note: it described the table at the moment of sharing.
         session.SetRelative(k, DensityScale.RelativeAt(690));
         Assert.Null(session.ShareNote);

@@ -61,7 +61,7 @@ public static class DelimitedTableReader
         else
             (orientation, orientationNote) = OrientationDetector.Detect(file, corner, ids, firstColumn, o.KeepGene);
 
-        var stats = new ValueStats { WholeTolerance = o.LogTransform == LogTransform.None ? 0 : 1e-6 };
+        var stats = new ValueStats { WholeTolerance = o.LogTransform == LogTransform.None ? 0 : 1e-6, DecimalCommaAllowed = delimiter != ',' };
         using var records = OpenRecords(path, file, delimiter, o);
         records.ReadRecord(); // header, already parsed
         int idOffset = noCorner ? 0 : 1;
@@ -69,6 +69,9 @@ public static class DelimitedTableReader
             ? ReadGenesAsRows(records, file, ids, idOffset, o, stats, notes)
             : ReadCellsAsRows(records, file, ids, idOffset, o, stats, notes);
 
+        if (stats.DecimalCommas > 0)
+            notes.Add($"{stats.DecimalCommas} value(s) written with a decimal comma (first at {stats.FirstDecimalComma}) were read with the comma as the " +
+                "decimal separator, as spreadsheets export them in decimal-comma locales.");
         var (unit, unitNote) = UnitDecision.Decide(file, o, stats, result.LibrarySizes, notes);
         return new ExpressionTable
         {
@@ -89,7 +92,7 @@ public static class DelimitedTableReader
     private sealed record Parsed(List<string> Cells, Dictionary<string, double[]> Genes, double[] LibrarySizes, int TotalGenes);
 
     private static RecordReader OpenRecords(string path, string file, char delimiter, ExpressionReadOptions o) =>
-        new(InputFile.Open(path, o.MaxDecompressedBytes), file, delimiter, o.MaxRecordChars, o.MaxColumns);
+        new(InputFile.Open(path, o.MaxDecompressedBytes), file, delimiter, o.MaxRecordChars, o.MaxColumns, o.MaxLines, o.Cancel);
 
     private static Parsed ReadGenesAsRows(RecordReader r, string file, List<string> cellIds, int offset, ExpressionReadOptions o, ValueStats stats,
         List<string> notes)
@@ -109,7 +112,7 @@ public static class DelimitedTableReader
             values ??= new double[n];
             for (int j = 0; j < n; j++)
             {
-                double v = ParseValue(r, j + 1, o, cellIds[j], gene);
+                double v = ParseValue(r, j + 1, o, stats, cellIds[j], gene);
                 stats.Add(v);
                 library[j] += v;
                 values[j] = v;
@@ -146,7 +149,7 @@ public static class DelimitedTableReader
             double sum = 0;
             for (int j = 0; j < n; j++)
             {
-                double v = ParseValue(r, j + 1, o, cell, geneIds[j]);
+                double v = ParseValue(r, j + 1, o, stats, cell, geneIds[j]);
                 stats.Add(v);
                 sum += v;
                 if (isKept[j] >= 0) kept[isKept[j]].Add(v);
@@ -165,10 +168,11 @@ public static class DelimitedTableReader
                 $"{r.FieldCount} fields where the header implies {expected} (ragged row{(r.FieldCount < expected ? ", values missing" : ", extra values")}).");
     }
 
-    private static double ParseValue(RecordReader r, int column, ExpressionReadOptions o, string cell, string gene)
+    private static double ParseValue(RecordReader r, int column, ExpressionReadOptions o, ValueStats stats, string cell, string gene)
     {
-        var problem = ValueParser.TryParse(r.Field(column), out double v);
+        var problem = ValueParser.TryParse(r.Field(column), out double v, stats.DecimalCommaAllowed, out bool usedComma);
         if (problem is not null) throw r.Error(column + 1, $"cell '{cell}', gene '{gene}': {problem}.");
+        if (usedComma && stats.DecimalCommas++ == 0) stats.FirstDecimalComma = $"line {r.LineNumber}, column {column + 1}";
         return o.LogTransform == LogTransform.None ? v : ValueParser.Undo(v, o.LogTransform);
     }
 }

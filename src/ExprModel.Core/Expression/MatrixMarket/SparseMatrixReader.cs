@@ -47,7 +47,10 @@ public static class SparseMatrixReader
         var cellIds = ReadCells(layout.Cells, o);
 
         string file = Path.GetFileName(layout.Matrix);
-        using var r = new RecordReader(InputFile.Open(layout.Matrix, o.MaxDecompressedBytes), file, ' ', o.MaxRecordChars, 64) { WhitespaceDelimited = true };
+        using var r = new RecordReader(InputFile.Open(layout.Matrix, o.MaxDecompressedBytes), file, ' ', o.MaxRecordChars, 64, long.MaxValue, o.Cancel)
+        {
+            WhitespaceDelimited = true,
+        };
         if (!r.ReadRecord()) throw new ExpressionFormatException($"{file}: line 1: the file is empty.");
         CheckBanner(r, file);
         // Skip comments up to the size line.
@@ -156,7 +159,7 @@ public static class SparseMatrixReader
         var names = new List<string>();
         var isGene = new List<bool>();
         int otherTypes = 0;
-        using var r = new RecordReader(InputFile.Open(path, o.MaxDecompressedBytes), file, '\t', o.MaxRecordChars, 64);
+        using var r = new RecordReader(InputFile.Open(path, o.MaxDecompressedBytes), file, '\t', o.MaxRecordChars, 64, o.MaxLines, o.Cancel);
         int? width = null;
         while (r.ReadRecord())
         {
@@ -181,7 +184,7 @@ public static class SparseMatrixReader
         string file = Path.GetFileName(path);
         var cells = new List<string>();
         var registry = new CellRegistry(file);
-        using var r = new RecordReader(InputFile.Open(path, o.MaxDecompressedBytes), file, '\t', o.MaxRecordChars, 64);
+        using var r = new RecordReader(InputFile.Open(path, o.MaxDecompressedBytes), file, '\t', o.MaxRecordChars, 64, o.MaxLines, o.Cancel);
         while (r.ReadRecord())
         {
             string id = r.FieldString(0);

@@ -10,4 +10,8 @@ public sealed record CellMetadataOptions
     public int MaxRecordChars { get; init; } = 1 << 20;
     public int MaxColumns { get; init; } = 10_000;
     public long MaxDecompressedBytes { get; init; } = 4L << 30;
+    /// <summary>The most physical lines the table may have, blank lines included.</summary>
+    public long MaxLines { get; init; } = long.MaxValue;
+    /// <summary>Stops reading when cancelled.</summary>
+    public CancellationToken Cancel { get; init; }
 }

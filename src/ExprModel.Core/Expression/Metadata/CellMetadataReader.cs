@@ -21,7 +21,8 @@ public static partial class CellMetadataReader
         var o = options ?? new CellMetadataOptions();
         string file = Path.GetFileName(path);
         var (delimiter, delimiterName) = DelimiterSniffer.Detect(path, file, o.MaxDecompressedBytes);
-        using var r = new RecordReader(InputFile.Open(path, o.MaxDecompressedBytes), file, delimiter, o.MaxRecordChars, o.MaxColumns);
+        using var r = new RecordReader(InputFile.Open(path, o.MaxDecompressedBytes), file, delimiter, o.MaxRecordChars, o.MaxColumns, o.MaxLines,
+            o.Cancel);
         if (!r.ReadRecord()) throw new ExpressionFormatException($"{file}: line 1: the file is empty.");
         var header = Enumerable.Range(0, r.FieldCount).Select(r.FieldString).ToList();
         for (int j = 0; j < header.Count; j++)

@@ -24,7 +24,7 @@ internal sealed class BoundedStream(Stream inner, string path, long maxBytes) : 
         _total += n;
         if (n == 0 && buffer.Length > 0 && !_verified) { _verified = true; VerifyTrailer(); }
         if (_total > maxBytes)
-            throw new ExpressionFormatException($"{fileName}: byte {_total:N0} of the decompressed data: " +
+            throw new ExpressionLimitException($"{fileName}: byte {_total:N0} of the decompressed data: " +
                 $"inflates past the limit of {maxBytes:N0} bytes (a decompression bomb, or raise the limit).");
         return n;
     }

@@ -1,4 +1,5 @@
-using System.Text;
+using System.Buffers;
+using System.Text.Unicode;
 
 namespace ExprModel.Core.Expression.Text;
 
@@ -9,10 +10,15 @@ namespace ExprModel.Core.Expression.Text;
 /// </summary>
 internal sealed class RecordReader : IDisposable
 {
-    private readonly TextReader _reader;
+    private readonly Stream _stream;
+    private readonly byte[] _bytes = new byte[1 << 16];
+    private int _bytePos, _byteLen;
+    private bool _streamDone, _started;
+    /// <summary>The invalid byte that ends the decoded characters, refused when the reader reaches it; -1 when none.</summary>
+    private int _invalidByte = -1;
     private readonly char[] _chunk = new char[1 << 16];
     private int _chunkPos, _chunkLen;
-    private bool _eof;
+    private bool _eof, _inRecord;
 
     private char[] _record = new char[1 << 12];
     private int _recordLen;
@@ -33,14 +39,25 @@ internal sealed class RecordReader : IDisposable
     public long LineNumber { get; private set; }
     public int FieldCount { get; private set; }
 
-    public RecordReader(Stream stream, string fileName, char delimiter, int maxRecordChars, int maxColumns)
+    /// <summary>The most physical lines the input may have, blank lines included.</summary>
+    public long MaxLines { get; }
+    private readonly CancellationToken _cancel;
+
+    /// <param name="maxLines">Stops with <see cref="ExpressionLimitException"/> past this many physical lines (blank lines count).</param>
+    /// <param name="cancel">Checked before every block of input is decoded (64 K characters).</param>
+    public RecordReader(Stream stream, string fileName, char delimiter, int maxRecordChars, int maxColumns, long maxLines = long.MaxValue,
+        CancellationToken cancel = default)
     {
-        // Strict UTF-8: invalid bytes are a format error (binary data), not silently replaced characters.
-        _reader = new StreamReader(stream, new UTF8Encoding(false, throwOnInvalidBytes: true), detectEncodingFromByteOrderMarks: true, 1 << 16);
+        // Strict UTF-8, decoded here block by block: the characters before an invalid byte are read as usual and the byte is
+        // refused where it stands, so the error names its own line and character (a decoder that throws for the whole block
+        // loses the position).
+        _stream = stream;
         FileName = fileName;
         Delimiter = delimiter;
         MaxRecordChars = maxRecordChars;
         MaxColumns = maxColumns;
+        MaxLines = maxLines;
+        _cancel = cancel;
     }
 
     public ReadOnlySpan<char> Field(int i) => _record.AsSpan(_starts[i], _lengths[i]);
@@ -56,22 +73,81 @@ internal sealed class RecordReader : IDisposable
     {
         if (_chunkPos < _chunkLen) return _chunk[_chunkPos];
         if (_eof) return -1;
-        try { _chunkLen = _reader.Read(_chunk, 0, _chunk.Length); }
-        catch (DecoderFallbackException)
-        {
-            throw ErrorHere("not UTF-8 text (invalid byte sequence): binary data or a different encoding; save the table as UTF-8 text.");
-        }
-        _chunkPos = 0;
+        Decode();
         if (_chunkLen == 0) { _eof = true; return -1; }
         return _chunk[0];
+    }
+
+    /// <summary>Decodes the next block of characters into the chunk (empty at the end of input).</summary>
+    private void Decode()
+    {
+        _cancel.ThrowIfCancellationRequested();
+        if (_invalidByte >= 0)
+            throw ErrorHere($"byte 0x{_invalidByte:X2} (column {(_inRecord ? FieldCount + 1 : 1)}) is not UTF-8 text (invalid byte sequence): binary data "
+                + "or a different encoding; save the table as UTF-8 text.");
+        _chunkPos = 0;
+        _chunkLen = 0;
+        while (true)
+        {
+            if (!_streamDone && (_byteLen - _bytePos < 4 || !_started)) Fill();
+            if (!_started && !StartOfText()) continue;
+            var status = Utf8.ToUtf16(_bytes.AsSpan(_bytePos, _byteLen - _bytePos), _chunk, out int read, out int written,
+                replaceInvalidSequences: false, isFinalBlock: _streamDone);
+            _bytePos += read;
+            _chunkLen = written;
+            if (status == OperationStatus.InvalidData)
+            {
+                _invalidByte = _bytes[_bytePos];
+                if (written == 0) Decode(); // throws, at the current position
+                return;
+            }
+            if (written > 0 || _streamDone) return;
+        }
+    }
+
+    /// <summary>Tops the byte buffer up after what is left of it (at most a partial UTF-8 sequence, fewer than 4 bytes, or nothing).</summary>
+    private void Fill()
+    {
+        int left = _byteLen - _bytePos;
+        Array.Copy(_bytes, _bytePos, _bytes, 0, left);
+        (_bytePos, _byteLen) = (0, left);
+        while (_byteLen < _bytes.Length)
+        {
+            int n = _stream.Read(_bytes, _byteLen, _bytes.Length - _byteLen);
+            if (n == 0) { _streamDone = true; break; }
+            _byteLen += n;
+            if (_byteLen >= 4) break; // enough to go on; a slow stream is not waited on for a whole buffer
+        }
+    }
+
+    /// <summary>
+    /// Skips a UTF-8 byte-order mark and refuses UTF-16 or UTF-32 text by its mark; false while too few bytes have arrived to tell.
+    /// </summary>
+    private bool StartOfText()
+    {
+        var head = _bytes.AsSpan(_bytePos, _byteLen - _bytePos);
+        if (head.Length < 3 && !_streamDone) return false;
+        _started = true;
+        if (head.StartsWith((ReadOnlySpan<byte>)[0xEF, 0xBB, 0xBF])) _bytePos += 3;
+        else if (head.StartsWith((ReadOnlySpan<byte>)[0xFF, 0xFE]) || head.StartsWith((ReadOnlySpan<byte>)[0xFE, 0xFF]))
+            throw ErrorHere("UTF-16 text (its byte-order mark): save the table as UTF-8 text.");
+        return true;
     }
 
     private void Advance()
     {
         char c = _chunk[_chunkPos++];
-        if (c == '\n') { _line++; _physicalColumn = 1; }
+        if (c == '\n')
+        {
+            if (_line == MaxLines)
+                throw new ExpressionLimitException($"{FileName}: line {_line + 1:N0}: more than {MaxLines:N0} lines (blank lines count), the limit for "
+                    + "one table; reading stopped there.");
+            _line++;
+            _physicalColumn = 1;
+        }
         else _physicalColumn++;
     }
+
 
     private void Append(char c)
     {
@@ -116,6 +192,13 @@ internal sealed class RecordReader : IDisposable
         _recordLen = 0;
         FieldCount = 0;
         LineNumber = _line;
+        _inRecord = true;
+        try { return ReadFields(); }
+        finally { _inRecord = false; }
+    }
+
+    private bool ReadFields()
+    {
         bool anyContent = false;
         if (WhitespaceDelimited) return ReadWhitespaceRecord();
         while (true)
@@ -193,5 +276,5 @@ internal sealed class RecordReader : IDisposable
         }
     }
 
-    public void Dispose() => _reader.Dispose();
+    public void Dispose() => _stream.Dispose();
 }

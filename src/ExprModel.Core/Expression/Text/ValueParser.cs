@@ -5,6 +5,28 @@ namespace ExprModel.Core.Expression.Text;
 /// <summary>Parses one expression value, refusing what a matrix of expression levels cannot hold.</summary>
 internal static class ValueParser
 {
+    /// <summary>
+    /// Null when the value is fine; otherwise what is wrong with it. With <paramref name="decimalComma"/> (a table whose
+    /// delimiter is not the comma, as spreadsheets write in decimal-comma locales) one comma in a value without a point
+    /// is its decimal separator, and <paramref name="usedComma"/> says so.
+    /// </summary>
+    public static string? TryParse(ReadOnlySpan<char> text, out double value, bool decimalComma, out bool usedComma)
+    {
+        usedComma = false;
+        int comma = decimalComma ? text.IndexOf(',') : -1;
+        if (comma < 0) return TryParse(text, out value);
+        if (text.IndexOf('.') >= 0 || text[(comma + 1)..].IndexOf(',') >= 0)
+        {
+            value = 0;
+            return $"'{Shorten(text.Trim())}' mixes thousands and decimal separators (write the value without grouping, e.g. 1234,5)";
+        }
+        Span<char> copy = text.Length <= 64 ? stackalloc char[text.Length] : new char[text.Length];
+        text.CopyTo(copy);
+        copy[comma] = '.';
+        usedComma = true;
+        return TryParse(copy, out value);
+    }
+
     /// <summary>Null when the value is fine; otherwise what is wrong with it.</summary>
     public static string? TryParse(ReadOnlySpan<char> text, out double value)
     {

@@ -64,6 +64,27 @@ public sealed class DelimitedTableReaderTests : IDisposable
     }
 
     [Fact]
+    public void SemicolonTableWithDecimalCommas_IsReadWithANote()
+    {
+        // Spreadsheets in decimal-comma locales export ';'-delimited text with ',' as the decimal separator (common practice).
+        const string table = "gene;c1;c2\nScn1a;38,5;1\nKcnc1;0;2,25\nGapdh;1,5;0\n";
+        var t = DelimitedTableReader.Read(_files.Text("locale.csv", table), KeepChannels);
+        Assert.Equal([38.5, 1], t.Genes["Scn1a"]);
+        Assert.Equal([0, 2.25], t.Genes["Kcnc1"]);
+        Assert.Equal([40.0, 3.25], t.LibrarySizes);
+        var note = Assert.Single(t.Notes, n => n.Contains("decimal comma"));
+        Assert.Contains("3 value(s)", note);
+        Assert.Contains("line 2, column 2", note);
+    }
+
+    [Fact]
+    public void CommaTable_NeverReadsACommaAsDecimal()
+    {
+        var e = Assert.Throws<ExpressionFormatException>(() => DelimitedTableReader.Read(_files.Text("q.csv", "gene,c1\nScn1a,\"38,5\"\n"), KeepChannels));
+        Assert.Contains("'38,5' is not a number", e.Message);
+    }
+
+    [Fact]
     public void ReadsGzipAndByteOrderMark()
     {
         var t = DelimitedTableReader.Read(_files.Text("a.csv.gz", GenesByCells, bom: true, gzip: true), KeepChannels);
@@ -189,7 +210,7 @@ public sealed class DelimitedTableReaderTests : IDisposable
         // A valid table bigger than the stated budget: the limit, not the content, must stop the read.
         var big = "gene,c1,c2\n" + string.Concat(Enumerable.Range(0, 5000).Select(i => $"G{i},1,2\n"));
         var path = _files.Text("big.csv.gz", big, gzip: true);
-        var e = Assert.Throws<ExpressionFormatException>(() => DelimitedTableReader.Read(path, new() { MaxDecompressedBytes = 10_000 }));
+        var e = Assert.Throws<ExpressionLimitException>(() => DelimitedTableReader.Read(path, new() { MaxDecompressedBytes = 10_000 }));
         Assert.Contains("big.csv.gz", e.Message);
         Assert.Contains("decompressed data", e.Message);
         Assert.Contains("limit of 10,000 bytes", e.Message);

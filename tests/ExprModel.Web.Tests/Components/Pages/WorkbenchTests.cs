@@ -113,7 +113,7 @@ public sealed class WorkbenchTests : BunitContext
         var runner = Services.GetRequiredService<ModelRunner>();
         var cold = ModelRunner.Readouts(runner.Compile(moved), CancellationToken.None);
         foreach (var row in cold.Rows)
-            Assert.Equal(ExprModel.Web.Components.Panels.ReadoutPanel.Format(row.Value), Value(cut, row.Name));
+            Assert.Equal(ExprModel.Core.Export.ReadoutDisplay.Format(row.Value, row.Unit), Value(cut, row.Name));
     }
 
     /// <summary>
@@ -142,7 +142,7 @@ public sealed class WorkbenchTests : BunitContext
         };
         var cold = ModelRunner.Readouts(runner.Compile(moved), CancellationToken.None);
         foreach (var row in cold.Rows)
-            Assert.Equal(ExprModel.Web.Components.Panels.ReadoutPanel.Format(row.Value), Value(cut, row.Name));
+            Assert.Equal(ExprModel.Core.Export.ReadoutDisplay.Format(row.Value, row.Unit), Value(cut, row.Name));
 
         ShareAndExpectNoChange(cut);
     }
@@ -178,16 +178,16 @@ public sealed class WorkbenchTests : BunitContext
 
         var cut = Open("cortex-rs2008");
         MoveAndWait(cut, "kv7-m-yamada", "700");
-        Assert.True(ExprModel.Web.Components.Panels.ReadoutPanel.Format(rheobase * 1.5) == Value(cut, "rheobase"),
+        Assert.True(ExprModel.Core.Export.ReadoutDisplay.Format(rheobase * 1.5, "uA/cm2") == Value(cut, "rheobase"),
             "the altered read-outs were not shown: this test's copy of the Workbench's model no longer matches the page's");
 
         cut.Find("[data-testid=share]").Click();
         cut.WaitForAssertion(() => Assert.NotEmpty(cut.FindAll("[data-testid=share-note]")), TimeSpan.FromSeconds(60));
         foreach (var row in real.Rows)
-            Assert.Equal(ExprModel.Web.Components.Panels.ReadoutPanel.Format(row.Value), Value(cut, row.Name));
+            Assert.Equal(ExprModel.Core.Export.ReadoutDisplay.Format(row.Value, row.Unit), Value(cut, row.Name));
         var note = cut.Find("[data-testid=share-note]").TextContent;
-        Assert.Contains($"rheobase {ExprModel.Web.Components.Panels.ReadoutPanel.Format(rheobase * 1.5)} uA/cm2 → "
-            + $"{ExprModel.Web.Components.Panels.ReadoutPanel.Format(rheobase)} uA/cm2", note);
+        Assert.Contains($"rheobase {ExprModel.Core.Export.ReadoutDisplay.Format(rheobase * 1.5, "uA/cm2")} uA/cm2 → "
+            + $"{ExprModel.Core.Export.ReadoutDisplay.Format(rheobase, "uA/cm2")} uA/cm2", note);
         Assert.DoesNotContain("spike threshold", note);
 
         // Moving on clears the note (it described the table at the moment of sharing).

@@ -50,11 +50,22 @@ public sealed class ReadoutPanelTests : BunitContext
     }
 
     [Theory]
-    [InlineData(-64.0175643, "-64.018")]
+    [InlineData(-64.0175643, "-64.02")]
     [InlineData(1217.70488, "1218")]
-    [InlineData(0.0012345, "0.001234")]
+    [InlineData(0.0012345, "0.001235")]
     [InlineData(0.0, "0")]
-    public void Numbers_are_shown_compactly(double value, string shown) => Assert.Equal(shown, ReadoutPanel.Format(value));
+    public void Numbers_of_unnamed_unit_are_shown_to_four_digits(double value, string shown) => Assert.Equal(shown, ReadoutPanel.Format(value));
+
+    [Fact]
+    public void Tiny_values_show_as_zero_at_their_read_out_resolution()
+    {
+        // A sag ratio of 1.4e-12 is no sag; it must not appear as "1.369E-12".
+        var rows = new List<ReadoutRow> { new("sag_ratio", "fraction", 1.369e-12), new("resting_potential", "mV", -64.0175643) };
+        var cut = Render<ReadoutPanel>(p => p.Add(x => x.Columns, [new ReadoutPanel.Column("now", "#000", rows)]));
+        Assert.Equal("0", cut.Find("tr[data-readout=sag_ratio] td.num").TextContent);
+        Assert.Equal("-64.02", cut.Find("tr[data-readout=resting_potential] td.num").TextContent);
+        Assert.DoesNotContain("E-", cut.Markup);
+    }
 }
 
 public sealed class ErrorNoteTests : BunitContext

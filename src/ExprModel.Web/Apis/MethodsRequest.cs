@@ -1,0 +1,3 @@
+namespace ExprModel.Web.Apis;
+
+public sealed record MethodsRequest : ModelRequest;
