@@ -99,8 +99,13 @@ public static class ProtocolRuns
     {
         var protocol = new ClampProtocol
         {
-            HoldingMv = V(p, "holding"), FromMv = V(p, "from"), ToMv = V(p, "to"), IncrementMv = V(p, "increment"),
-            CommandMs = V(p, "command"), ConditioningMs = V(p, "conditioning"), TestMv = V(p, "test"),
+            HoldingMv = V(p, "holding"),
+            FromMv = V(p, "from"),
+            ToMv = V(p, "to"),
+            IncrementMv = V(p, "increment"),
+            CommandMs = V(p, "command"),
+            ConditioningMs = V(p, "conditioning"),
+            TestMv = V(p, "test"),
         };
         if (protocol.Problem() is { } problem) throw new UserInputException(problem);
         var curves = ClampFamilies.Measure(cell, protocol, cancel: cancel);
