@@ -21,6 +21,7 @@ public static class Program
             BenchmarkSwitcher.FromAssembly(typeof(Program).Assembly).Run(args.Where(a => a != "--bdn").ToArray());
             return 0;
         }
+        if (args.Contains("atlas")) { AtlasBenchmark.Run(args); return 0; }
         if (args.Contains("whatif")) { WhatIfBenchmark.Run(); return 0; }
         if (args.Contains("stochastic")) { StochasticBenchmark.Run(args.Contains("--quick")); return 0; }
         if (args.Contains("recordings")) { RecordingsBenchmark.Run(); return 0; }

@@ -58,7 +58,7 @@ public static class AnnDataReader
             throw at.Error($"values look log-transformed (not whole numbers, largest {stats.Max:G4}); {counts.MatrixPath} holds whole numbers: " +
                 $"use --matrix {counts.Spelling} (read options: matrix '{counts.Spelling}') to model its counts, or state the transform to undo it.");
         if (o.Matrix is not null) notes.Add($"values from /{matrix.MatrixPath} (matrix choice '{matrix.Spelling}').");
-        if (o.Cells is not null) notes.Add($"read {range} of {total} (a part of the file); the unit is decided from these cells' values.");
+        if (o.Cells is not null) notes.Add($"read {range} of {total} (a part of the file); a unit not stated is decided from these cells' values.");
 
         var (unit, unitNote) = UnitDecision.Decide(file, o, stats, library, notes);
         return new ExpressionTable

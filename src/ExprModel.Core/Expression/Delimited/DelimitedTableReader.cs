@@ -29,7 +29,7 @@ public static class DelimitedTableReader
             ? ReadGenesAsRows(records, file, shape.Ids, shape.IdOffset, o, stats, notes)
             : ReadCellsAsRows(records, file, shape.Ids, shape.IdOffset, o, stats, notes);
         if (o.Cells is { } range)
-            notes.Add($"read {range} of the file's cells (a part of the file); the unit is decided from these cells' values.");
+            notes.Add($"read {range} of the file's cells (a part of the file); a unit not stated is decided from these cells' values.");
 
         if (stats.DecimalCommas > 0)
             notes.Add($"{stats.DecimalCommas} value(s) written with a decimal comma (first at {stats.FirstDecimalComma}) were read with the comma as the " +

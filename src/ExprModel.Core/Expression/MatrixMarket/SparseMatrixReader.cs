@@ -112,7 +112,7 @@ public static class SparseMatrixReader
                 $"the size line declares {entries} entries but the file ends after {seen} (truncated?).");
         // Zeros are implicit in a sparse matrix, so count them for the unit statistics.
         if (inRange < rows * range.Count) stats.Add(0);
-        if (o.Cells is not null) notes.Add($"read {range} of {totalCells} (a part of the file); the unit is decided from these cells' values.");
+        if (o.Cells is not null) notes.Add($"read {range} of {totalCells} (a part of the file); a unit not stated is decided from these cells' values.");
 
         var (unit, unitNote) = UnitDecision.Decide(file, o, stats, library, notes);
         return new ExpressionTable
