@@ -20,7 +20,8 @@ internal static class AnnDataMatrixReader
     /// <summary>Elements looked at to judge whether another matrix holds whole numbers.</summary>
     private const int ProbeElements = 1 << 16;
 
-    /// <summary>Reads the matrix into <paramref name="library"/> and <paramref name="kept"/> (both indexed by cell within the range); returns its layout.</summary>
+    /// <summary>Reads the matrix into <paramref name="library"/> and <paramref name="kept"/> (both indexed by cell within the range); returns its
+    /// layout.</summary>
     public static string Read(IH5Object x, int cells, int genes, CellRange range, ExpressionReadOptions o, H5Location at, ValueStats stats,
         double[] library, double[]?[] kept)
     {
@@ -108,9 +109,7 @@ internal static class AnnDataMatrixReader
             return d;
         }
         var dataSet = Need("data");
-        long nnz = at.Length(dataSet);
         var indicesSet = Need("indices");
-        at.CheckLength(indicesSet, nnz);
         var indptrSet = Need("indptr");
         int major = csr ? cells : genes, minor = csr ? genes : cells;
         at.CheckLength(indptrSet, major + 1);
@@ -122,7 +121,12 @@ internal static class AnnDataMatrixReader
         if (first == 0 && ptr[0] != 0) throw at.Error("row 0: must be 0.");
         for (int k = 1; k <= rows; k++)
             if (ptr[k] < ptr[k - 1]) throw at.Error($"row {first + k}: decreases ({ptr[k - 1]} then {ptr[k]}).");
-        if (last != nnz) throw at.Error($"row {major}: the last pointer is {last} but data holds {nnz} elements.");
+        long nnz = (long)last;
+        at.Path = $"{groupPath}/data";
+        at.CheckLength(dataSet, nnz);
+        at.Path = $"{groupPath}/indices";
+        at.CheckLength(indicesSet, nnz);
+        at.Path = $"{groupPath}/indptr";
         if (ptr[rows] > nnz) throw at.Error($"row {first + rows}: pointer {ptr[rows]} lies past the {nnz} data elements.");
 
         long from = (long)ptr[0], to = (long)ptr[rows], keptEntries = 0;
