@@ -154,6 +154,7 @@ internal static unsafe class SweepKernel
         var resume = new ResumePoint?[lanes];
         double resumeAfter = stopAfter ?? 0;
 
+        int stepsRun = steps;
         fixed (double* S = stim)
         {
             for (int s = 0; s < steps; s++)
@@ -327,10 +328,15 @@ internal static unsafe class SweepKernel
                         }
                         if (!double.IsNaN(pending[l])) anyPending = true;
                     }
-                    if (lanesDone == lanes) break;
+                    if (lanesDone == lanes)
+                    {
+                        stepsRun = s + 1;
+                        break;
+                    }
                 }
             }
         }
+        StepCounters.AddSimd(stepsRun);
         var result = new SweepLane[lanes];
         for (int l = 0; l < lanes; l++) result[l] = new SweepLane(spikes[l], resume[l]);
         return result;
