@@ -42,14 +42,16 @@ public static class BatchBenchmark
         int cores = Environment.ProcessorCount;
         string load = File.Exists("/proc/loadavg") ? File.ReadAllText("/proc/loadavg").Split(' ')[0] : "?";
         Console.WriteLine($"batch: {cells} cells, {report.Genes.Count} mapped genes; {firing} fire, {failed} failed");
-        Console.WriteLine($"  wall {wallS:F1} s ({wallS * 1000 / cells:F1} ms per cell); process CPU {cpuS:F1} s ({cpuS * 1000 / cells:F1} ms per cell on one core); " +
-            $"load average now {load} on {cores} cores");
+        Console.WriteLine($"  wall {wallS:F1} s ({wallS * 1000 / cells:F1} ms per cell); process CPU {cpuS:F1} s " +
+            $"({cpuS * 1000 / cells:F1} ms per cell on one core); load average now {load} on {cores} cores");
         // CPU time is what the cells cost; wall time on a shared machine also holds other people's work. With the machine
         // to itself, the batch keeps every core busy, so its wall time is the CPU time over the cores.
         double ownWall1000 = cpuS / cells * 1000 / cores;
         Console.WriteLine($"  1,000 cells: {wallS / cells * 1000:F1} s wall as measured, {ownWall1000:F1} s from CPU time on {cores} idle cores; " +
-            $"target {TargetSecondsPer1000:F0} s: ratio {ownWall1000 / TargetSecondsPer1000:F2} (CPU-based), {wallS / cells * 1000 / TargetSecondsPer1000:F2} (wall)");
-        Console.WriteLine($"  integration steps per cell: {simdSteps / cells / 1e3:F0} k SIMD group steps (4 lanes each), {scalarSteps / cells / 1e3:F0} k scalar steps");
+            $"target {TargetSecondsPer1000:F0} s: ratio {ownWall1000 / TargetSecondsPer1000:F2} (CPU-based), " +
+            $"{wallS / cells * 1000 / TargetSecondsPer1000:F2} (wall)");
+        Console.WriteLine($"  integration steps per cell: {simdSteps / cells / 1e3:F0} k SIMD group steps (4 lanes each), " +
+            $"{scalarSteps / cells / 1e3:F0} k scalar steps");
         double perCellCoreS = cpuS / cells;
         Console.WriteLine($"  projection for {AtlasCells:N0} cells at {perCellCoreS * 1000:F1} core-ms per cell (perfect sharding, one core per task, " +
             "expression reading and model building's share of the table excluded; add the atlas benchmark's reading time per shard):");
@@ -75,7 +77,8 @@ public static class BatchBenchmark
         var sb = new StringBuilder();
         foreach (var b in rows)
         {
-            sb.Append(b.Index).Append(' ').Append(b.Item).Append(" rates ").AppendJoin(',', b.RatesAtStandardStepsHz.Select(r => F(r))).Append('\n');
+            sb.Append(b.Index).Append(' ').Append(b.Item).Append(" rates ").AppendJoin(',', b.RatesAtStandardStepsHz.Select(r => F(r)));
+            sb.Append('\n');
             if (b.Readouts is { } r)
             {
                 foreach (var (name, _, value) in r.Rows()) sb.Append("  ").Append(name).Append(' ').Append(F(value)).Append('\n');
@@ -97,7 +100,10 @@ public static class BatchBenchmark
     {
         var (table, report, mapping) = Resampled(1000);
         int stride = Math.Max(1, 1000 / cells);
-        var stages = new[] { "build", "settle", "passive", "rheobase", "spike shape", "f-I + standard steps", "sustained firing", "adaptation", "standard steps alone" };
+        var stages = new[]
+        {
+            "build", "settle", "passive", "rheobase", "spike shape", "f-I + standard steps", "sustained firing", "adaptation", "standard steps alone",
+        };
         var cpu = new double[stages.Length];
         var simd = new double[stages.Length];
         var scalar = new double[stages.Length];
@@ -112,7 +118,8 @@ public static class BatchBenchmark
                 var built = ExpressionModelBuilder.Build(table, report, mapping, new DensityRule(), ModelTarget.ForCell(table.CellIds[c]), null);
                 cell = new CompiledCell(built.Document.ToCellModel((id, _) => mapping.Entry(id)!));
             });
-            var s = ReadoutSettings.Batch with { ExtraStepsUaPerCm2 = BatchReadouts.StandardStepsPa.Select(cell!.Model.Geometry.PicoampsToDensity).ToArray() };
+            var standard = BatchReadouts.StandardStepsPa.Select(cell!.Model.Geometry.PicoampsToDensity).ToArray();
+            var s = ReadoutSettings.Batch with { ExtraStepsUaPerCm2 = standard };
             var notes = new List<string>();
             CellState rest = null!;
             bool firesAtRest = false;
@@ -127,7 +134,8 @@ public static class BatchBenchmark
             if (!firesAtRest) Stage(3, () => found = Rheobase.Measure(cell, rest, gSlope, s, null, notes, default).Found);
             if (found.Bracket is { } bracket) rounds.Add(bracket.Rounds);
             double? rb = null;
-            if (found.Bracket is { } br) Stage(4, () => rb = SpikeAtRheobase.Measure(cell, s, rest, br.AtOrAboveUaPerCm2, found, notes, default).RheobaseUaPerCm2);
+            if (found.Bracket is { } br)
+                Stage(4, () => rb = SpikeAtRheobase.Measure(cell, s, rest, br.AtOrAboveUaPerCm2, found, notes, default).RheobaseUaPerCm2);
             if (rb is { } rheobase)
             {
                 IReadOnlyList<FiPoint> fi = [];
@@ -145,7 +153,8 @@ public static class BatchBenchmark
         Console.WriteLine($"batch stages: {measured} cells (every {stride}th of the 1,000), one at a time; per cell: " +
             $"CPU ms (all threads) | k SIMD group steps | k scalar steps | share of CPU");
         for (int i = 0; i < stages.Length; i++)
-            Console.WriteLine($"  {stages[i],-22} {cpu[i] * 1000 / measured,8:F1} {simd[i] / measured / 1e3,8:F0} {scalar[i] / measured / 1e3,8:F0} {cpu[i] / total,7:P0}");
+            Console.WriteLine($"  {stages[i],-22} {cpu[i] * 1000 / measured,8:F1} {simd[i] / measured / 1e3,8:F0} {scalar[i] / measured / 1e3,8:F0} " +
+                $"{cpu[i] / total,7:P0}");
         Console.WriteLine($"  {"total",-22} {total * 1000 / measured,8:F1} {simd.Sum() / measured / 1e3,8:F0} {scalar.Sum() / measured / 1e3,8:F0}");
         if (rounds.Count > 0)
             Console.WriteLine($"  rheobase search rounds: mean {rounds.Average():F2}, max {rounds.Max()} over {rounds.Count} cells with a bracket");
