@@ -14,8 +14,14 @@ namespace ExprModel.Core.Analysis;
 /// </remarks>
 public static class OnsetSearch
 {
-    /// <summary>Amplitudes tested per round: two SIMD groups of four per core keeps every core busy.</summary>
-    private static int ProbesPerRound => Math.Max(4, 4 * Environment.ProcessorCount);
+    /// <summary>
+    /// Amplitudes tested per round: two SIMD groups of four. Fixed, not scaled with the machine's cores: for a cell
+    /// whose spiking is not monotone in the amplitude, the grid points probed decide which onset is found, so a count
+    /// that followed the core count would give such a cell a different rheobase on a bigger machine (or a cluster
+    /// node) than on this one, and a shared model or a sharded batch would not reproduce. Batches parallelise over
+    /// cells instead.
+    /// </summary>
+    internal const int ProbesPerRound = 8;
 
     /// <param name="known">A bracket already established (property fails at Below, holds at Above).</param>
     /// <param name="hint">An amplitude near the expected onset (for example the answer for a slightly different cell):
