@@ -124,24 +124,29 @@ wait_gone() { # JOBID [what]: waits until the job (all its array tasks) has left
   done
 }
 job_state() { scontrol -o show job "$1" 2>/dev/null | grep -oE 'JobState=[A-Z_]+' | head -n 1 | cut -d= -f2; }
-submit() { # DIR [TASKS]: runs submit.sh, sets array_job and merge_job
-  local out
-  out=$(bash "$1/submit.sh" ${2:+"$2"}) || fail "submit.sh failed: $out"
-  echo "$out"
-  array_job=$(echo "$out" | sed -nE 's/^array job ([0-9]+).*/\1/p')
-  merge_job=$(echo "$out" | sed -nE 's/.*merge job ([0-9]+).*/\1/p')
-  [ -n "$array_job" ] && [ -n "$merge_job" ] || fail "submit.sh did not name its jobs: $out"
+jobs_of() { # TEXT: sets array_job and merge_job from "array job N (...); merge job M (...)"
+  array_job=$(echo "$1" | sed -nE 's/^array job ([0-9]+).*/\1/p')
+  merge_job=$(echo "$1" | sed -nE 's/.*merge job ([0-9]+).*/\1/p')
+  [ -n "$array_job" ] && [ -n "$merge_job" ] || fail "the submission did not name its jobs: $1"
 }
-write_array() { # DIR
-  "$exe" slurm-array --shards 4 --dir "$1" --partition exprmodeltest --account exprmodellab --time 30 --memory 400M \
-    --cpus 1 --job-name "exprmodel-test" -- "${batch_options[@]}" 2>"$state/slurm-array.err" \
-    || { cat "$state/slurm-array.err"; fail "exprmodel slurm-array failed"; }
+submit_array() { # DIR: exprmodel slurm-array --submit (writes the scripts and runs submit.sh)
+  local out
+  out=$("$exe" slurm-array --shards 4 --dir "$1" --partition exprmodeltest --account exprmodellab --time 30 --memory 400M \
+    --cpus 1 --job-name "exprmodel-test" --submit -- "${batch_options[@]}" 2>"$state/slurm-array.err") \
+    || { cat "$state/slurm-array.err"; fail "exprmodel slurm-array --submit failed"; }
+  echo "$out"
+  jobs_of "$out"
+}
+resubmit() { # DIR TASKS: bash submit.sh TASKS (the rerun of failed tasks the scripts offer)
+  local out
+  out=$(bash "$1/submit.sh" "$2") || fail "submit.sh $2 failed: $out"
+  echo "$out"
+  jobs_of "$out"
 }
 
 # --- 4. round 1: the whole array and its merge ---------------------------------------------------------------------
 round1="$work/round 1"
-write_array "$round1"
-submit "$round1"
+submit_array "$round1"
 log "round 1: array job $array_job, merge job $merge_job submitted"
 wait_gone "$array_job" "round 1's array"
 wait_gone "$merge_job" "round 1's merge job"
@@ -154,8 +159,7 @@ log "round 1: merged.csv equals the single-process run byte for byte ($(wc -l <"
 
 # --- 5. round 2: task 3 cancelled mid-run, merge names it, task 3 alone again --------------------------------------
 round2="$work/round 2"
-write_array "$round2"
-submit "$round2"
+submit_array "$round2"
 log "round 2: array job $array_job, merge job $merge_job submitted; cancelling task 3 once it is computing"
 t0=$(date +%s)
 until grep -qs "progress:" "$round2"/logs/task-3-*.out; do
@@ -175,7 +179,8 @@ shard3="$round2/shards/shard-3-of-4.csv"
 [ -e "$shard3" ] && fail "the cancelled task left a shard file"
 leftovers=$(find "$round2" -name '*.tmp' | wc -l)
 log "round 2: no shard 3 file; $leftovers temporary file(s) left by the killed task (never merged)"
-if "$exe" merge --out "$round2/merged.csv" "$round2"/shards/shard-{1,2,3,4}-of-4.csv 2>"$state/merge2.err"; then
+# The merge job's own script, run here (its job waits for an afterok that can no longer come).
+if bash "$round2/merge.sh" 2>"$state/merge2.err"; then
   fail "merge accepted three shards of four"
 fi
 expected="error: shard 3 of 4 is missing: expected $shard3 (not found)."
@@ -183,7 +188,7 @@ grep -qF "$expected" "$state/merge2.err" || { cat "$state/merge2.err"; fail "mer
 [ -e "$round2/merged.csv" ] && fail "a refused merge wrote merged.csv"
 log "merge refused: $(cat "$state/merge2.err")"
 scancel "$merge_job" 2>/dev/null || true   # its dependency can no longer be met
-submit "$round2" 3
+resubmit "$round2" 3
 log "round 2: task 3 alone as job $array_job, merge job $merge_job"
 wait_gone "$array_job" "the rerun of task 3"
 wait_gone "$merge_job" "round 2's merge job"

@@ -150,12 +150,12 @@ public static partial class SlurmCommand
         return 0;
     }
 
-    [GeneratedRegex(@"^[A-Za-z0-9_.,+-]+$")]
+    [GeneratedRegex(@"^[A-Za-z0-9_.,+-]+\z")]
     private static partial Regex SbatchWord();
 
-    [GeneratedRegex(@"^(\d+|\d+:\d{1,2}|\d+:\d{1,2}:\d{1,2}|\d+-\d+|\d+-\d+:\d{1,2}|\d+-\d+:\d{1,2}:\d{1,2})$")]
+    [GeneratedRegex(@"^(\d+|\d+:\d{1,2}|\d+:\d{1,2}:\d{1,2}|\d+-\d+|\d+-\d+:\d{1,2}|\d+-\d+:\d{1,2}:\d{1,2})\z")]
     private static partial Regex TimeLimit();
 
-    [GeneratedRegex(@"^\d+[KMGTkmgt]?$")]
+    [GeneratedRegex(@"^\d+[KMGTkmgt]?\z")]
     private static partial Regex Memory();
 }
