@@ -7,6 +7,7 @@ namespace ExprModel.Cli.Tests.Commands;
 /// The written scripts, read and also run by bash itself (the outside judge of the quoting): a stand-in program
 /// prints the arguments it receives, and a stand-in sbatch records how it was called.
 /// </summary>
+[System.Runtime.Versioning.UnsupportedOSPlatform("windows")] // the scripts are for bash on Linux cluster nodes
 public class SlurmArrayScriptsTests
 {
     /// <summary>Options with everything a shell treats specially.</summary>

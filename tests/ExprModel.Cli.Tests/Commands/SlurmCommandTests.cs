@@ -3,6 +3,7 @@ using ExprModel.Data.Catalog;
 
 namespace ExprModel.Cli.Tests.Commands;
 
+[System.Runtime.Versioning.UnsupportedOSPlatform("windows")] // the scripts are for bash on Linux cluster nodes
 public class SlurmCommandTests
 {
     private static string Demo(string file) => Path.Combine(CatalogLocator.FindSourceDirectory()!, "demo", file);
