@@ -101,7 +101,7 @@ internal static partial class ShardMerge
                 }
                 if (raw.Length == 0) continue;
                 if (shardLine is null)
-                    throw new CliException($"{file}: no '# source: ...; shard I/N of M items' comment before the header: not a shard written by " +
+                    throw new CliException($"{file}: no comment line with 'shard I/N of M items' before the header: not a shard written by " +
                         "exprmodel batch.");
                 header = raw;
                 s = new Shard(file, position, Int(shardLine, "i"), Int(shardLine, "n"), Int(shardLine, "m"), shardLine.Groups["source"].Value,
@@ -142,12 +142,15 @@ internal static partial class ShardMerge
     private static void Write(IReadOnlyList<Shard> shards, TextWriter w)
     {
         var s1 = shards[0];
-        foreach (var c in s1.Comments)
+        foreach (var comment in s1.Comments)
         {
-            var text = c.StartsWith("# ", StringComparison.Ordinal) ? c[2..] : c[1..];
+            var c = comment;
             if (ShardLine().Match(c) is { Success: true } m)
-                text = $"source: {m.Groups["source"].Value}; shard 1/1 of {m.Groups["m"].Value} items{m.Groups["rest"].Value}";
-            w.Write(CsvTable.Comment(text));
+            {
+                Group i = m.Groups["i"], n = m.Groups["n"];
+                c = c[..i.Index] + "1/1" + c[(n.Index + n.Length)..];
+            }
+            w.Write(CsvTable.Comment(c.StartsWith("# ", StringComparison.Ordinal) ? c[2..] : c[1..]));
             w.Write('\n');
         }
         w.Write(CsvTable.Line(s1.Header));
@@ -166,7 +169,8 @@ internal static partial class ShardMerge
         }
     }
 
-    // The source may itself hold "; shard": the greedy source group takes the last shard part of the line.
-    [GeneratedRegex(@"^# source: (?<source>.*); shard (?<i>\d+)/(?<n>\d+) of (?<m>\d+) items(?<rest>.*)$")]
+    // batch writes "# source: FILE; shard I/N of M items[; note]"; the greedy prefix takes the last shard part of a line
+    // (a source name may hold "shard"), and a hand-edited shard may carry it on a comment line of its own.
+    [GeneratedRegex(@"^#(?<source>.*)\bshard (?<i>\d+)/(?<n>\d+) of (?<m>\d+) items(?<rest>.*)$")]
     private static partial Regex ShardLine();
 }
