@@ -37,7 +37,7 @@ public sealed class ExpressionParts
             var file = upload[i];
             if (file.Bytes.Length == 0) throw new UserInputException($"{Path.GetFileName(file.Name)}: the file is empty (0 bytes).");
             var dir = Directory.CreateDirectory(Path.Combine(folder, "upload", (i + 1).ToString(System.Globalization.CultureInfo.InvariantCulture))).FullName;
-            if (UploadArchive.Detect(file.Bytes) != UploadArchive.Kind.None)
+            if (UploadArchive.Detect(file) != UploadArchive.Kind.None)
             {
                 var entries = UploadArchive.Expand(file with { Name = Path.GetFileName(file.Name) }, dir, limits.MaxDecompressedBytes, cancel);
                 if (entries.Count == 0) throw new UserInputException($"{Path.GetFileName(file.Name)}: the archive holds no files.");

@@ -26,10 +26,15 @@ public static class UploadArchive
 
     public enum Kind { None, Zip, Tar, GzipTar }
 
-    /// <summary>What kind of archive the bytes are, by content.</summary>
-    public static Kind Detect(byte[] bytes)
+    /// <summary>
+    /// What kind of archive the file is, by content. Zip signature bytes count only when the zip's directory opens or the
+    /// name ends in .zip, so a damaged file sent as a table is reported as a table (by the table's own checks).
+    /// </summary>
+    public static Kind Detect(UploadedFile file)
     {
-        if (bytes.AsSpan().StartsWith(ZipLocalFile) || bytes.AsSpan().StartsWith(ZipEmpty)) return Kind.Zip;
+        var bytes = file.Bytes;
+        if (bytes.AsSpan().StartsWith(ZipLocalFile) || bytes.AsSpan().StartsWith(ZipEmpty))
+            return file.Name.EndsWith(".zip", StringComparison.OrdinalIgnoreCase) || OpensAsZip(bytes) ? Kind.Zip : Kind.None;
         if (IsTarHeader(bytes)) return Kind.Tar;
         if (bytes.Length >= 2 && bytes[0] == 0x1f && bytes[1] == 0x8b)
         {
@@ -45,6 +50,16 @@ public static class UploadArchive
         return Kind.None;
     }
 
+    private static bool OpensAsZip(byte[] bytes)
+    {
+        try
+        {
+            using var zip = new ZipArchive(new MemoryStream(bytes, writable: false), ZipArchiveMode.Read);
+            return zip.Entries.Count >= 0;
+        }
+        catch (InvalidDataException) { return false; }
+    }
+
     private static bool IsTarHeader(ReadOnlySpan<byte> block) =>
         block.Length >= TarMagicOffset + TarMagic.Length && block.Slice(TarMagicOffset, TarMagic.Length).SequenceEqual(TarMagic);
 
@@ -56,7 +71,7 @@ public static class UploadArchive
     /// <exception cref="UploadTooLargeException">The entries inflate past <paramref name="maxBytes"/>.</exception>
     public static IReadOnlyList<ReceivedFile> Expand(UploadedFile archive, string folder, long maxBytes, CancellationToken cancel = default)
     {
-        var kind = Detect(archive.Bytes);
+        var kind = Detect(archive);
         var budget = new Budget(archive.Name, maxBytes);
         try
         {
@@ -120,6 +135,27 @@ public static class UploadArchive
             files.Add(Write(archive, folder, files.Count, name, data, null, cancel)); // counted by the tar stream
         }
         return files;
+    }
+
+    /// <summary>
+    /// Several uploaded files as one zip (each under its own file name), so an upload of Matrix Market parts can be kept
+    /// with a shared model as one file and read back through <see cref="Expand"/>.
+    /// </summary>
+    public static byte[] Pack(IReadOnlyList<UploadedFile> files)
+    {
+        using var buffer = new MemoryStream();
+        using (var zip = new ZipArchive(buffer, ZipArchiveMode.Create, leaveOpen: true))
+        {
+            var used = new HashSet<string>(StringComparer.Ordinal);
+            foreach (var file in files)
+            {
+                var name = ExpressionSession.SafeName(Path.GetFileName(file.Name), "part");
+                for (int k = 2; !used.Add(name); k++) name = $"{k}-{ExpressionSession.SafeName(Path.GetFileName(file.Name), "part")}";
+                using var entry = zip.CreateEntry(name, CompressionLevel.Optimal).Open();
+                entry.Write(file.Bytes);
+            }
+        }
+        return buffer.ToArray();
     }
 
     /// <summary>
