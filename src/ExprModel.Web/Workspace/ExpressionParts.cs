@@ -55,14 +55,21 @@ public sealed class ExpressionParts
         var layout = Directory.CreateDirectory(Path.Combine(folder, "matrix-market")).FullName;
         var matrixName = ExpressionSession.SafeName(parts.Matrix.FileName, "matrix.mtx");
         if (matrixName is GenesName or CellsName) matrixName = "matrix.mtx";
-        File.Move(parts.Matrix.Path, Path.Combine(layout, matrixName));
-        File.Move(parts.Genes.Path, Path.Combine(layout, GenesName));
-        File.Move(parts.Cells.Path, Path.Combine(layout, CellsName));
+        ReceivedFile Move(ReceivedFile file, string name)
+        {
+            File.Move(file.Path, Path.Combine(layout, name));
+            return file with { Path = Path.Combine(layout, name) };
+        }
+        var placed = new MatrixMarketParts
+        {
+            Matrix = Move(parts.Matrix, matrixName), Genes = Move(parts.Genes, GenesName), Cells = Move(parts.Cells, CellsName),
+            Rows = parts.Rows, Columns = parts.Columns, Entries = parts.Entries,
+        };
         return new ExpressionParts
         {
-            TablePath = Path.Combine(layout, matrixName),
+            TablePath = placed.Matrix.Path,
             TableName = parts.Matrix.Name,
-            MatrixMarket = parts,
+            MatrixMarket = placed,
             ReaderNames = new Dictionary<string, string>
             {
                 [matrixName] = parts.Matrix.Name, [GenesName] = parts.Genes.Name, [CellsName] = parts.Cells.Name,
