@@ -94,7 +94,8 @@ public static class BuildApi
         if (body is null) throw new UserInputException("request body: a JSON object with the field expression (the table as text) is required.");
         RequestFieldLimits.CheckRequest(body, maxTextFieldChars);
         if (body.Expression is not { } table) throw new UserInputException("expression: required (the table as CSV or TSV text).");
-        return new BuildUpload(body, [new UploadedFile(body.ExpressionName, Encoding.UTF8.GetBytes(table))], body.Metadata is null ? null : Encoding.UTF8.GetBytes(body.Metadata),
+        return new BuildUpload(body, [new UploadedFile(body.ExpressionName, Encoding.UTF8.GetBytes(table))],
+            body.Metadata is null ? null : Encoding.UTF8.GetBytes(body.Metadata),
             body.MetadataName);
     }
 

@@ -22,7 +22,8 @@ public static class CompareApi
 {
     private static readonly string[] FormFields = [.. ExpressionRequest.CommonFormFields, "recorded", "recordedCellColumn", "map", "per", "shrink"];
 
-    private sealed record CompareUpload(CompareRequest Options, IReadOnlyList<UploadedFile> Expression, string ExpressionName, byte[]? Metadata, string MetadataName,
+    private sealed record CompareUpload(CompareRequest Options, IReadOnlyList<UploadedFile> Expression, string ExpressionName, byte[]? Metadata,
+        string MetadataName,
         byte[]? Recorded, string RecordedName)
     {
         /// <summary>Recorded sweeps (multipart only): file name and bytes of each part named recording, recording2, ...</summary>
@@ -127,7 +128,8 @@ public static class CompareApi
         RequestFieldLimits.CheckRequest(body, maxTextFieldChars);
         if (body.Expression is not { } table) throw new UserInputException("expression: required (the table as CSV or TSV text).");
         static byte[]? Bytes(string? text) => text is null ? null : Encoding.UTF8.GetBytes(text);
-        return new CompareUpload(body, [new UploadedFile(body.ExpressionName, Encoding.UTF8.GetBytes(table))], body.ExpressionName, Bytes(body.Metadata), body.MetadataName, Bytes(body.Recorded),
+        return new CompareUpload(body, [new UploadedFile(body.ExpressionName, Encoding.UTF8.GetBytes(table))], body.ExpressionName, Bytes(body.Metadata),
+            body.MetadataName, Bytes(body.Recorded),
             body.RecordedName);
     }
 

@@ -19,7 +19,7 @@ public sealed record UploadPreview(IReadOnlyList<string> Lines, string? Summary)
         try
         {
             var parts = ExpressionParts.Receive(files, dir, limits, cancel);
-            if (parts.MatrixMarket is { } m) return new UploadPreview(TablePreview.FirstLines(m.Matrix), m.Summary);
+            if (parts.MatrixMarket is { } m) return new UploadPreview(MatrixEntries(m), m.Summary);
             var table = new ReceivedFile(parts.TableName, parts.TablePath);
             return new UploadPreview(TablePreview.FirstLines(table), $"{parts.TableName}: the table taken from the archive.");
         }
@@ -27,6 +27,14 @@ public sealed record UploadPreview(IReadOnlyList<string> Lines, string? Summary)
         {
             try { Directory.Delete(dir, recursive: true); } catch (IOException) { }
         }
+    }
+
+    /// <summary>The matrix's first stored values under a heading (banner, comments and size line are in the summary).</summary>
+    private static IReadOnlyList<string> MatrixEntries(MatrixMarketParts m)
+    {
+        var entries = TablePreview.FirstLines(m.Matrix, 64).Where(l => l.Length > 0 && !l.StartsWith('%')).Skip(1).Take(7)
+            .Select(l => string.Join('\t', l.Split([' ', '\t'], StringSplitOptions.RemoveEmptyEntries)));
+        return ["row (gene)\tcolumn (cell)\tvalue", .. entries];
     }
 
     /// <summary>A lone matrix is sorted like the parts so its missing sidecars are named at once.</summary>

@@ -201,7 +201,8 @@ public sealed class BuildApiTests(AppFactory factory) : ApiTestBase(factory)
 
     /// <summary>A readable stream that will not say its length, so the client sends the body chunked.</summary>
     /// <summary>The demo triple (catalog/demo/mtx, the seeded counts as Matrix Market) as expression parts, plus the demo metadata.</summary>
-    private static MultipartFormDataContent MatrixMarketForm(IEnumerable<(string FileName, byte[] Bytes)> expression, params (string Name, string Value)[] fields)
+    private static MultipartFormDataContent MatrixMarketForm(IEnumerable<(string FileName, byte[] Bytes)> expression,
+        params (string Name, string Value)[] fields)
     {
         var form = new MultipartFormDataContent();
         foreach (var (name, bytes) in expression) form.Add(FilePart(bytes), "expression", name);
@@ -210,7 +211,8 @@ public sealed class BuildApiTests(AppFactory factory) : ApiTestBase(factory)
         return form;
     }
 
-    private static (string, byte[])[] DemoTriple => [.. new[] { "matrix.mtx", "genes.tsv", "barcodes.tsv" }.Select(f => (f, File.ReadAllBytes(DemoPath("mtx/" + f))))];
+    private static (string, byte[])[] DemoTriple =>
+        [.. new[] { "matrix.mtx", "genes.tsv", "barcodes.tsv" }.Select(f => (f, File.ReadAllBytes(DemoPath("mtx/" + f))))];
 
     private static readonly (string, string)[] T1Fast = [("groupBy", "group"), ("group", "T1-fast")];
 

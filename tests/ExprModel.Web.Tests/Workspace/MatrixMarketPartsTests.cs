@@ -85,7 +85,8 @@ public sealed class MatrixMarketPartsTests : IDisposable
         var matrix = Put("matrix.mtx", "%%MatrixMarket matrix coordinate integer general\n3 2 1\n1 1 5\n");
         var genes = Put("genes.tsv", "A\nB\nC\n");
         var cells = Put("barcodes.tsv", "c1\nc2\n");
-        Assert.Contains("matrix.mtx came without its cells file", Assert.Throws<UserInputException>(() => MatrixMarketParts.Identify([matrix, genes], Limits)).Message);
+        Assert.Contains("matrix.mtx came without its cells file",
+            Assert.Throws<UserInputException>(() => MatrixMarketParts.Identify([matrix, genes], Limits)).Message);
         Assert.Contains("matrix.mtx came without its genes file: add the features.tsv or genes.tsv that names its 3 rows",
             Assert.Throws<UserInputException>(() => MatrixMarketParts.Identify([matrix, cells], Limits)).Message);
         var extra = Put("notes.txt", "one\ntwo\nthree\nfour\n");

@@ -49,7 +49,7 @@ public sealed class LoadTests : BunitContext
         Upload(cut, Demo("genes.tsv"), Demo("matrix.mtx"), Demo("barcodes.tsv"));
         cut.WaitForAssertion(() => Assert.Contains("× 240 cells (named by barcodes.tsv)", cut.Find("[data-testid=upload-parts]").TextContent));
         Assert.Contains("genes.tsv + matrix.mtx + barcodes.tsv", cut.Find(".preview h2").TextContent);
-        Assert.Contains("%%MatrixMarket", cut.Find("[data-testid=preview]").TextContent);
+        Assert.Contains("column (cell)", cut.Find("[data-testid=preview]").TextContent);
         Assert.Equal(3, _workspace.ExpressionFiles.Count);
         Assert.Equal(WorkspaceState.PackedName, _workspace.ExpressionName);
 
