@@ -62,8 +62,12 @@ public sealed class ExpressionParts
         }
         var placed = new MatrixMarketParts
         {
-            Matrix = Move(parts.Matrix, matrixName), Genes = Move(parts.Genes, GenesName), Cells = Move(parts.Cells, CellsName),
-            Rows = parts.Rows, Columns = parts.Columns, Entries = parts.Entries,
+            Matrix = Move(parts.Matrix, matrixName),
+            Genes = Move(parts.Genes, GenesName),
+            Cells = Move(parts.Cells, CellsName),
+            Rows = parts.Rows,
+            Columns = parts.Columns,
+            Entries = parts.Entries,
         };
         return new ExpressionParts
         {
@@ -72,7 +76,9 @@ public sealed class ExpressionParts
             MatrixMarket = placed,
             ReaderNames = new Dictionary<string, string>
             {
-                [matrixName] = parts.Matrix.Name, [GenesName] = parts.Genes.Name, [CellsName] = parts.Cells.Name,
+                [matrixName] = parts.Matrix.Name,
+                [GenesName] = parts.Genes.Name,
+                [CellsName] = parts.Cells.Name,
             },
         };
     }

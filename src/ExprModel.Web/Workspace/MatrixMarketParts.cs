@@ -90,7 +90,12 @@ public sealed class MatrixMarketParts
             throw new UserInputException($"{m} has {columns:N0} columns but {cells[0].File.Name} lists {cells[0].Lines:N0} cells.");
         return new MatrixMarketParts
         {
-            Matrix = matrix, Genes = genes[0].File, Cells = cells[0].File, Rows = rows, Columns = columns, Entries = entries,
+            Matrix = matrix,
+            Genes = genes[0].File,
+            Cells = cells[0].File,
+            Rows = rows,
+            Columns = columns,
+            Entries = entries,
         };
     }
 

@@ -80,12 +80,12 @@ public sealed class LoadTests : BunitContext
     }
 
     [Fact]
-    public void When_the_build_queue_is_full_reading_says_the_server_is_busy_and_keeps_the_upload()
+    public async Task When_the_build_queue_is_full_reading_says_the_server_is_busy_and_keeps_the_upload()
     {
         var cut = Render<Load>();
         Upload(cut, Demo("matrix.mtx"), Demo("genes.tsv"), Demo("barcodes.tsv"));
         cut.WaitForAssertion(() => cut.Find("[data-testid=upload-parts]"));
-        using (_queue.EnterAsync(CancellationToken.None).GetAwaiter().GetResult())
+        using (await _queue.EnterAsync(CancellationToken.None))
         {
             cut.Find("[data-testid=to-map]").Click();
             cut.WaitForAssertion(() => Assert.Contains("The server is building other tables", cut.Find("[data-testid=error]").TextContent));
