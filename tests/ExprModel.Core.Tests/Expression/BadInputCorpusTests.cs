@@ -87,7 +87,7 @@ public sealed class BadInputCorpusTests(ITestOutputHelper output) : IDisposable
     [Fact]
     public void CorpusHasAtLeastThirtyCommittedCasesAndAllAreListed()
     {
-        var onDisk = Directory.EnumerateFileSystemEntries(CorpusDir).Select(Path.GetFileName).Order().ToList();
+        var onDisk = Directory.EnumerateFileSystemEntries(CorpusDir).Select(p => Path.GetFileName(p)!).Order().ToList();
         var listed = Committed.Select(row => (string)row[0]).Order().ToList();
         Assert.True(onDisk.Count >= 30, $"only {onDisk.Count} committed bad cases");
         Assert.Equal(onDisk, listed);

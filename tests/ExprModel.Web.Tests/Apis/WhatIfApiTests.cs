@@ -77,7 +77,7 @@ public sealed class WhatIfApiTests(AppFactory factory) : ApiTestBase(factory)
         var swept = await Json(await Client.PostAsJsonAsync("/api/whatif/fit", new
         {
             model = Preset("wb1996"),
-            recordings = new[] { new { name = "FH1001.nwb", contentBase64 = Convert.ToBase64String(File.ReadAllBytes(nwb)) } },
+            recordings = new[] { new { name = "FH1001.nwb", contentBase64 = Convert.ToBase64String(File.ReadAllBytes(nwb!)) } },
             cell = "FH1001",
             fitReadouts = new[] { "resting_potential" },
         }));
