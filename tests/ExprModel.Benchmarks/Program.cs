@@ -21,6 +21,7 @@ public static class Program
             BenchmarkSwitcher.FromAssembly(typeof(Program).Assembly).Run(args.Where(a => a != "--bdn").ToArray());
             return 0;
         }
+        if (args.Contains("atlas")) { AtlasBenchmark.Run(args); return 0; }
         if (args.Contains("whatif")) { WhatIfBenchmark.Run(); return 0; }
         if (args.Contains("stochastic")) { StochasticBenchmark.Run(args.Contains("--quick")); return 0; }
         if (args.Contains("recordings")) { RecordingsBenchmark.Run(); return 0; }
@@ -36,7 +37,9 @@ public static class Program
         if (args.Contains("probe")) { Probe.Run(args.SkipWhile(a => a != "probe").Skip(1).FirstOrDefault(a => !a.StartsWith("--"))); return 0; }
         if (args.Contains("batch"))
         {
-            BatchBenchmark.Run(args.Contains("--quick") ? 200 : 1000);
+            string? After(string flag) => args.SkipWhile(a => a != flag).Skip(1).FirstOrDefault();
+            if (args.Contains("--stages")) BatchBenchmark.Stages(int.Parse(After("--stages") ?? "100", CultureInfo.InvariantCulture));
+            else BatchBenchmark.Run(args.Contains("--quick") ? 200 : 1000, After("--dump"));
             return 0;
         }
         int repeats = args.Contains("--quick") ? 3 : 7;

@@ -32,6 +32,10 @@ public static class ExpressionCommands
         };
         public readonly Option<string?> Log = new("--log") { Description = "Values are log-transformed: ln1p, log2p1 or log10p1 (undone before use)." };
         public readonly Option<string?> Orientation = new("--orientation") { Description = "genes-as-rows or cells-as-rows (default: detected, with a note)." };
+        public readonly Option<string?> Matrix = new("--matrix")
+        {
+            Description = ".h5ad only: the matrix to model: X (default), layer:NAME (a matrix under layers/) or raw (raw/X, genes from raw/var)."
+        };
         public readonly Option<string?> ReferenceGroup =
             new("--reference-group") { Description = "Scale densities relative to this group's mean instead of the dataset median." };
         public readonly Option<double> Exponent =
@@ -49,17 +53,31 @@ public static class ExpressionCommands
 
         public void AddTo(Command c)
         {
-            foreach (var o in new Option[] { Expression, Metadata, GroupBy, Unit, Log, Orientation, ReferenceGroup, Exponent, NoClamp, CapacitancePf,
+            foreach (var o in new Option[] { Expression, Metadata, GroupBy, Unit, Log, Orientation, Matrix, ReferenceGroup, Exponent, NoClamp, CapacitancePf,
                 Temperature, Exclude, Repoint, Weight, Shrink, Db })
                 c.Options.Add(o);
         }
 
+        /// <summary>The read options the user stated (orientation, unit, log transform, matrix).</summary>
+        public ExpressionReadOptions ReadOptions(ParseResult p) =>
+            ReadOptionsParser.Parse(p.GetValue(Orientation), p.GetValue(Unit), p.GetValue(Log), "--", p.GetValue(Matrix));
+
+        /// <summary>The settings dataset references depend on, in words (a shard refuses references made with others).</summary>
+        public string ReferenceSettings(ParseResult p) => string.Join("; ",
+            $"orientation={p.GetValue(Orientation)}", $"unit={p.GetValue(Unit)}", $"log={p.GetValue(Log)}", $"matrix={p.GetValue(Matrix)}",
+            $"reference={p.GetValue(ReferenceGroup) ?? "dataset median"}", $"group-by={p.GetValue(GroupBy)}",
+            $"exclude={string.Join(",", p.GetValue(Exclude) ?? [])}", $"repoint={string.Join(",", p.GetValue(Repoint) ?? [])}",
+            $"weight={string.Join(",", p.GetValue(Weight) ?? [])}");
+
         /// <summary>Reads, groups and maps the inputs with the library's <see cref="ExpressionDataset"/>; notes go to standard error.</summary>
-        public (ExpressionDataset Data, MappingReport Report, DensityRule Rule) Load(ParseResult p, CliContext ctx)
+        /// <param name="adjust">Changes the stated read options (a shard's cell range and the dataset's unit).</param>
+        public (ExpressionDataset Data, MappingReport Report, DensityRule Rule) Load(ParseResult p, CliContext ctx,
+            Func<ExpressionReadOptions, ExpressionReadOptions>? adjust = null)
         {
             ctx.DatabasePath = p.GetValue(Db);
             var catalog = ctx.Catalog.ForMapping();
-            var options = ReadOptionsParser.Parse(p.GetValue(Orientation), p.GetValue(Unit), p.GetValue(Log), "--");
+            var options = ReadOptions(p);
+            if (adjust is not null) options = adjust(options);
             string? metadata = p.GetValue(Metadata), column = p.GetValue(GroupBy);
             if (metadata is not null && column is null) throw new CliException("--metadata needs --group-by COLUMN.");
             if (metadata is null && column is not null) throw new CliException("--group-by needs --metadata FILE.");
@@ -185,22 +203,43 @@ public static class ExpressionCommands
         var per = new Option<string>("--per") { Description = "group or cell.", DefaultValueFactory = _ => "group" };
         var shard = new Option<string?>("--shard") { Description = "I/N: process only the I-th of N equal parts (join with exprmodel merge)." };
         var output = new Option<string?>("--out") { Description = "CSV file to write (default: standard output)." };
+        var writeReferences = new Option<string?>("--write-references")
+        {
+            Description = "Read the whole table once, write the dataset references (unit, each entry's reference expression) to this file and stop.",
+        };
+        var references = new Option<string?>("--references")
+        {
+            Description = "Dataset references from --write-references (same table and options): with --per cell each shard then reads only its own cells.",
+        };
         c.Options.Add(per);
         c.Options.Add(shard);
         c.Options.Add(output);
+        c.Options.Add(writeReferences);
+        c.Options.Add(references);
         c.SetAction(p =>
         {
-            var (data, report, rule) = inputs.Load(p, ctx);
+            var (index, count) = ParseShard(p.GetValue(shard));
+            if (p.GetValue(writeReferences) is { } referencesOut)
+            {
+                var (all, allReport, allRule) = inputs.Load(p, ctx);
+                var computed = DatasetReferences.Compute(all, allReport, allRule, inputs.ReferenceSettings(p));
+                ctx.Emit(computed.ToJson(), referencesOut);
+                ctx.Error.WriteLine($"dataset references of {computed.Cells} cells ({computed.Entries.Count} entries, unit {computed.Unit}) " +
+                    $"written to {referencesOut}");
+                return 0;
+            }
+            var (refs, range, total) = ShardRange(p, ctx, inputs, p.GetValue(references), p.GetValue(per), index, count);
+            var (data, report, rule) = inputs.Load(p, ctx, range is { } r ? o => o with { Cells = r, Unit = refs!.Unit } : null);
+            if (refs is not null) rule = rule with { FixedReferences = refs.Entries };
             PrintReport(ctx, data, report);
             var (table, groups) = (data.Table, data.Groups);
-            var items = p.GetValue(per) switch
+            IReadOnlyList<ModelTarget> items = range is { } part ? new RangeTargets(table.CellIds, part, total) : p.GetValue(per) switch
             {
                 "group" => groups is null ? throw new CliException("--per group needs --metadata and --group-by.") : data.Targets,
                 "cell" => data.CellTargets,
                 var o => throw new CliException($"--per: '{o}' is not group or cell."),
             };
-            var (index, count) = ParseShard(p.GetValue(shard));
-            int from = (int)((long)items.Count * (index - 1) / count), to = (int)((long)items.Count * index / count);
+            int from = range?.Start ?? (int)((long)items.Count * (index - 1) / count), to = range?.End ?? (int)((long)items.Count * index / count);
             var progress = new Progress(ctx.Error, to - from);
             var shrink = p.GetValue(per) == "cell" ? inputs.Shrinkage(p, ctx, data, report) : null;
             var results = BatchReadouts.Run(table, report, data.Catalog, rule, items, groups, from, to, progress.Report, default, shrink);
@@ -211,6 +250,46 @@ public static class ExpressionCommands
             return 0;
         });
         return c;
+    }
+
+    /// <summary>
+    /// With dataset references, a per-cell shard reads only its own cells: the table's cell count is read first
+    /// (obs index shape, cell sidecar, header or an unparsed pass), then the shard's range. Without references the
+    /// whole table is read, as the dataset median needs every cell.
+    /// </summary>
+    private static (DatasetReferences? Refs, CellRange? Range, int Total) ShardRange(ParseResult p, CliContext ctx, Inputs inputs, string? path,
+        string? per, int index, int count)
+    {
+        if (path is null)
+        {
+            if (count > 1 && per == "cell")
+                ctx.Error.WriteLine("note: this shard reads every cell, because the dataset references need them all; write them once with " +
+                    "--write-references FILE and pass --references FILE so each shard reads only its own cells.");
+            return (null, null, 0);
+        }
+        if (per != "cell") throw new CliException("--references: only with --per cell (a group's model needs all its cells).");
+        if (inputs.ShrinkMode(p) != ShrinkageMode.None)
+            throw new CliException("--references: not with --shrink group (the priors need every cell of a group).");
+        if (!File.Exists(path)) throw new CliException($"{path}: no such references file.");
+        DatasetReferences refs;
+        try { refs = DatasetReferences.Read(path); }
+        catch (FormatException e) { throw new CliException(e.Message); }
+        string table = p.GetValue(inputs.Expression)!;
+        int total = ExpressionReader.CountCells(table, inputs.ReadOptions(p));
+        if (refs.Mismatch(table, total, inputs.ReferenceSettings(p)) is { } why) throw new CliException($"{path}: {why}; write them again for this run.");
+        return (refs, CellRange.Part(index, count, total), total);
+    }
+
+    /// <summary>The per-cell targets of a whole table of which only <paramref name="range"/>'s cells were read (indices stay the table's).</summary>
+    private sealed class RangeTargets(IReadOnlyList<string> cellIds, CellRange range, int total) : IReadOnlyList<ModelTarget>
+    {
+        public int Count => total;
+
+        public ModelTarget this[int index] => range.Contains(index) ? ModelTarget.ForCell(cellIds[index - range.Start])
+            : throw new ArgumentOutOfRangeException(nameof(index), $"cell {index} lies outside this shard's {range}.");
+
+        public IEnumerator<ModelTarget> GetEnumerator() => Enumerable.Range(range.Start, range.Count).Select(i => this[i]).GetEnumerator();
+        System.Collections.IEnumerator System.Collections.IEnumerable.GetEnumerator() => GetEnumerator();
     }
 
     internal static (int Index, int Count) ParseShard(string? text)

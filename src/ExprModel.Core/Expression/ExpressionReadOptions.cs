@@ -1,3 +1,5 @@
+using ExprModel.Core.Expression.AnnData;
+
 namespace ExprModel.Core.Expression;
 
 /// <summary>How to read an expression file. Everything is optional; whatever is detected instead is reported in the table's notes.</summary>
@@ -24,6 +26,19 @@ public sealed record ExpressionReadOptions
     /// <summary>For AnnData files: the var column holding the gene identifiers to use (e.g. symbols when the index holds Ensembl ids). Null uses the var
     /// index.</summary>
     public string? GeneColumn { get; init; }
+
+    /// <summary>For AnnData files: the matrix to read (X, a layer or raw/X). Null reads X and, when X looks log-transformed, the error names a
+    /// layer or raw/X holding whole numbers.</summary>
+    public MatrixChoice? Matrix { get; init; }
+
+    /// <summary>
+    /// Read only these cells (by position in the file's cell order); null reads every cell. The result holds the range's cells with the values
+    /// and library sizes a full read gives them; the unit is decided from the range's values (state it so every part of an atlas run agrees).
+    /// </summary>
+    public CellRange? Cells { get; init; }
+
+    /// <summary>Counts bytes and values the read touched (null: not counted).</summary>
+    public ReadMeter? Meter { get; init; }
 
     /// <summary>Guard against decompression bombs: the most bytes a compressed input may inflate to.</summary>
     public long MaxDecompressedBytes { get; init; } = 32L << 30;

@@ -22,6 +22,21 @@ public static class ExpressionReader
         return DelimitedTableReader.Read(path, o);
     }
 
+    /// <summary>
+    /// How many cells the table at <paramref name="path"/> holds, read cheaply: the obs index's shape (h5ad), the cell
+    /// sidecar's lines (Matrix Market), the header (delimited, cells as columns) or a pass over the rows that parses
+    /// nothing (delimited, cells as rows). With it a shard can ask for its own <see cref="CellRange"/>.
+    /// </summary>
+    public static int CountCells(string path, ExpressionReadOptions? options = null)
+    {
+        var o = options ?? ExpressionReadOptions.Default;
+        if (Directory.Exists(path)) return SparseMatrixReader.CountCells(path, o);
+        if (!File.Exists(path)) throw new ExpressionFormatException($"{Path.GetFileName(path)}: file not found ({path}).");
+        if (InputFile.StartsWith(path, AnnDataReader.Signature)) return AnnDataReader.CountCells(path, o);
+        if (StartsWithMatrixMarketBanner(path, o)) return SparseMatrixReader.CountCells(path, o);
+        return DelimitedTableReader.CountCells(path, o);
+    }
+
     private static bool StartsWithMatrixMarketBanner(string path, ExpressionReadOptions o)
     {
         ReadOnlySpan<byte> banner = "%%MatrixMarket"u8;

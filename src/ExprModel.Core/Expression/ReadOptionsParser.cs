@@ -1,3 +1,5 @@
+using ExprModel.Core.Expression.AnnData;
+
 namespace ExprModel.Core.Expression;
 
 /// <summary>
@@ -10,7 +12,7 @@ public static class ReadOptionsParser
 {
     /// <summary>The read options a user stated; <paramref name="fieldPrefix"/> goes before each field name in messages ("--" on the command line).</summary>
     /// <exception cref="ArgumentException">A value is not one of the accepted spellings (the message names the field and the choices).</exception>
-    public static ExpressionReadOptions Parse(string? orientation, string? unit, string? log = null, string fieldPrefix = "")
+    public static ExpressionReadOptions Parse(string? orientation, string? unit, string? log = null, string fieldPrefix = "", string? matrix = null)
     {
         var (statedUnit, unitLog) = Unit(unit, fieldPrefix + "unit");
         var statedLog = Log(log, fieldPrefix + "log");
@@ -19,6 +21,7 @@ public static class ReadOptionsParser
             Orientation = Orientation(orientation, fieldPrefix + "orientation"),
             Unit = statedUnit,
             LogTransform = statedLog != LogTransform.None ? statedLog : unitLog,
+            Matrix = Matrix(matrix, fieldPrefix + "matrix"),
         };
     }
 
@@ -53,6 +56,25 @@ public static class ReadOptionsParser
         "log10p1" => LogTransform.Log10Plus1,
         _ => throw new ArgumentException($"{field}: '{text}' is not ln1p, log2p1 or log10p1."),
     };
+
+    /// <summary>
+    /// The AnnData matrix to read: <c>X</c>, <c>layer:NAME</c> (a matrix under layers/) or <c>raw</c> (raw/X with raw/var); null or blank means X
+    /// with the log-transform hint. The words X, layers and raw are the AnnData format's own names.
+    /// </summary>
+    public static MatrixChoice? Matrix(string? text, string field = "matrix")
+    {
+        if (string.IsNullOrWhiteSpace(text)) return null;
+        string t = text.Trim();
+        if (t.Equals("X", StringComparison.OrdinalIgnoreCase)) return MatrixChoice.X;
+        if (t.Equals("raw", StringComparison.OrdinalIgnoreCase) || t.Equals("raw/X", StringComparison.OrdinalIgnoreCase)) return MatrixChoice.Raw;
+        foreach (var prefix in new[] { "layer:", "layers/" })
+            if (t.StartsWith(prefix, StringComparison.OrdinalIgnoreCase))
+            {
+                string name = t[prefix.Length..];
+                if (name.Length > 0 && !name.Contains('/') && name.Trim() == name) return MatrixChoice.Layer(name);
+            }
+        throw new ArgumentException($"{field}: '{text}' is not X, layer:NAME (a matrix under layers/) or raw (raw/X).");
+    }
 
     private static string? Word(string? text) => string.IsNullOrWhiteSpace(text) ? null : text.Trim().ToLowerInvariant();
 }

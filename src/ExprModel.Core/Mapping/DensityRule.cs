@@ -22,6 +22,13 @@ public sealed record DensityRule
     public double LeakMsPerCm2 { get; init; } = ModelDefaults.LeakMsPerCm2;
     public double LeakReversalMv { get; init; } = ModelDefaults.LeakReversalMv;
 
+    /// <summary>
+    /// References computed beforehand over the whole dataset, by entry id (<see cref="DatasetReferences"/>): a part of
+    /// an atlas read on its own (one shard's cells) then divides by the whole dataset's reference, as a full read does.
+    /// Null computes the reference from the cells at hand.
+    /// </summary>
+    public IReadOnlyDictionary<string, double>? FixedReferences { get; init; }
+
     /// <summary>The rule relative to the dataset median (null), or to the mean of the named reference group.</summary>
     public static DensityRule RelativeTo(string? referenceGroup) => referenceGroup is null
         ? new DensityRule()
@@ -43,16 +50,13 @@ public sealed record DensityRule
     /// <param name="referenceCells">The reference group's cells; required when <see cref="Reference"/> is a group.</param>
     public EntryDensity DensityFor(ChannelEntry entry, double[] expressionByCell, int[] targetCells, int[]? referenceCells)
     {
-        if (Reference == DensityReference.ReferenceGroup && referenceCells is null)
+        if (Reference == DensityReference.ReferenceGroup && referenceCells is null && FixedReferences is null)
             throw new ArgumentException($"The density rule refers to group '{ReferenceGroup}' but no cells of it were given.", nameof(referenceCells));
         double expression = targetCells.Average(i => expressionByCell[i]);
-        double reference;
-        if (Reference == DensityReference.ReferenceGroup) reference = referenceCells!.Average(i => expressionByCell[i]);
-        else
-        {
-            reference = Median(expressionByCell);
-            if (reference <= 0) reference = expressionByCell.Average();
-        }
+        double reference = FixedReferences is { } fixedReferences
+            ? fixedReferences.TryGetValue(entry.Id, out var r) ? r
+                : throw new ArgumentException($"The precomputed references hold no value for entry '{entry.Id}' (computed with other genes or overrides?).")
+            : ReferenceOf(expressionByCell, referenceCells);
         double ratio = reference > 0 ? expression / reference : 0;
         double raw = entry.TypicalDensityMsPerCm2 * Math.Pow(ratio, Exponent);
         if (!(ClampToPlausibleRange && raw > 0 && (raw < entry.MinDensityMsPerCm2 || raw > entry.MaxDensityMsPerCm2)))
@@ -61,6 +65,17 @@ public sealed record DensityRule
         return new EntryDensity(expression, reference, ratio, raw, clamped, true,
             $"{entry.Id}: predicted {raw:G3} mS/cm2 lies outside the plausible range {entry.MinDensityMsPerCm2:G3}-{entry.MaxDensityMsPerCm2:G3}; " +
                 $"clamped to {clamped:G3}.");
+    }
+
+    /// <summary>
+    /// What an entry's expression is divided by: the mean over <paramref name="referenceCells"/> when the rule names a
+    /// group, else the median over every cell (the mean when the median is zero).
+    /// </summary>
+    public double ReferenceOf(double[] expressionByCell, int[]? referenceCells)
+    {
+        if (Reference == DensityReference.ReferenceGroup) return referenceCells!.Average(i => expressionByCell[i]);
+        double reference = Median(expressionByCell);
+        return reference <= 0 ? expressionByCell.Average() : reference;
     }
 
     /// <summary>One density's derivation as a line of text: "  12.5 mS/cm2 = 10 x (4.2 / 3.1)^1 [clamped]".</summary>

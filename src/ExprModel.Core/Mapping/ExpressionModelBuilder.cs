@@ -15,7 +15,7 @@ public static class ExpressionModelBuilder
         var warnings = new List<string>();
         int[] targetCells = TargetCells(table, target, groups);
         int[]? referenceCells = null;
-        if (rule.Reference == DensityReference.ReferenceGroup)
+        if (rule.Reference == DensityReference.ReferenceGroup && rule.FixedReferences is null)
         {
             if (groups is null) throw new ArgumentException("A reference group needs a metadata table with a group column.");
             if (!groups.Members.TryGetValue(rule.ReferenceGroup!, out referenceCells))

@@ -86,6 +86,7 @@ internal static class ScalarLoop
             if (gatesRec is not null) Array.Copy(x, 0, gatesRec, 0, gateCount);
         }
 
+        int stepsRun = steps - firstStep;
         for (int s = firstStep; s < steps; s++)
         {
             if ((s & 0xFFF) == 0 && cancel.IsCancellationRequested) cancel.ThrowIfCancellationRequested();
@@ -211,7 +212,11 @@ internal static class ScalarLoop
             if (!double.IsNaN(spike))
             {
                 spikes.Add(spike);
-                if (every == 0 && settings.StopAtFirstSpikeAfterMs is { } after && spike >= after) break;
+                if (every == 0 && settings.StopAtFirstSpikeAfterMs is { } after && spike >= after)
+                {
+                    stepsRun = s + 1 - firstStep;
+                    break;
+                }
             }
 
             if (every > 0 && (s + 1 - firstStep) % every == 0)
@@ -226,6 +231,7 @@ internal static class ScalarLoop
                 if (gatesRec is not null) Array.Copy(x, 0, gatesRec, r * gateCount, gateCount);
             }
         }
+        StepCounters.AddScalar(stepsRun);
         var dict = new Dictionary<string, double[]>();
         if (currents is not null)
             for (int c = 0; c < channelCount; c++) dict[Simulator.UniqueLabel(cell, c, dict)] = currents[c];

@@ -91,11 +91,12 @@ public static class Simulator
         {
             int width = SweepKernel.Width;
             int groups = (stimuli.Count + width - 1) / width;
+            var from = initial is null ? null : SweepBaselines.For(cell, table, stimuli, steps, settings, initial, cancel);
             Parallel.For(0, groups, options, gi =>
             {
                 int first = gi * width, count = Math.Min(width, stimuli.Count - first);
                 var stims = Enumerable.Range(first, count).Select(i => stimuli[i]).ToArray();
-                var lanes = SweepKernel.Run(cell, table, stims, steps, settings, start, resumeMarginMs, cancel);
+                var lanes = SweepKernel.Run(cell, table, stims, steps, settings, start, resumeMarginMs, cancel, from);
                 for (int l = 0; l < count; l++) result[first + l] = lanes[l];
             });
             return result;

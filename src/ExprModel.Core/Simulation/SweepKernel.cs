@@ -25,10 +25,36 @@ internal static unsafe class SweepKernel
     /// lane's first spike (taken from snapshots every <see cref="CheckpointEverySteps"/> steps; null when
     /// the lane crossed the detection level before its first counted spike, or no snapshot is early enough).
     /// </summary>
-    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
+    /// <param name="from">A shared baseline to start at (<see cref="Baseline"/>, taken from <paramref name="init"/> with these settings and
+    /// ending before any lane's stimulus departs from zero); null starts at step 0.</param>
     public static SweepLane[] Run(CompiledCell cell, RateTable table, IReadOnlyList<Stimulus> stimuli, int steps, SimulationSettings settings, CellState init,
-        double? resumeMarginMs, CancellationToken cancel)
+        double? resumeMarginMs, CancellationToken cancel, SweepStart? from = null) =>
+        Run(cell, table, stimuli, steps, settings, init, resumeMarginMs, cancel, from, out _);
+
+    /// <summary>
+    /// The state after <paramref name="steps"/> steps at zero current from <paramref name="init"/>, to start sweeps from
+    /// (<see cref="SweepStart"/>); null when a lane crossed the spike detection level on the way (a sweep must then run
+    /// its detector from the beginning) or the membrane left the physical range.
+    /// </summary>
+    public static SweepStart? Baseline(CompiledCell cell, RateTable table, int steps, SimulationSettings settings, CellState init, CancellationToken cancel)
     {
+        try
+        {
+            Run(cell, table, [new NoCurrent()], steps, settings, init, null, cancel, null, out var end);
+            return end;
+        }
+        catch (SimulationBlowUpException)
+        {
+            return null;
+        }
+    }
+
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
+    private static SweepLane[] Run(CompiledCell cell, RateTable table, IReadOnlyList<Stimulus> stimuli, int steps, SimulationSettings settings, CellState init,
+        double? resumeMarginMs, CancellationToken cancel, SweepStart? from, out SweepStart? end)
+    {
+        // Without resume margin and with a single no-current lane this run is a baseline: it keeps the ring and hands back its end state.
+        bool baseline = resumeMarginMs is null && stimuli.Count == 1 && stimuli[0] is NoCurrent && from is null;
         const int width = Width;
         int lanes = stimuli.Count;
         if (lanes < 1 || lanes > width) throw new ArgumentOutOfRangeException(nameof(stimuli));
@@ -62,7 +88,7 @@ internal static unsafe class SweepKernel
         var offValueV = Vector256.Create(offValue);
         var quads = table.QuadPointers();
         var x = new Vector256<double>[gates];
-        for (int g = 0; g < gates; g++) x[g] = Vector256.Create(init.Gates[g]);
+        for (int g = 0; g < gates; g++) x[g] = from is null ? Vector256.Create(init.Gates[g]) : from.Gates[g];
         // Everything per gate and channel comes from the cell's step plan; only the broadcasts are made here.
         var plan = cell.Plan;
         var gbar = cell.Gbar.Select(Vector256.Create).ToArray();
@@ -102,17 +128,17 @@ internal static unsafe class SweepKernel
         var shellDecay = Vector256.Create(hasShell ? Math.Exp(-dt / cell.ShellDecayMs) : 0);
         var shellGain = Vector256.Create(hasShell ? cell.ShellInflowPerCurrent * cell.ShellDecayMs : 0);
         var shellRest = Vector256.Create(cell.ShellRestMm);
-        var ca = Vector256.Create(init.CalciumMm);
+        var ca = from?.CalciumMm ?? Vector256.Create(init.CalciumMm);
         // The sodium shell (KNa), as the scalar loop keeps it.
         bool hasSodiumShell = cell.HasSodiumShell;
         var carriesSodium = plan.CarriesSodium;
         var sodiumDecay = Vector256.Create(hasSodiumShell ? Math.Exp(-dt / cell.SodiumShellDecayMs) : 0);
         var sodiumGain = Vector256.Create(hasSodiumShell ? cell.SodiumInflowPerCurrent * cell.SodiumShellDecayMs : 0);
         var sodiumRest = Vector256.Create(cell.SodiumShellRestMm);
-        var na = Vector256.Create(double.IsNaN(init.SodiumMm) ? cell.SodiumShellRestMm : init.SodiumMm);
+        var na = from?.SodiumMm ?? Vector256.Create(double.IsNaN(init.SodiumMm) ? cell.SodiumShellRestMm : init.SodiumMm);
         var gcs = new Vector256<double>[channels];
-        var v = Vector256.Create(init.VoltageMv);
-        var vPrev = v;
+        var v = from?.VoltageMv ?? Vector256.Create(init.VoltageMv);
+        var vPrev = from?.PreviousVoltageMv ?? v;
         var vMin = Vector256.Create(RateTable.MinMv);
         var invRes = Vector256.Create(1.0 / RateTable.ResolutionMv);
         var zero = Vector256.Create(0.0);
@@ -139,8 +165,8 @@ internal static unsafe class SweepKernel
         // Resume points: a ring of whole-pack snapshots every CheckpointEverySteps steps; at a lane's first crossing the
         // newest snapshot at least the margin earlier becomes its candidate, kept if that crossing is its first counted spike.
         const int ring = 4;
-        bool keepResume = resumeMarginMs is not null;
-        int marginSteps = keepResume ? (int)Math.Ceiling(resumeMarginMs!.Value / dt) : 0;
+        bool keepResume = resumeMarginMs is not null || baseline;
+        int marginSteps = resumeMarginMs is { } margin ? (int)Math.Ceiling(margin / dt) : 0;
         var ckX = keepResume ? new Vector256<double>[ring * gates] : [];
         var ckV = new Vector256<double>[ring];
         var ckVPrev = new Vector256<double>[ring];
@@ -148,15 +174,26 @@ internal static unsafe class SweepKernel
         var ckNa = new Vector256<double>[ring];
         var ckStep = new int[ring];
         Array.Fill(ckStep, -1);
+        if (from is not null && keepResume)
+        {
+            from.RingStep.CopyTo(ckStep, 0);
+            from.RingVoltageMv.CopyTo(ckV, 0);
+            from.RingPreviousVoltageMv.CopyTo(ckVPrev, 0);
+            from.RingCalciumMm.CopyTo(ckCa, 0);
+            from.RingSodiumMm.CopyTo(ckNa, 0);
+            from.RingGates.CopyTo(ckX, 0);
+        }
         var crossed = new bool[width];
         var candidate = new ResumePoint?[width];
         var firstCrossTime = new double[width];
         var resume = new ResumePoint?[lanes];
         double resumeAfter = stopAfter ?? 0;
 
+        int firstStep = from?.Step ?? 0;
+        int stepsRun = steps - firstStep;
         fixed (double* S = stim)
         {
-            for (int s = 0; s < steps; s++)
+            for (int s = firstStep; s < steps; s++)
             {
                 if ((s & 0xFFF) == 0 && cancel.IsCancellationRequested) cancel.ThrowIfCancellationRequested();
                 if (keepResume && s % CheckpointEverySteps == 0)
@@ -327,10 +364,32 @@ internal static unsafe class SweepKernel
                         }
                         if (!double.IsNaN(pending[l])) anyPending = true;
                     }
-                    if (lanesDone == lanes) break;
+                    if (lanesDone == lanes)
+                    {
+                        stepsRun = s + 1 - firstStep;
+                        break;
+                    }
                 }
             }
         }
+        StepCounters.AddSimd(stepsRun);
+        end = baseline && !crossed.Any(c => c) && lastCross.All(double.IsNegativeInfinity) && pending.All(double.IsNaN)
+            ? new SweepStart
+            {
+                Step = steps,
+                Gates = x,
+                VoltageMv = v,
+                PreviousVoltageMv = vPrev,
+                CalciumMm = ca,
+                SodiumMm = na,
+                RingStep = ckStep,
+                RingVoltageMv = ckV,
+                RingPreviousVoltageMv = ckVPrev,
+                RingCalciumMm = ckCa,
+                RingSodiumMm = ckNa,
+                RingGates = ckX,
+            }
+            : null;
         var result = new SweepLane[lanes];
         for (int l = 0; l < lanes; l++) result[l] = new SweepLane(spikes[l], resume[l]);
         return result;

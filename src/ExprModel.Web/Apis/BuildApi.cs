@@ -46,9 +46,9 @@ public static class BuildApi
             })
             .WithName("BuildModel")
             .WithSummary("Builds a model from an expression table: a JSON body (expression as text) or a multipart form "
-                + "(expression and optional metadata as file parts; groupBy, group or cell, orientation, unit, referenceGroup, exponent, clamp, "
-                + "capacitancePf, temperatureC and overrides (a JSON array) as fields). At most ExprModel:MaxConcurrentBuilds run at once and "
-                + "MaxQueuedBuilds wait; past that the answer is 503 with Retry-After.")
+                + "(expression and optional metadata as file parts; groupBy, group or cell, orientation, unit, matrix (h5ad: X, layer:NAME or raw), "
+                + "referenceGroup, exponent, clamp, capacitancePf, temperatureC and overrides (a JSON array) as fields). "
+                + "At most ExprModel:MaxConcurrentBuilds run at once and MaxQueuedBuilds wait; past that the answer is 503 with Retry-After.")
             // One Accepts call with both types: routing and the OpenAPI generator read only the last Accepts metadata, so a
             // second call would turn JSON requests away (415). The form's own schema replaces the JSON one for multipart.
             .Accepts<BuildRequest>("application/json", "multipart/form-data")

@@ -23,6 +23,8 @@ public abstract record ExpressionRequest
     public string? Orientation { get; init; }
     /// <summary>counts, cpm, tpm, fpkm or log-transformed; absent = detect.</summary>
     public string? Unit { get; init; }
+    /// <summary>For an .h5ad table: X, layer:NAME or raw (the AnnData matrix to read); absent = X.</summary>
+    public string? Matrix { get; init; }
     public IReadOnlyList<GeneOverride>? Overrides { get; init; }
     public string? ReferenceGroup { get; init; }
     public double Exponent { get; init; } = 1;
@@ -32,9 +34,12 @@ public abstract record ExpressionRequest
 
     /// <summary>The form fields every such request takes besides its file parts.</summary>
     internal static readonly string[] CommonFormFields =
-        ["expression", "metadata", "groupBy", "orientation", "unit", "referenceGroup", "exponent", "clamp", "capacitancePf", "temperatureC", "overrides"];
+    [
+        "expression", "metadata", "groupBy", "orientation", "unit", "matrix", "referenceGroup", "exponent", "clamp", "capacitancePf", "temperatureC",
+        "overrides",
+    ];
 
-    internal ReadChoices ReadChoices() => new(Orientation, Unit, GroupBy);
+    internal ReadChoices ReadChoices() => new(Orientation, Unit, GroupBy, Matrix);
 
     /// <exception cref="UserInputException">The rule is not usable (the library's reason).</exception>
     internal DensityRule DensityRule()
@@ -56,6 +61,7 @@ public abstract record ExpressionRequest
         GroupBy = BuildApi.Text(form, "groupBy"),
         Orientation = BuildApi.Text(form, "orientation"),
         Unit = BuildApi.Text(form, "unit"),
+        Matrix = BuildApi.Text(form, "matrix"),
         ReferenceGroup = BuildApi.Text(form, "referenceGroup"),
         Exponent = BuildApi.Number(form, "exponent") ?? request.Exponent,
         Clamp = BuildApi.Flag(form, "clamp") ?? request.Clamp,

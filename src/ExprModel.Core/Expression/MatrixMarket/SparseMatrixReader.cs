@@ -10,7 +10,8 @@ namespace ExprModel.Core.Expression.MatrixMarket;
 /// "row column value" line per non-zero, 1-based) with two sidecar files: the row names (genes; tab-separated, first
 /// column an id, optional second column a symbol and third a feature type) and the column names (cells). Files may be
 /// gzip-compressed. Rows are genes and columns are cells in this layout. Entries may come in any order; memory is the
-/// kept genes times cells plus the sidecars.
+/// kept genes times cells plus the sidecars. With a cell range the whole file is streamed (entries have no order), but
+/// only entries whose column lies in the range are parsed past their indices and kept.
 /// </summary>
 public static class SparseMatrixReader
 {
@@ -44,10 +45,12 @@ public static class SparseMatrixReader
         var o = options ?? ExpressionReadOptions.Default;
         var notes = new List<string>();
         var (geneNames, isGene) = ReadGenes(layout.Genes, o, notes);
-        var cellIds = ReadCells(layout.Cells, o);
+        var (cellIds, totalCells) = ReadCells(layout.Cells, o);
+        var range = o.Cells ?? new CellRange(0, totalCells);
 
         string file = Path.GetFileName(layout.Matrix);
-        using var r = new RecordReader(InputFile.Open(layout.Matrix, o.MaxDecompressedBytes), file, ' ', o.MaxRecordChars, 64, long.MaxValue, o.Cancel)
+        using var r = new RecordReader(InputFile.Open(layout.Matrix, o.MaxDecompressedBytes, o.Meter), file, ' ', o.MaxRecordChars, 64, long.MaxValue,
+            o.Cancel)
         {
             WhitespaceDelimited = true,
         };
@@ -61,8 +64,8 @@ public static class SparseMatrixReader
         long rows = ParseCount(r, 0, "rows"), cols = ParseCount(r, 1, "columns"), entries = ParseCount(r, 2, "entries");
         if (rows != geneNames.Count)
             throw r.Error(1, $"{rows} rows but {Path.GetFileName(layout.Genes)} lists {geneNames.Count} genes (mismatched sidecar).");
-        if (cols != cellIds.Count)
-            throw r.Error(2, $"{cols} columns but {Path.GetFileName(layout.Cells)} lists {cellIds.Count} cells (mismatched sidecar).");
+        if (cols != totalCells)
+            throw r.Error(2, $"{cols} columns but {Path.GetFileName(layout.Cells)} lists {totalCells} cells (mismatched sidecar).");
         if (entries > rows * cols)
             throw r.Error(3, $"{entries} entries cannot fit a {rows} x {cols} matrix.");
 
@@ -79,32 +82,37 @@ public static class SparseMatrixReader
 
         var library = new double[cellIds.Count];
         var stats = new ValueStats { WholeTolerance = o.LogTransform == LogTransform.None ? 0 : 1e-6 };
-        long seen = 0;
+        long seen = 0, inRange = 0;
         while (r.ReadRecord())
         {
             if (r.Field(0).StartsWith("%")) continue;
             if (r.FieldCount != 3) throw r.Error(Math.Min(r.FieldCount, 3) + 1, $"an entry must be 'row column value', found {r.FieldCount} fields.");
             if (++seen > entries) throw r.Error(1, $"more entries than the {entries} the size line declares.");
             long i = ParseIndex(r, 0, rows, "row"), j = ParseIndex(r, 1, cols, "column");
+            if (!range.Contains(j - 1)) continue;
+            int cell = (int)(j - 1 - range.Start);
+            inRange++;
+            o.Meter?.AddValues(1);
             var problem = ValueParser.TryParse(r.Field(2), out double v);
             if (problem is not null) throw r.Error(3, $"{problem}.");
             if (o.LogTransform != LogTransform.None) v = ValueParser.Undo(v, o.LogTransform);
             if (!isGene[i - 1]) continue;
             stats.Add(v);
-            library[j - 1] += v;
+            library[cell] += v;
             if (slot[i - 1] is { } s)
             {
                 // Coordinate entries name each position once; a repeat would be silently summed, so refuse it
                 // (detectable for kept genes, whose values are held; a repeated zero cannot be told apart).
-                if (s[j - 1] != 0) throw r.Error(1, $"entry ({i}, {j}) appears a second time.");
-                s[j - 1] = v;
+                if (s[cell] != 0) throw r.Error(1, $"entry ({i}, {j}) appears a second time.");
+                s[cell] = v;
             }
         }
         if (seen < entries)
             throw new ExpressionFormatException($"{file}: line {r.LineNumber + 1}: " +
                 $"the size line declares {entries} entries but the file ends after {seen} (truncated?).");
         // Zeros are implicit in a sparse matrix, so count them for the unit statistics.
-        if (seen < rows * cols) stats.Add(0);
+        if (inRange < rows * range.Count) stats.Add(0);
+        if (o.Cells is not null) notes.Add($"read {range} of {totalCells} (a part of the file); a unit not stated is decided from these cells' values.");
 
         var (unit, unitNote) = UnitDecision.Decide(file, o, stats, library, notes);
         return new ExpressionTable
@@ -179,19 +187,37 @@ public static class SparseMatrixReader
         return (names, isGene.ToArray());
     }
 
-    private static List<string> ReadCells(string path, ExpressionReadOptions o)
+    /// <summary>The cell ids of the range (every cell without one) and how many cells the sidecar lists.</summary>
+    private static (List<string> Cells, int Total) ReadCells(string path, ExpressionReadOptions o)
     {
         string file = Path.GetFileName(path);
         var cells = new List<string>();
         var registry = new CellRegistry(file);
+        int total = 0;
         using var r = new RecordReader(InputFile.Open(path, o.MaxDecompressedBytes), file, '\t', o.MaxRecordChars, 64, o.MaxLines, o.Cancel);
         while (r.ReadRecord())
         {
+            if (o.Cells is { } range && !range.Contains(total)) { total++; continue; }
+            total++;
             string id = r.FieldString(0);
             registry.Add(id, $"line {r.LineNumber}, column 1");
             cells.Add(id);
         }
-        if (cells.Count == 0) throw new ExpressionFormatException($"{file}: line 1: the cell sidecar is empty.");
-        return cells;
+        if (total == 0) throw new ExpressionFormatException($"{file}: line 1: the cell sidecar is empty.");
+        o.Cells?.CheckWithin(total, file);
+        return (cells, total);
+    }
+
+    /// <summary>How many cells the matrix holds: the lines of its cell sidecar.</summary>
+    public static int CountCells(string path, ExpressionReadOptions? options = null)
+    {
+        var o = (options ?? ExpressionReadOptions.Default) with { Cells = null };
+        var layout = Locate(path);
+        string file = Path.GetFileName(layout.Cells);
+        int total = 0;
+        using var r = new RecordReader(InputFile.Open(layout.Cells, o.MaxDecompressedBytes), file, '\t', o.MaxRecordChars, 64, o.MaxLines, o.Cancel);
+        while (r.ReadRecord()) total++;
+        if (total == 0) throw new ExpressionFormatException($"{file}: line 1: the cell sidecar is empty.");
+        return total;
     }
 }

@@ -11,11 +11,13 @@ internal static class InputFile
     /// <summary>gzip member header: ID1 ID2 (RFC 1952, section 2.3.1).</summary>
     private static readonly byte[] GzipMagic = [0x1f, 0x8b];
 
-    public static Stream Open(string path, long maxDecompressedBytes)
+    /// <param name="meter">When given, counts the bytes read from the file (before inflation).</param>
+    public static Stream Open(string path, long maxDecompressedBytes, ReadMeter? meter = null)
     {
         if (!File.Exists(path))
             throw new ExpressionFormatException($"{Path.GetFileName(path)}: file not found ({path}).");
-        var raw = new FileStream(path, FileMode.Open, FileAccess.Read, FileShare.Read, 1 << 16);
+        Stream raw = new FileStream(path, FileMode.Open, FileAccess.Read, FileShare.Read, 1 << 16);
+        if (meter is not null) raw = new MeteredStream(raw, meter);
         var head = new byte[2];
         int n = raw.ReadAtLeast(head, 2, throwOnEndOfStream: false);
         raw.Position = 0;

@@ -186,6 +186,39 @@ internal sealed class RecordReader : IDisposable
         }
     }
 
+    /// <summary>
+    /// Moves past the next non-blank record without keeping its fields (quotes respected, so a line break inside quotes
+    /// stays inside the record; no field is checked); false at end of input. Used to stream past other cells' rows.
+    /// </summary>
+    public bool SkipRecord()
+    {
+        while (true)
+        {
+            int c = Peek();
+            if (c < 0) return false;
+            if (c is '\n' or '\r') { Advance(); continue; } // blank line
+            LineNumber = _line;
+            FieldCount = 0;
+            bool quoted = false;
+            while (true)
+            {
+                c = Peek();
+                if (c < 0)
+                {
+                    if (quoted) throw new ExpressionFormatException($"{FileName}: line {LineNumber}: a quote opened in this record is never closed.");
+                    return true;
+                }
+                Advance();
+                if (c == '"' && !WhitespaceDelimited) quoted = !quoted;
+                else if (!quoted && c is '\n' or '\r')
+                {
+                    if (c == '\r' && Peek() == '\n') Advance();
+                    return true;
+                }
+            }
+        }
+    }
+
     /// <summary>Reads one record; false if it was a blank line.</summary>
     private bool ReadOne()
     {

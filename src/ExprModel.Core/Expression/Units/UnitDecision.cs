@@ -16,6 +16,10 @@ internal static class UnitDecision
     /// <summary>Relative tolerance for "this cell sums to one million" (CPM/TPM); allows rounding in exported tables.</summary>
     public const double MillionTolerance = 0.01;
 
+    /// <summary>True when <see cref="Decide"/> would refuse the values as log-transformed (no unit or transform stated, not whole, small).</summary>
+    public static bool LooksLogTransformed(ExpressionReadOptions o, ValueStats s) =>
+        o.Unit is null && o.LogTransform == LogTransform.None && s.Count > 0 && !s.AllWhole && s.Max <= LogScaleMax;
+
     public static (ExpressionUnit Unit, string Note) Decide(string file, ExpressionReadOptions o, ValueStats s, double[] librarySizes, List<string> notes)
     {
         if (s.Count == 0)
