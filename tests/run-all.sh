@@ -1,6 +1,7 @@
 #!/usr/bin/env bash
 # Runs every test of the solution on a fresh machine with the .NET SDK: installs what the tests need
-# (Debian's chromium for the browser tests), builds, runs each test project and prints a final summary line
+# (Debian's chromium for the browser tests; slurm-wlm and munge for tests/cluster), builds, runs each test project and
+# the SLURM test (tests/cluster/run-slurm-test.sh, counted as one test) and prints a final summary line
 # "tests: N passed, N failed[, N skipped]". A failed formatting check (dotnet format --verify-no-changes) counts as one failed test.
 # Exit status is non-zero when any test fails, a project cannot run or the formatting check fails.
 set -uo pipefail
@@ -49,6 +50,18 @@ for proj in tests/*/*.csproj; do
   fi
   rm -f "$log"
 done
+
+# The SLURM test: a one-node cluster started and stopped by the script, a sharded batch run as a job array; one test.
+slurm_log=$(mktemp)
+bash tests/cluster/run-slurm-test.sh >"$slurm_log" 2>&1
+if tail -n 1 "$slurm_log" | grep -q "^slurm test: PASS"; then
+  grep -E "round [12]: merged|merge refused" "$slurm_log" | sed 's/^/  /'
+  echo "slurm: PASS"; passed=$((passed + 1))
+else
+  tail -n 40 "$slurm_log"
+  echo "slurm: FAIL"; failed=$((failed + 1)); status=1
+fi
+rm -f "$slurm_log"
 
 if [ "$skipped" != "0" ]; then
   echo "tests: $passed passed, $failed failed, $skipped skipped"

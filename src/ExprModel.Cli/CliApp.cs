@@ -24,6 +24,7 @@ public static class CliApp
         root.Subcommands.Add(SnapshotCommands.Create(ctx));
         root.Subcommands.Add(PatchCommand.Create(ctx));
         root.Subcommands.Add(NoiseCommand.Create(ctx));
+        root.Subcommands.Add(SlurmCommand.Create(ctx));
         var parse = root.Parse(args);
         if (parse.Errors.Count > 0)
         {

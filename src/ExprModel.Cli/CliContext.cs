@@ -20,10 +20,23 @@ public sealed class CliContext(TextWriter stdout, TextWriter stderr)
             Out.Write(text);
             return;
         }
-        var full = Path.GetFullPath(path);
-        var tmp = full + $".{Environment.ProcessId}.tmp";
-        File.WriteAllText(tmp, text);
-        File.Move(tmp, full, overwrite: true);
+        AtomicFile.WriteAllText(path, text);
+        Error.WriteLine($"wrote {path}");
+    }
+
+    /// <summary>Streams text to a file atomically (temp file then rename) or to stdout when no path is given.</summary>
+    public void Emit(Action<TextWriter> write, string? path)
+    {
+        if (string.IsNullOrEmpty(path) || path == "-")
+        {
+            write(Out);
+            return;
+        }
+        AtomicFile.Write(path, s =>
+        {
+            using var w = new StreamWriter(s, new System.Text.UTF8Encoding(encoderShouldEmitUTF8Identifier: false), 1 << 16, leaveOpen: true);
+            write(w);
+        });
         Error.WriteLine($"wrote {path}");
     }
 }

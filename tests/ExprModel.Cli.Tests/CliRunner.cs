@@ -16,7 +16,8 @@ public static class CliRunner
     {
         var o = new StringWriter();
         var e = new StringWriter();
-        bool wantsDb = args.Length > 0 && args[0] != "merge" && args[0] != "snapshots" && (args[0] != "catalog" || args.Length > 1 && args[1] != "build");
+        bool wantsDb = args.Length > 0 && args[0] != "merge" && args[0] != "snapshots" && args[0] != "slurm-array"
+            && (args[0] != "catalog" || args.Length > 1 && args[1] != "build");
         var full = wantsDb && !args.Contains("--db") ? [.. args, "--db", Db.Value] : args;
         int code = CliApp.Run(full, o, e);
         return (code, o.ToString(), e.ToString());

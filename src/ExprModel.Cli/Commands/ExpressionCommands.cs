@@ -302,62 +302,14 @@ public static class ExpressionCommands
 
     private static Command Merge(CliContext ctx)
     {
-        var c = new Command("merge", "Join batch shards into one table (checks headers, duplicates and gaps).");
+        var c = new Command("merge", "Join batch shards into the table one unsharded run writes (refuses cut-off files, names missing shards).");
         var files = new Argument<string[]>("shards") { Description = "Shard CSV files written by exprmodel batch --shard.", Arity = ArgumentArity.OneOrMore };
         var output = new Option<string?>("--out") { Description = "CSV file to write (default: standard output)." };
         c.Arguments.Add(files);
         c.Options.Add(output);
         c.SetAction(p =>
         {
-            string? header = null;
-            var rows = new SortedDictionary<int, string>();
-            var comments = new List<string>();
-            int? total = null;
-            foreach (var f in p.GetValue(files)!)
-            {
-                if (!File.Exists(f)) throw new CliException($"{f}: no such shard file.");
-                int line = 0;
-                foreach (var raw in File.ReadLines(f))
-                {
-                    line++;
-                    if (raw.StartsWith('#'))
-                    {
-                        if (raw.Contains(" of ") && raw.Contains(" items")
-                            && int.TryParse(raw[(raw.LastIndexOf(" of ", StringComparison.Ordinal) + 4)..raw.LastIndexOf(" items", StringComparison.Ordinal)],
-                                out var t))
-                        {
-                            if (total is { } prev && prev != t) throw new CliException($"{f}: line {line}: shard of {t} items, others have {prev}.");
-                            total = t;
-                        }
-                        else if (comments.Count == 0) comments.Add(raw);
-                        continue;
-                    }
-                    if (raw.Length == 0) continue;
-                    if (header is null) { header = raw; continue; }
-                    if (raw == header) continue;
-                    if (!raw.StartsWith("item_index", StringComparison.Ordinal) && header is not null && rows.Count >= 0)
-                    {
-                        var comma = raw.IndexOf(',');
-                        if (comma < 0 || !int.TryParse(raw[..comma], out var idx))
-                            throw new CliException($"{f}: line {line}, column 1: '{raw.Split(',')[0]}' is not an item index.");
-                        if (!rows.TryAdd(idx, raw)) throw new CliException($"{f}: line {line}: item {idx} appears in more than one shard.");
-                    }
-                }
-                var fileHeader = File.ReadLines(f).FirstOrDefault(l => !l.StartsWith('#'));
-                if (fileHeader != header) throw new CliException($"{f}: its header differs from the first shard's.");
-            }
-            if (header is null) throw new CliException("The shards hold no rows.");
-            if (total is { } n)
-            {
-                var missing = Enumerable.Range(0, n).Where(i => !rows.ContainsKey(i)).ToArray();
-                if (missing.Length > 0) throw new CliException("Items missing from the shards: " +
-                    $"{string.Join(", ", missing.Take(20))}{(missing.Length > 20 ? " ..." : "")} ({missing.Length} of {n}).");
-            }
-            // Shards are files a user may have edited: every line goes back through the one neutralising writer.
-            var lines = comments.Select(c => CsvTable.Comment(c.TrimStart('#').TrimStart()))
-                .Append(CsvTable.Line(header)).Concat(rows.Values.Select(CsvTable.Line));
-            var text = string.Join("\n", lines) + "\n";
-            ctx.Emit(text, p.GetValue(output));
+            ShardMerge.Merge(p.GetValue(files)!, ctx, p.GetValue(output));
             return 0;
         });
         return c;

@@ -76,6 +76,13 @@ public class ExpressionCommandsTests
         Assert.True(m.Exit == 0, m.Err);
         string[] Rows(string p) => File.ReadAllLines(p).Where(l => !l.StartsWith('#')).ToArray();
         Assert.Equal(Rows(all), Rows(merged));
+        // The whole file, comments included, is the unsharded run's, byte for byte (the shard line reads "shard 1/1").
+        Assert.Equal(File.ReadAllBytes(all), File.ReadAllBytes(merged));
+        // A rerun of a shard writes the same bytes (idempotent), through a temporary file that does not stay behind.
+        var before = File.ReadAllBytes(s1);
+        Assert.True(CliRunner.Run(["batch", .. Inputs, "--shard", "1/2", "--out", s1]).Exit == 0);
+        Assert.Equal(before, File.ReadAllBytes(s1));
+        Assert.Empty(Directory.GetFiles(tmp, $".s1-{id}.csv.*"));
         Assert.Equal(6, Rows(all).Length); // header + five groups of the demo survey
         Assert.Contains("rheobase_pa", Rows(all)[0]);
         // A missing shard is an error that names the gap.
