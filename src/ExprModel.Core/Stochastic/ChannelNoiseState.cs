@@ -3,56 +3,93 @@ using ExprModel.Core.Simulation;
 
 namespace ExprModel.Core.Stochastic;
 
-/// <summary>The running state of <see cref="ChannelNoise"/>: V, calcium and, per channel type, the number of channels in each state.</summary>
+/// <summary>
+/// The running state of <see cref="ChannelNoise"/>: V, calcium, shell sodium and, per channel type, the number of channels
+/// in each state. Subunit flip probabilities come from the deterministic kernel's rate table for the same step
+/// (<see cref="RateTable"/>: decay e = exp(-dt/tau) and drive x_inf (1 - e) on a 0.01 mV grid, interpolated linearly),
+/// so a step costs no exponential or rate evaluation per gate: opening = drive, closing = 1 - e - drive.
+/// Concentration-gated gates take their steady state and decay per step as the deterministic loop does.
+/// </summary>
 internal sealed class ChannelNoiseState
 {
     private readonly CompiledCell _cell;
+    private readonly StepPlan _plan;
     private readonly StochasticRandom _rng;
     private readonly double _dt;
     private readonly double _exactUpTo;
-    private readonly MarkovScheme?[] _schemes;
-    private readonly int[][] _counts;
-    private readonly int[][] _next;
+    private readonly RateTable _table;
+    private readonly double[] _calciumRateExponent;
+    private readonly ChannelPopulation?[] _populations;
+    /// <summary>Per channel with a scheme: the cell gate index of each kinetic gate, and of each instantaneous gate.</summary>
+    private readonly int[][] _kineticGates;
+    private readonly int[][] _instantGates;
+    /// <summary>Every cell gate whose probabilities a step needs (kinetic and instantaneous gates of every channel).</summary>
+    private readonly int[] _usedGates;
+    private readonly double[] _opening;
+    private readonly double[] _closing;
+    /// <summary>x_inf of instantaneous gates at the present V.</summary>
+    private readonly double[] _steady;
     /// <summary>Conductance (mS/cm2) of one open channel of each type: gamma / (10 x area).</summary>
     private readonly double[] _perChannelMsPerCm2;
     private readonly double[] _g;
-    private readonly double[][] _transfer = new double[9][];
+    private readonly double _shellDecay;
+    private readonly double _sodiumDecay;
 
     public double VoltageMv { get; private set; }
     public double CalciumMm { get; private set; }
+    public double SodiumMm { get; private set; }
     public IReadOnlyList<int> Counts { get; }
 
     public ChannelNoiseState(CompiledCell cell, ChannelNoiseSettings settings)
     {
         _cell = cell;
+        _plan = cell.Plan;
         _rng = new StochasticRandom(settings.Seed);
         _dt = settings.DtMs;
         _exactUpTo = settings.ExactUpToMean;
+        _table = cell.Kinetics.TableFor(_dt);
         var k = cell.Kinetics;
+        _calciumRateExponent = Enumerable.Range(0, cell.GateCount).Select(g => _plan.CalciumRateExponent(g, _dt)).ToArray();
         double area = cell.Model.Geometry.AreaUm2;
-        _schemes = new MarkovScheme?[cell.ChannelCount];
-        _counts = new int[cell.ChannelCount][];
-        _next = new int[cell.ChannelCount][];
-        _perChannelMsPerCm2 = new double[cell.ChannelCount];
-        _g = new double[cell.ChannelCount];
-        var counts = new int[cell.ChannelCount];
+        int channels = cell.ChannelCount;
+        _populations = new ChannelPopulation?[channels];
+        _kineticGates = new int[channels][];
+        _instantGates = new int[channels][];
+        _perChannelMsPerCm2 = new double[channels];
+        _g = new double[channels];
+        _opening = new double[cell.GateCount];
+        _closing = new double[cell.GateCount];
+        _steady = new double[cell.GateCount];
+        _shellDecay = cell.HasShell ? Math.Exp(-_dt / cell.ShellDecayMs) : 0;
+        _sodiumDecay = cell.HasSodiumShell ? Math.Exp(-_dt / cell.SodiumShellDecayMs) : 0;
+        var counts = new int[channels];
         VoltageMv = cell.Model.InitialVoltageMv;
         CalciumMm = cell.ShellRestMm;
-        for (int c = 0; c < cell.ChannelCount; c++)
+        SodiumMm = cell.SodiumShellRestMm;
+        var used = new SortedSet<int>();
+        for (int c = 0; c < channels; c++)
         {
             int first = k.GateStart[c], end = k.GateEnd[c];
-            if (!Enumerable.Range(first, end - first).Any(g => !k.GateIsInstantaneous[g])) continue;
+            var all = Enumerable.Range(first, end - first).ToArray();
+            if (!all.Any(g => !k.GateIsInstantaneous[g]))
+            {
+                _kineticGates[c] = [];
+                _instantGates[c] = all;
+                used.UnionWith(all);
+                continue;
+            }
             var scheme = new MarkovScheme(k.GatePower[first..end], k.GateIsInstantaneous[first..end]);
-            _schemes[c] = scheme;
+            _kineticGates[c] = scheme.KineticGates.Select(i => first + i).ToArray();
+            _instantGates[c] = scheme.InstantaneousGates.Select(i => first + i).ToArray();
+            used.UnionWith(all);
             double gamma = settings.UnitaryConductancesPs[c];
             counts[c] = ChannelNoise.ChannelCount(cell.Gbar[c], area, gamma);
             _perChannelMsPerCm2[c] = gamma / (10 * area);
-            var steady = scheme.KineticGates.Select(i => cell.GateSteadyState(first + i, VoltageMv, CalciumMm)).ToArray();
-            _counts[c] = Multinomial(counts[c], scheme.StationaryOccupancy(steady));
-            _next[c] = new int[scheme.StateCount];
+            var steady = _kineticGates[c].Select(g => cell.GateSteadyState(g, VoltageMv, CalciumMm, SodiumMm)).ToArray();
+            _populations[c] = new ChannelPopulation(scheme, Multinomial(counts[c], scheme.StationaryOccupancy(steady)));
         }
+        _usedGates = [.. used];
         Counts = counts;
-        for (int p = 1; p <= 8; p++) _transfer[p] = new double[(p + 1) * (p + 1)];
     }
 
     private int[] Multinomial(int n, double[] probabilities)
@@ -69,39 +106,92 @@ internal sealed class ChannelNoiseState
         return x;
     }
 
-    /// <summary>One step: channel transitions at the present V and calcium, then V and the calcium shell.</summary>
+    /// <summary>One step: channel transitions at the present V and concentrations, then V and the shells.</summary>
     public void Step(double stimulusUaPerCm2)
     {
         var cell = _cell;
-        var k = cell.Kinetics;
         double v = VoltageMv, ca = CalciumMm;
-        for (int c = 0; c < cell.ChannelCount; c++)
+        SubunitProbabilities(v, ca, SodiumMm);
+        var power = cell.Kinetics.GatePower;
+        for (int c = 0; c < _g.Length; c++)
         {
-            var scheme = _schemes[c];
-            int first = k.GateStart[c];
-            if (scheme is null)
+            double open;
+            if (_populations[c] is { } population)
             {
-                double f = 1;
-                for (int g = first; g < k.GateEnd[c]; g++) f *= Math.Pow(cell.GateSteadyState(g, v, ca), k.GatePower[g]);
-                _g[c] = cell.Gbar[c] * f;
-                continue;
+                var kinetic = _kineticGates[c];
+                for (int i = 0; i < kinetic.Length; i++) population.Move(i, _opening[kinetic[i]], _closing[kinetic[i]], _rng, _exactUpTo);
+                open = population.OpenCount * _perChannelMsPerCm2[c];
             }
-            for (int i = 0; i < scheme.KineticGates.Count; i++)
+            else
             {
-                int g = first + scheme.KineticGates[i];
-                double inf = cell.GateSteadyState(g, v, ca);
-                double e = Math.Exp(-_dt / cell.GateTimeConstantMs(g, v, ca));
-                MoveGate(scheme, i, inf * (1 - e), (1 - inf) * (1 - e), c);
+                open = cell.Gbar[c];
             }
-            double open = _counts[c][scheme.OpenState] * _perChannelMsPerCm2[c];
-            foreach (int i in scheme.InstantaneousGates) open *= Math.Pow(cell.GateSteadyState(first + i, v, ca), k.GatePower[first + i]);
+            foreach (int g in _instantGates[c])
+            {
+                double x = _steady[g], f = x;
+                for (int j = 1; j < power[g]; j++) f *= x;
+                open *= f;
+            }
             _g[c] = open;
         }
+        Membrane(v, ca, stimulusUaPerCm2);
+    }
 
-        // Membrane: exponential update with conductances frozen over the step (GHK calcium as a current at the present V).
-        double gTotal = 0, gE = 0, other = 0, ica = 0;
+    /// <summary>Per-step opening and closing probabilities of every subunit (and x_inf of instantaneous gates) at V and the shells.</summary>
+    private void SubunitProbabilities(double v, double ca, double na)
+    {
+        var data = _table.Data;
+        double pos = (v - RateTable.MinMv) * (1.0 / RateTable.ResolutionMv);
+        pos = Math.Clamp(pos, 0, _table.Points - 2);
+        int i = (int)pos;
+        double f = pos - i;
+        int j = 2 * i;
+        foreach (int g in _usedGates)
+        {
+            double inf, decay;
+            switch (_plan.Update[g])
+            {
+                case GateUpdate.Table:
+                    {
+                        var t = data[g]!;
+                        decay = t[j] + f * (t[j + 2] - t[j]);
+                        double drive = t[j + 1] + f * (t[j + 3] - t[j + 1]);
+                        _opening[g] = drive;
+                        _closing[g] = Math.Max(0, 1 - decay - drive);
+                        continue;
+                    }
+                case GateUpdate.TableInstantaneous:
+                    {
+                        var t = data[g]!;
+                        _steady[g] = t[j + 1] + f * (t[j + 3] - t[j + 1]);
+                        continue;
+                    }
+                case GateUpdate.CalciumHill:
+                    inf = _plan.HillSteadyState<ScalarLanes, double>(g, ca);
+                    decay = _table.CalciumDecay[g];
+                    break;
+                case GateUpdate.SodiumHill:
+                    inf = _plan.HillSteadyState<ScalarLanes, double>(g, na);
+                    decay = _table.CalciumDecay[g];
+                    break;
+                default:
+                    inf = _plan.CalciumRatesSteadyState(g, v, ca, out double rateSum);
+                    decay = Math.Exp(rateSum * _calciumRateExponent[g]);
+                    break;
+            }
+            _steady[g] = inf;
+            _opening[g] = inf * (1 - decay);
+            _closing[g] = (1 - inf) * (1 - decay);
+        }
+    }
+
+    /// <summary>Membrane: exponential update with conductances frozen over the step (GHK calcium as a current at the present V).</summary>
+    private void Membrane(double v, double ca, double stimulusUaPerCm2)
+    {
+        var cell = _cell;
+        double gTotal = 0, gE = 0, other = 0, ica = 0, ina = 0;
         double eCa = double.NaN;
-        for (int c = 0; c < cell.ChannelCount; c++)
+        for (int c = 0; c < _g.Length; c++)
         {
             double g = _g[c];
             if (g == 0) continue;
@@ -125,7 +215,8 @@ internal sealed class ChannelNoiseState
                 i = g * cell.CalciumDrivingMv(mode, v, ca, 0);
                 other += i;
             }
-            if (cell.Plan.CarriesCalcium[c]) ica += i;
+            if (_plan.CarriesCalcium[c]) ica += i;
+            if (_plan.CarriesSodium[c]) ina += i;
         }
         double cm = cell.CapacitanceUfPerCm2;
         if (gTotal > 0)
@@ -140,54 +231,12 @@ internal sealed class ChannelNoiseState
         if (cell.HasShell)
         {
             double caInf = cell.ShellRestMm - cell.ShellInflowPerCurrent * cell.ShellDecayMs * ica;
-            CalciumMm = Math.Max(0, caInf + (ca - caInf) * Math.Exp(-_dt / cell.ShellDecayMs));
+            CalciumMm = Math.Max(0, caInf + (ca - caInf) * _shellDecay);
         }
-    }
-
-    /// <summary>
-    /// Moves every channel of type c along gate i: a channel with k of p subunits open ends with k' open with probability
-    /// T[k][k'] = sum_j C(k, j) (1 - pc)^j pc^(k - j) C(p - k, k' - j) po^(k' - j) (1 - po)^(p - k - k' + j), the
-    /// binomial convolution of staying-open and newly opened subunits; the channels of each state are one multinomial draw.
-    /// </summary>
-    private void MoveGate(MarkovScheme scheme, int i, double po, double pc, int c)
-    {
-        int p = scheme.Powers[i], stride = scheme.Strides[i], width = p + 1;
-        var t = _transfer[p];
-        for (int from = 0; from <= p; from++)
+        if (cell.HasSodiumShell)
         {
-            for (int to = 0; to <= p; to++) t[from * width + to] = 0;
-            for (int stay = 0; stay <= from; stay++)
-            {
-                double a = MarkovScheme.Choose(from, stay) * Math.Pow(1 - pc, stay) * Math.Pow(pc, from - stay);
-                for (int opened = 0; opened <= p - from; opened++)
-                    t[from * width + stay + opened] += a * MarkovScheme.Choose(p - from, opened) * Math.Pow(po, opened) * Math.Pow(1 - po, p - from - opened);
-            }
+            double naInf = cell.SodiumShellRestMm - cell.SodiumInflowPerCurrent * cell.SodiumShellDecayMs * ina;
+            SodiumMm = Math.Max(0, naInf + (SodiumMm - naInf) * _sodiumDecay);
         }
-        var counts = _counts[c];
-        var next = _next[c];
-        Array.Clear(next);
-        for (int s = 0; s < counts.Length; s++)
-        {
-            int n = counts[s];
-            if (n == 0) continue;
-            int kOpen = scheme.OpenSubunits(s, i);
-            int baseState = s - kOpen * stride;
-            double left = 1;
-            int row = kOpen * width;
-            // Draw the unlikely moves first and leave the rest in the most likely target (usually "no change").
-            int likely = kOpen;
-            for (int to = 0; to <= p && n > 0; to++)
-            {
-                if (to == likely) continue;
-                double q = t[row + to];
-                int x = q <= 0 ? 0 : _rng.NextBinomial(n, left > q ? q / left : 1, _exactUpTo);
-                next[baseState + to * stride] += x;
-                n -= x;
-                left -= q;
-            }
-            next[baseState + likely * stride] += n;
-        }
-        _next[c] = counts;
-        _counts[c] = next;
     }
 }

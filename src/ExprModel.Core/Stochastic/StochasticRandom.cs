@@ -48,65 +48,114 @@ public sealed class StochasticRandom
     /// <summary>Exponential waiting time with the given rate (1/ms): -ln(U)/rate.</summary>
     public double NextExponential(double rate) => -Math.Log(NextOpenDouble()) / rate;
 
-    /// <summary>Standard normal by the polar method (Marsaglia &amp; Bray 1964); the second value is kept for the next call.</summary>
-    public double NextNormal()
-    {
-        if (_hasSpare)
-        {
-            _hasSpare = false;
-            return _spare;
-        }
-        double u, v, s;
-        do
-        {
-            u = 2 * NextDouble() - 1;
-            v = 2 * NextDouble() - 1;
-            s = u * u + v * v;
-        }
-        while (s >= 1 || s == 0);
-        double f = Math.Sqrt(-2 * Math.Log(s) / s);
-        _spare = v * f;
-        _hasSpare = true;
-        return u * f;
-    }
-
-    private double _spare;
-    private bool _hasSpare;
+    /// <summary>Standard normal variate (ziggurat method, <see cref="NormalZiggurat"/>).</summary>
+    public double NextNormal() => NormalZiggurat.Next(this);
 
     /// <summary>
-    /// A binomial count of <paramref name="n"/> trials with success probability <paramref name="p"/>. Exact (inversion
-    /// by the pmf recurrence, on the smaller of p and 1 - p) while n min(p, 1-p) is at most
-    /// <paramref name="exactUpToMean"/>; above that the normal approximation N(np, np(1-p)), rounded and clamped to
-    /// [0, n] (common practice for large counts).
+    /// A binomial count of <paramref name="n"/> trials with success probability <paramref name="p"/>, drawn on the
+    /// rarer outcome (q = min(p, 1 - p)). Exact while the expected count nq is at most <paramref name="exactUpToMean"/>:
+    /// below <see cref="RejectionFromMean"/> by inversion from one uniform (walk the cumulative distribution from 0 by the
+    /// pmf recurrence, cost about the mean; a uniform below 1 - nq is a 0 at once, since P(0) = (1 - q)^n &gt;= 1 - nq by
+    /// Bernoulli's inequality, the same answer the walk gives), from there by transformed rejection (Hormann 1993,
+    /// <see cref="TransformedRejection"/>, cost independent of the mean). Above the limit the normal approximation
+    /// N(nq, nq(1-q)), rounded and clamped to [0, n] (common practice for large counts). A single trial is one comparison.
     /// </summary>
     public int NextBinomial(int n, double p, double exactUpToMean = 25)
     {
-        if (n <= 0 || p <= 0) return 0;
+        if (n <= 0 || !(p > 0)) return 0;
         if (p >= 1) return n;
+        if (n == 1) return NextDouble() < p ? 1 : 0;
         bool flip = p > 0.5;
         double q = flip ? 1 - p : p;
         double mean = n * q;
         int k;
-        if (mean <= exactUpToMean)
+        if (!(mean <= exactUpToMean))
         {
-            // Inversion: walk the cumulative distribution from 0 (cost about the mean).
-            double r = q / (1 - q);
-            double pmf = Math.Exp(n * Math.Log(1 - q));
-            double u = NextDouble();
-            k = 0;
-            while (u > pmf && k < n)
-            {
-                u -= pmf;
-                pmf *= r * (n - k) / (k + 1);
-                k++;
-                if (pmf <= 0) break;
-            }
+            k = NormalCount(n, q, mean);
+        }
+        else if (mean >= RejectionFromMean)
+        {
+            k = TransformedRejection(n, q);
         }
         else
         {
-            k = (int)Math.Round(mean + Math.Sqrt(mean * (1 - q)) * NextNormal());
-            k = Math.Clamp(k, 0, n);
+            double u = NextDouble();
+            k = u < 1 - mean ? 0 : Inversion(u, n, q, Math.Exp(n * Math.Log(1 - q)));
         }
         return flip ? n - k : k;
     }
+
+    /// <summary>Expected count from which exact draws use <see cref="TransformedRejection"/> rather than inversion.</summary>
+    public const double RejectionFromMean = 10;
+
+    /// <summary>Inversion from the uniform <paramref name="u"/>, walking up from P(0) = <paramref name="pmf"/> = (1 - q)^n.</summary>
+    internal static int Inversion(double u, int n, double q, double pmf)
+    {
+        double r = q / (1 - q);
+        var reciprocal = Reciprocals;
+        int k = 0;
+        while (u > pmf && k < n)
+        {
+            u -= pmf;
+            pmf *= r * (n - k) * (k < reciprocal.Length ? reciprocal[k] : 1.0 / (k + 1));
+            k++;
+            if (pmf <= 0) break;
+        }
+        return k;
+    }
+
+    /// <summary>
+    /// Exact binomial draw for nq &gt;= 10, q &lt;= 1/2, by transformed rejection with squeeze (Hormann 1993, "The
+    /// generation of binomial random variates", J Stat Comput Simul 46:101; the constants are the paper's, from memory,
+    /// and the draws are checked against MathNet.Numerics' binomial pmf in the tests). A pair of uniforms (u, v) is mapped
+    /// to k = floor((2a / us + b) u + c), us = 1/2 - |u|; inside the squeeze (us &gt;= 0.07, v &lt;= v_r, most pairs) k is
+    /// taken at once; otherwise it is taken if ln(v alpha / (a / us^2 + b)) &lt;= ln(f(k) / f(m)), the pmf ratio to the
+    /// mode m written with Stirling's series (exact tails from a table below 10).
+    /// </summary>
+    private int TransformedRejection(int n, double q)
+    {
+        double spq = Math.Sqrt(n * q * (1 - q));
+        double b = 1.15 + 2.53 * spq;
+        double a = -0.0873 + 0.0248 * b + 0.01 * q;
+        double c = n * q + 0.5;
+        double vr = 0.92 - 4.2 / b;
+        double r = q / (1 - q);
+        double alpha = (2.83 + 5.1 / b) * spq;
+        double m = Math.Floor((n + 1) * q);
+        while (true)
+        {
+            double u = NextDouble() - 0.5;
+            double v = NextDouble();
+            double us = 0.5 - Math.Abs(u);
+            double k = Math.Floor((2 * a / us + b) * u + c);
+            if (us >= 0.07 && v <= vr) return (int)k;
+            if (k < 0 || k > n || us <= 0) continue;
+            double lhs = Math.Log(v * alpha / (a / (us * us) + b));
+            double rhs = (m + 0.5) * Math.Log((m + 1) / (r * (n - m + 1)))
+                + (n + 1) * Math.Log((n - m + 1) / (n - k + 1))
+                + (k + 0.5) * Math.Log(r * (n - k + 1) / (k + 1))
+                + StirlingTail(m) + StirlingTail(n - m) - StirlingTail(k) - StirlingTail(n - k);
+            if (lhs <= rhs) return (int)k;
+        }
+    }
+
+    /// <summary>ln k! - [(k + 1/2) ln(k + 1) - (k + 1) + ln(2 pi)/2]: exact below 10, else Stirling's series in 1/(k + 1).</summary>
+    private static double StirlingTail(double k)
+    {
+        if (k < 10) return StirlingTails[(int)k];
+        double x = k + 1, x2 = x * x;
+        return (1.0 / 12 - (1.0 / 360 - 1.0 / 1260 / x2) / x2) / x;
+    }
+
+    private static readonly double[] StirlingTails = [.. Enumerable.Range(0, 10).Select(k =>
+        Enumerable.Range(1, k).Sum(j => Math.Log(j)) - ((k + 0.5) * Math.Log(k + 1) - (k + 1) + 0.5 * Math.Log(2 * Math.PI)))];
+
+    private int NormalCount(int n, double q, double mean)
+    {
+        int k = (int)Math.Round(mean + Math.Sqrt(mean * (1 - q)) * NextNormal());
+        return Math.Clamp(k, 0, n);
+    }
+
+    /// <summary>1 / (k + 1) for the inversion walk (a multiplication instead of a division per term).</summary>
+    private static readonly double[] Reciprocals = [.. Enumerable.Range(1, 512).Select(k => 1.0 / k)];
 }

@@ -45,24 +45,16 @@ public class PatchClampTests
     {
         // N i^2 p (1 - p) for N independent channels each open with probability p (binomial; common practice).
         // Held and stepped at -40 mV, so the channels stay in their stationary occupancy throughout.
-        var entry = Entry("squid-k-hh1952");
-        var s = new PatchSettings
+        var s = PatchEnsembles.PotassiumAt(TestCatalog.Catalog, -40, channels: 20, sweeps: 2000) with
         {
-            Entry = entry,
-            UnitaryConductancePs = 20,
-            ChannelCount = 20,
-            HoldingMv = -40,
-            StepMv = -40,
-            PreStepMs = 0,
             StepMs = 40,
             SampleIntervalMs = 0.5,
-            Sweeps = 2000,
             Seed = 5,
             KeptSweeps = 0,
             DwellSweeps = 0,
         };
         var result = PatchClamp.Run(s);
-        double p = entry.SteadyStateOpenFraction(-40), i = result.UnitaryCurrentAtStepPa;
+        double p = s.Entry.SteadyStateOpenFraction(-40), i = result.UnitaryCurrentAtStepPa;
         double expected = s.ChannelCount * i * i * p * (1 - p);
         double measured = result.VarianceCurrentPa2.Average();
         // Each sample's variance has relative standard error about sqrt(2/(K-1)); 4 of those, without credit for
@@ -75,17 +67,11 @@ public class PatchClampTests
     [Fact]
     public void Ensemble_mean_lies_within_three_standard_errors_of_the_deterministic_current_at_every_sample()
     {
-        var s = new PatchSettings
+        var s = PatchEnsembles.SodiumStep(TestCatalog.Catalog, channels: 20, sweeps: 1000) with
         {
-            Entry = Entry("squid-na-hh1952"),
-            UnitaryConductancePs = 18,
-            ChannelCount = 20,
-            HoldingMv = -90,
-            StepMv = 0,
             PreStepMs = 2,
             StepMs = 10,
             SampleIntervalMs = 0.2,
-            Sweeps = 1000,
             Seed = 3,
             KeptSweeps = 2,
         };
@@ -107,17 +93,11 @@ public class PatchClampTests
     [Fact]
     public void Variance_mean_parabola_recovers_the_unitary_current_and_channel_count()
     {
-        var s = new PatchSettings
+        var s = PatchEnsembles.SodiumStep(TestCatalog.Catalog, channels: 100, sweeps: 600, stepMv: -10) with
         {
-            Entry = Entry("squid-na-hh1952"),
-            UnitaryConductancePs = 18,
-            ChannelCount = 100,
-            HoldingMv = -90,
-            StepMv = -10,
             PreStepMs = 1,
             StepMs = 8,
             SampleIntervalMs = 0.05,
-            Sweeps = 600,
             Seed = 9,
             KeptSweeps = 0,
             DwellSweeps = 0,
@@ -132,18 +112,10 @@ public class PatchClampTests
     [Fact]
     public void Closed_dwell_times_of_a_stationary_patch_follow_the_theory()
     {
-        var entry = Entry("squid-k-hh1952");
-        var r = PatchClamp.Run(new PatchSettings
+        var r = PatchClamp.Run(PatchEnsembles.PotassiumAt(TestCatalog.Catalog, -30, channels: 20, sweeps: 50) with
         {
-            Entry = entry,
-            UnitaryConductancePs = 20,
-            ChannelCount = 20,
-            HoldingMv = -30,
-            StepMv = -30,
-            PreStepMs = 0,
             StepMs = 200,
             SampleIntervalMs = 1,
-            Sweeps = 50,
             Seed = 2,
             DwellSweeps = 50,
         });
@@ -160,7 +132,7 @@ public class PatchClampTests
     [Fact]
     public void Same_seed_gives_the_same_result()
     {
-        var s = new PatchSettings { Entry = Entry("squid-na-hh1952"), UnitaryConductancePs = 18, ChannelCount = 30, Sweeps = 20, StepMs = 5, Seed = 77 };
+        var s = PatchEnsembles.SodiumStep(TestCatalog.Catalog, channels: 30, sweeps: 20) with { StepMs = 5, Seed = 77 };
         var a = PatchClamp.Run(s);
         var b = PatchClamp.Run(s);
         Assert.Equal(a.MeanCurrentPa, b.MeanCurrentPa);
