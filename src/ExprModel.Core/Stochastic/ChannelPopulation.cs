@@ -177,6 +177,7 @@ internal sealed class ChannelPopulation
     }
 
     /// <summary>Pascal's triangle to row 8 (gate powers are 1 to 8).</summary>
-    private static readonly double[][] Binomials = [.. Enumerable.Range(0, Width).Select(n => Enumerable.Range(0, n + 1).Select(k => MarkovScheme.Choose(n, k)).ToArray())];
+    private static readonly double[][] Binomials =
+        [.. Enumerable.Range(0, Width).Select(n => Enumerable.Range(0, n + 1).Select(k => MarkovScheme.Choose(n, k)).ToArray())];
 }
 
