@@ -96,6 +96,47 @@ public sealed class ExpressionFlowTests(AppFixture app)
         await context.CloseAsync();
     }
 
+    private static string DemoMtx(string file)
+    {
+        for (var d = new DirectoryInfo(AppContext.BaseDirectory); d is not null; d = d.Parent)
+            if (File.Exists(Path.Combine(d.FullName, "ExprModel.sln"))) return Path.Combine(d.FullName, "catalog", "demo", "mtx", file);
+        throw new FileNotFoundException(file);
+    }
+
+    [Fact]
+    public async Task A_matrix_market_triple_chosen_together_or_in_an_archive_is_sorted_and_read()
+    {
+        var (context, page, errors) = await app.NewPageAsync();
+        await app.GotoAsync(page, "/load");
+        // The three files of catalog/demo/mtx chosen at once, in no particular order.
+        await page.Locator("[data-testid=upload-expression]").SetInputFilesAsync(new[] { "barcodes.tsv", "matrix.mtx", "genes.tsv" }.Select(DemoMtx));
+        var parts = await page.WaitForSelectorAsync("[data-testid=upload-parts]");
+        Assert.Contains("× 240 cells (named by barcodes.tsv)", await parts!.InnerTextAsync());
+        Assert.Contains("column (cell)", await page.Locator("[data-testid=preview]").InnerTextAsync());
+        await app.ScreenshotAsync(page, "load-matrix-market");
+
+        // Only two of them: the missing one is named at once.
+        await page.Locator("[data-testid=upload-expression]").SetInputFilesAsync(new[] { "matrix.mtx", "genes.tsv" }.Select(DemoMtx));
+        await page.WaitForFunctionAsync("() => document.querySelector('[data-testid=error]')?.innerText.includes('came without its cells file')");
+        await app.ScreenshotAsync(page, "load-matrix-market-missing");
+
+        // The same three in a tar.gz archive, then read and on to mapping.
+        var archive = Path.Combine(app.WorkDir, "sample.tar.gz");
+        await using (var output = File.Create(archive))
+        await using (var gz = new System.IO.Compression.GZipStream(output, System.IO.Compression.CompressionLevel.Optimal))
+        await using (var tar = new System.Formats.Tar.TarWriter(gz))
+            foreach (var f in new[] { "matrix.mtx", "genes.tsv", "barcodes.tsv" }) await tar.WriteEntryAsync(DemoMtx(f), "sample/" + f);
+        await page.Locator("[data-testid=upload-expression]").SetInputFilesAsync(archive);
+        await page.WaitForFunctionAsync(
+            "() => document.querySelector('[data-testid=upload-parts]')?.innerText.includes('sample.tar.gz/sample/matrix.mtx')");
+        await page.Locator("[data-testid=to-map]").ClickAsync();
+        await page.WaitForSelectorAsync("[data-testid=mapping-table]");
+        Assert.Contains("240 cells", await page.Locator("[data-testid=table-summary]").InnerTextAsync());
+        await app.ScreenshotAsync(page, "map-matrix-market");
+        Assert.True(errors.Count == 0, string.Join("\n", errors));
+        await context.CloseAsync();
+    }
+
     [Fact]
     public async Task A_bad_file_shows_where_it_is_wrong()
     {

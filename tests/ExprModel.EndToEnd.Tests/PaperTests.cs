@@ -67,6 +67,10 @@ public sealed class PaperTests(AppFixture app)
         await page.WaitForSelectorAsync("[data-testid=gate-forms-n] table");
         Assert.Contains("alpha/(alpha + beta)", await page.Locator("[data-testid=gate-forms-n]").InnerTextAsync());
         Assert.Contains("6 parameters", await page.Locator("[data-testid=parameter-count]").InnerTextAsync());
+        // The screenshot must show the curves: wait for a drawn line (a path with points) in both gate plots.
+        foreach (var plot in new[] { "steady", "tau" })
+            await page.WaitForFunctionAsync($"() => [...document.querySelectorAll('[data-testid=plot-{plot}] .scatterlayer .trace path.js-line')]"
+                + ".some(p => (p.getAttribute('d') ?? '').length > 20)");
         await app.ScreenshotAsync(page, "catalog-gate-forms");
         Assert.True(errors.Count == 0, string.Join("\n", errors));
         await context.CloseAsync();

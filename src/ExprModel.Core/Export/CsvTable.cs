@@ -7,12 +7,20 @@ namespace ExprModel.Core.Export;
 
 /// <summary>
 /// The one CSV writer: RFC 4180 quoting, invariant numbers, '#' comment lines (the research caution goes there),
-/// and spreadsheet-formula neutralisation on every line (common practice against formula injection): a text cell
-/// starting with = + - @ tab or CR is prefixed with a quote; a cell holding ',' ';' tab, a quote or a line break is
-/// quoted; and in every text cell and comment line, each piece a spreadsheet splitting at ',' ';' or tab would make a
-/// cell of gets a quote before a leading = + - or @ (a comment line is split like any other line). Numbers
-/// are written as numbers and never neutralised. Anything that writes CSV text goes through here.
+/// and spreadsheet-formula neutralisation on every line (OWASP's CSV-injection guidance, common practice): a text cell
+/// starting with = + - @ tab or CR is prefixed with a quote unless it is a plain number ("-90", "-1.5e3": data a
+/// spreadsheet reads as a number, as it reads the numeric cells); a cell holding ',' ';' tab, a quote or a line break is
+/// quoted; and wherever a spreadsheet would start a cell inside the text, the piece gets a quote before a leading
+/// = + - or @. Inside a text cell that is after ';' or tab (a semicolon- or tab-locale spreadsheet splits the same line
+/// elsewhere); a comma there never starts a cell, since a cell holding one is quoted and every spreadsheet keeps a quoted
+/// cell whole at its commas, so a note such as "(sweep 1, -90 pA)" is written as it is. A comment line is not quoted, so
+/// there a comma starts a cell too. Numbers are written as numbers. Anything that writes CSV text goes through here.
 /// </summary>
+/// <remarks>
+/// A whole cell that starts with '-' and is not a plain number ("-90 pA") keeps its quote: spreadsheets read such a cell
+/// as a formula (an error at best, and a formula payload can start with '-'), and OWASP lists '-' among the characters to
+/// neutralise. The cost is one visible quote on a cell that is text anyway.
+/// </remarks>
 public sealed partial class CsvTable
 {
     private readonly StringBuilder _sb = new();
@@ -56,14 +64,15 @@ public sealed partial class CsvTable
     /// A '#' comment line (without its line break): line breaks become spaces, and wherever a spreadsheet splitting the
     /// line at ',' ';' or tab would start a cell (after optional blanks and quotes) with = + - or @, a quote is put first.
     /// </summary>
-    public static string Comment(string text) => "# " + Pieces(text.Replace('\n', ' ').Replace('\r', ' '));
+    public static string Comment(string text) => "# " + Pieces(text.Replace('\n', ' ').Replace('\r', ' '), commaStartsCell: true);
 
     /// <summary>
-    /// Puts a quote before = + - or @ wherever a spreadsheet splitting the text at ',' ';' or tab would start a cell with
-    /// it (after optional blanks and quotes): quoting a cell protects it from the comma split only, not from a
-    /// semicolon- or tab-locale spreadsheet that splits the same line elsewhere.
+    /// Puts a quote before = + - or @ wherever a spreadsheet splitting the text at ';' or tab (and at ',' when
+    /// <paramref name="commaStartsCell"/>: a line that is not quoted) would start a cell with it (after optional blanks
+    /// and quotes): quoting a cell protects it from the comma split only, not from a semicolon- or tab-locale spreadsheet
+    /// that splits the same line elsewhere.
     /// </summary>
-    private static string Pieces(string text)
+    private static string Pieces(string text, bool commaStartsCell)
     {
         var sb = new StringBuilder(text.Length + 4);
         bool cellStart = false;
@@ -71,7 +80,7 @@ public sealed partial class CsvTable
         {
             if (cellStart && IsFormulaStart(c)) sb.Append('\'');
             sb.Append(c);
-            if (c is ',' or ';' or '\t') cellStart = true;
+            if (c is ';' or '\t' || (c == ',' && commaStartsCell)) cellStart = true;
             else if (c is not (' ' or '"')) cellStart = false;
         }
         return sb.ToString();
@@ -110,8 +119,8 @@ public sealed partial class CsvTable
 
     private static string Text(string s)
     {
-        if (s.Length > 0 && (IsFormulaStart(s[0]) || s[0] is '\t' or '\r')) s = "'" + s;
-        s = Pieces(s);
+        if (s.Length > 0 && (IsFormulaStart(s[0]) || s[0] is '\t' or '\r') && !PlainNumber().IsMatch(s)) s = "'" + s;
+        s = Pieces(s, commaStartsCell: false);
         return s.IndexOfAny([',', ';', '\t', '"', '\n', '\r']) >= 0 ? "\"" + s.Replace("\"", "\"\"") + "\"" : s;
     }
 

@@ -6,52 +6,18 @@ namespace ExprModel.Data.Store;
 
 /// <summary>
 /// The web app's own SQLite database of shared snapshots. Created on first use; every write is one transaction;
-/// rows are immutable (triggers refuse UPDATE, DELETE and an INSERT on an existing id, which closes INSERT OR REPLACE and
-/// REPLACE INTO: SQLite runs no delete trigger for a REPLACE unless recursive triggers are on), so nothing already shared
-/// can be altered or half-written. Every row carries a SHA-256 of its content, checked on every read.
+/// rows are immutable (<see cref="SnapshotSchema"/>: triggers refuse UPDATE, DELETE and REPLACE), so nothing already
+/// shared can be altered or half-written. Every row carries a SHA-256 of its content, checked on every read. Exports are
+/// <see cref="SnapshotArchive"/>, imports <see cref="SnapshotImport"/>, online copies <see cref="SnapshotBackup"/>.
 /// Ids are 128 random bits from the operating system's CSPRNG, written base64url without padding (22 characters).
 /// Errors of the database itself (rights, damage, checksum) are <see cref="SnapshotStoreException"/>s naming the file.
 /// </summary>
 public sealed class SnapshotStore
 {
-    /// <summary>
-    /// 2 added <c>recorded_json</c>; 3 added <c>content_sha256</c> and the trigger refusing an INSERT on an existing id.
-    /// Older databases are migrated on opening, in one transaction, keeping every snapshot.
-    /// </summary>
-    public const int SchemaVersion = 3;
+    /// <summary>The database schema this program writes (<see cref="SnapshotSchema.Version"/>).</summary>
+    public const int SchemaVersion = SnapshotSchema.Version;
     public const int IdBytes = 16;
     public const int MaxNotesLength = 20_000;
-
-    private const string UpdateTrigger = """
-        CREATE TRIGGER IF NOT EXISTS snapshots_immutable_update BEFORE UPDATE ON snapshots
-            BEGIN SELECT RAISE(ABORT, 'snapshots are immutable'); END;
-        """;
-
-    private const string Schema = """
-        CREATE TABLE IF NOT EXISTS store_meta (key TEXT PRIMARY KEY, value TEXT NOT NULL);
-        CREATE TABLE IF NOT EXISTS snapshots (
-            snapshot_id TEXT PRIMARY KEY,
-            parent_id TEXT REFERENCES snapshots(snapshot_id),
-            created_utc TEXT NOT NULL,
-            model_json TEXT NOT NULL,
-            catalog_versions TEXT NOT NULL,
-            protocol_json TEXT NOT NULL,
-            readouts_json TEXT NOT NULL,
-            notes TEXT NOT NULL,
-            expression BLOB,
-            expression_name TEXT,
-            recorded_json TEXT,
-            content_sha256 TEXT);
-        CREATE INDEX IF NOT EXISTS snapshots_by_parent ON snapshots(parent_id);
-        CREATE TRIGGER IF NOT EXISTS snapshots_immutable_delete BEFORE DELETE ON snapshots
-            BEGIN SELECT RAISE(ABORT, 'snapshots are immutable'); END;
-        CREATE TRIGGER IF NOT EXISTS snapshots_no_replace BEFORE INSERT ON snapshots
-            WHEN EXISTS (SELECT 1 FROM snapshots WHERE snapshot_id = NEW.snapshot_id)
-            BEGIN SELECT RAISE(ABORT, 'snapshots are immutable: this id is already stored'); END;
-        """ + UpdateTrigger;
-
-    private const string Columns = "snapshot_id, parent_id, created_utc, model_json, catalog_versions, protocol_json, readouts_json, notes, expression, "
-        + "expression_name, recorded_json, content_sha256";
 
     public string DatabasePath { get; }
 
@@ -73,21 +39,14 @@ public sealed class SnapshotStore
                 throw new SnapshotStoreException(
                     $"{full}: the snapshot database is read-only (file mode without write permission); shares could not be saved.");
             using var conn = store.Connect();
-            QuickCheck(conn, full);
+            SnapshotSchema.QuickCheck(conn, full);
             using var tx = conn.BeginTransaction();
             using (var cmd = conn.CreateCommand())
             {
                 cmd.Transaction = tx;
-                cmd.CommandText = Schema;
-                cmd.ExecuteNonQuery();
-                cmd.CommandText = "SELECT value FROM store_meta WHERE key = 'schema_version'";
-                var found = cmd.ExecuteScalar() as string;
-                if (found is null) SetMeta(cmd, "schema_version", SchemaVersion.ToString(CultureInfo.InvariantCulture));
-                else if (found is "1" or "2") store.Migrate(cmd, found);
-                else if (found != SchemaVersion.ToString(CultureInfo.InvariantCulture))
-                    throw new SnapshotStoreException($"{full}: snapshot database schema {found} is not supported (this program uses {SchemaVersion}).");
+                SnapshotSchema.Apply(cmd, full);
                 // A real write, so a file or folder that cannot take one is refused now rather than on the first share.
-                SetMeta(cmd, "opened_utc", DateTimeOffset.UtcNow.ToString("O", CultureInfo.InvariantCulture));
+                SnapshotSchema.SetMeta(cmd, "opened_utc", DateTimeOffset.UtcNow.ToString("O", CultureInfo.InvariantCulture));
             }
             tx.Commit();
         }
@@ -100,64 +59,6 @@ public sealed class SnapshotStore
             throw new SnapshotStoreException($"{full}: the snapshot database cannot be used: {e.Message}", e);
         }
         return store;
-    }
-
-    private static void SetMeta(SqliteCommand cmd, string key, string value)
-    {
-        cmd.Parameters.Clear();
-        cmd.CommandText = "INSERT INTO store_meta (key, value) VALUES ($k, $v) ON CONFLICT(key) DO UPDATE SET value = excluded.value";
-        cmd.Parameters.AddWithValue("$k", key);
-        cmd.Parameters.AddWithValue("$v", value);
-        cmd.ExecuteNonQuery();
-        cmd.Parameters.Clear();
-    }
-
-    /// <summary>
-    /// Brings a schema-1 or schema-2 database to the current schema inside the opening transaction. Adding nullable
-    /// columns rewrites no row; the checksums of the snapshots already stored are computed from their content as read and
-    /// written with the update trigger lifted for that one statement per row and restored before the commit, so a reader
-    /// never sees a snapshot without its trigger or checksum.
-    /// </summary>
-    private void Migrate(SqliteCommand cmd, string from)
-    {
-        if (from == "1")
-        {
-            cmd.CommandText = "ALTER TABLE snapshots ADD COLUMN recorded_json TEXT";
-            cmd.ExecuteNonQuery();
-        }
-        cmd.CommandText = "ALTER TABLE snapshots ADD COLUMN content_sha256 TEXT";
-        cmd.ExecuteNonQuery();
-        var rows = new List<Snapshot>();
-        cmd.CommandText = $"SELECT {Columns} FROM snapshots";
-        using (var r = cmd.ExecuteReader())
-        {
-            while (r.Read()) rows.Add(Read(r));
-        }
-        cmd.CommandText = "DROP TRIGGER snapshots_immutable_update";
-        cmd.ExecuteNonQuery();
-        cmd.CommandText = "UPDATE snapshots SET content_sha256 = $h WHERE snapshot_id = $id";
-        foreach (var row in rows)
-        {
-            cmd.Parameters.Clear();
-            cmd.Parameters.AddWithValue("$h", SnapshotContent.Sha256(row));
-            cmd.Parameters.AddWithValue("$id", row.Id);
-            cmd.ExecuteNonQuery();
-        }
-        cmd.Parameters.Clear();
-        cmd.CommandText = UpdateTrigger;
-        cmd.ExecuteNonQuery();
-        SetMeta(cmd, "schema_version", SchemaVersion.ToString(CultureInfo.InvariantCulture));
-    }
-
-    private static void QuickCheck(SqliteConnection conn, string path)
-    {
-        using var cmd = conn.CreateCommand();
-        cmd.CommandText = "PRAGMA quick_check";
-        using var r = cmd.ExecuteReader();
-        var problems = new List<string>();
-        while (r.Read()) problems.Add(r.GetString(0));
-        if (problems is not ["ok"])
-            throw new SnapshotStoreException($"{path}: the snapshot database is damaged (quick_check: {string.Join("; ", problems.Take(3))}).");
     }
 
     /// <summary>SQLite's own words, e.g. "SQLite Error 26: 'file is not a database'."</summary>
@@ -206,9 +107,9 @@ public sealed class SnapshotStore
             using var tx = conn.BeginTransaction();
             using var cmd = conn.CreateCommand();
             cmd.Transaction = tx;
-            if (snap.ParentId is not null && !Exists(cmd, snap.ParentId))
+            if (snap.ParentId is not null && !SnapshotRows.Exists(cmd, snap.ParentId))
                 throw new SnapshotException($"parentId: no snapshot '{snap.ParentId}' exists.");
-            Insert(cmd, snap);
+            SnapshotRows.Insert(cmd, snap);
             tx.Commit();
             return snap;
         });
@@ -225,10 +126,10 @@ public sealed class SnapshotStore
         {
             using var conn = Connect();
             using var cmd = conn.CreateCommand();
-            cmd.CommandText = $"SELECT {Columns} FROM snapshots WHERE snapshot_id = $id";
+            cmd.CommandText = $"SELECT {SnapshotRows.Columns} FROM snapshots WHERE snapshot_id = $id";
             cmd.Parameters.AddWithValue("$id", id);
             using var r = cmd.ExecuteReader();
-            return r.Read() ? Verified(Read(r)) : null;
+            return r.Read() ? Verified(SnapshotRows.Read(r)) : null;
         });
     }
 
@@ -270,158 +171,16 @@ public sealed class SnapshotStore
         return new SnapshotVerification(DatabasePath, rows.Count, problems);
     });
 
-    /// <summary>
-    /// Adds snapshots from an export in one transaction: each must match its checksum; one already stored with the same
-    /// checksum is skipped, one stored under the same id with other content refuses the whole import (naming the id), as
-    /// does a parent found neither in the store nor in the import. Nothing is written unless everything is accepted.
-    /// </summary>
-    /// <returns>How many were added and how many were already stored.</returns>
-    public (int Added, int AlreadyStored) Import(IReadOnlyList<Snapshot> snapshots)
-    {
-        foreach (var s in snapshots)
-        {
-            if (!IsWellFormedId(s.Id)) throw new SnapshotException($"snapshot '{s.Id}': not a snapshot id.");
-            if (SnapshotContent.Sha256(s) != s.ContentSha256)
-                throw new SnapshotException($"snapshot {s.Id}: its content does not match its SHA-256 checksum; it was altered after export.");
-        }
-        return Guarded(() =>
-        {
-            using var conn = Connect();
-            using var tx = conn.BeginTransaction();
-            using var cmd = conn.CreateCommand();
-            cmd.Transaction = tx;
-            int added = 0, already = 0;
-            foreach (var s in ParentsFirst(snapshots))
-            {
-                cmd.Parameters.Clear();
-                cmd.CommandText = "SELECT content_sha256 FROM snapshots WHERE snapshot_id = $id";
-                cmd.Parameters.AddWithValue("$id", s.Id);
-                var stored = cmd.ExecuteScalar();
-                cmd.Parameters.Clear();
-                if (stored is not null)
-                {
-                    if (stored as string != s.ContentSha256)
-                        throw new SnapshotException($"snapshot {s.Id}: a different snapshot with this id is already stored in {DatabasePath}.");
-                    already++;
-                    continue;
-                }
-                if (s.ParentId is not null && !Exists(cmd, s.ParentId))
-                    throw new SnapshotException($"snapshot {s.Id}: its parent '{s.ParentId}' is neither stored nor in the import.");
-                Insert(cmd, s);
-                added++;
-            }
-            tx.Commit();
-            return (added, already);
-        });
-    }
-
-    /// <summary>
-    /// Copies the live store to <paramref name="destination"/> with SQLite's online backup API while the app keeps
-    /// serving; the copy is written beside the destination, checked with <c>PRAGMA quick_check</c> and then moved into
-    /// place, so a failed backup never leaves a half-written file under the destination's name.
-    /// </summary>
-    public void Backup(string destination)
-    {
-        var full = Path.GetFullPath(destination);
-        if (string.Equals(full, DatabasePath, StringComparison.Ordinal)) throw new SnapshotException($"{full}: the backup cannot replace the store itself.");
-        var partial = full + ".partial-" + Guid.NewGuid().ToString("N");
-        try
-        {
-            Guarded(() =>
-            {
-                using (var source = Connect())
-                using (var target = new SqliteConnection(new SqliteConnectionStringBuilder { DataSource = partial, Pooling = false }.ToString()))
-                {
-                    target.Open();
-                    source.BackupDatabase(target);
-                    QuickCheck(target, partial);
-                }
-                return 0;
-            });
-            File.Move(partial, full, overwrite: true);
-        }
-        finally
-        {
-            if (File.Exists(partial)) File.Delete(partial);
-        }
-    }
-
-    private static IEnumerable<Snapshot> ParentsFirst(IReadOnlyList<Snapshot> snapshots)
-    {
-        var byId = snapshots.GroupBy(s => s.Id).ToDictionary(g => g.Key, g => g.First());
-        var done = new HashSet<string>();
-        var order = new List<Snapshot>();
-        void Visit(Snapshot s, int depth)
-        {
-            if (depth > byId.Count || !done.Add(s.Id)) return;
-            if (s.ParentId is not null && byId.TryGetValue(s.ParentId, out var p)) Visit(p, depth + 1);
-            order.Add(s);
-        }
-        foreach (var s in snapshots.OrderBy(s => s.CreatedUtc)) Visit(s, 0);
-        return order;
-    }
-
-    private static bool Exists(SqliteCommand cmd, string id)
-    {
-        cmd.Parameters.Clear();
-        cmd.CommandText = "SELECT COUNT(*) FROM snapshots WHERE snapshot_id = $p";
-        cmd.Parameters.AddWithValue("$p", id);
-        var found = Convert.ToInt64(cmd.ExecuteScalar(), CultureInfo.InvariantCulture) > 0;
-        cmd.Parameters.Clear();
-        return found;
-    }
-
-    private static void Insert(SqliteCommand cmd, Snapshot snap)
-    {
-        cmd.Parameters.Clear();
-        cmd.CommandText = $"INSERT INTO snapshots ({Columns}) "
-            + "VALUES ($id, $parent, $created, $model, $versions, $protocol, $readouts, $notes, $expr, $exprName, $recorded, $sha)";
-        cmd.Parameters.AddWithValue("$id", snap.Id);
-        cmd.Parameters.AddWithValue("$parent", (object?)snap.ParentId ?? DBNull.Value);
-        cmd.Parameters.AddWithValue("$created", snap.CreatedUtc.ToString("O", CultureInfo.InvariantCulture));
-        cmd.Parameters.AddWithValue("$model", snap.ModelJson);
-        cmd.Parameters.AddWithValue("$versions", string.Join('\n', snap.CatalogVersions));
-        cmd.Parameters.AddWithValue("$protocol", snap.ProtocolJson);
-        cmd.Parameters.AddWithValue("$readouts", snap.ReadoutsJson);
-        cmd.Parameters.AddWithValue("$notes", snap.Notes);
-        cmd.Parameters.AddWithValue("$expr", (object?)snap.Expression ?? DBNull.Value);
-        cmd.Parameters.AddWithValue("$exprName", (object?)snap.ExpressionName ?? DBNull.Value);
-        cmd.Parameters.AddWithValue("$recorded", (object?)snap.RecordedJson ?? DBNull.Value);
-        cmd.Parameters.AddWithValue("$sha", snap.ContentSha256);
-        cmd.ExecuteNonQuery();
-        cmd.Parameters.Clear();
-    }
-
     private List<Snapshot> ReadAll() => Guarded(() =>
     {
         using var conn = Connect();
         using var cmd = conn.CreateCommand();
-        cmd.CommandText = $"SELECT {Columns} FROM snapshots ORDER BY created_utc, snapshot_id";
+        cmd.CommandText = $"SELECT {SnapshotRows.Columns} FROM snapshots ORDER BY created_utc, snapshot_id";
         using var r = cmd.ExecuteReader();
         var list = new List<Snapshot>();
-        while (r.Read()) list.Add(Read(r));
+        while (r.Read()) list.Add(SnapshotRows.Read(r));
         return list;
     });
-
-    private static Snapshot Read(SqliteDataReader r)
-    {
-        var versions = r.GetString(4);
-        return new Snapshot
-        {
-            Id = r.GetString(0),
-            ParentId = r.IsDBNull(1) ? null : r.GetString(1),
-            CreatedUtc = DateTimeOffset.Parse(r.GetString(2), CultureInfo.InvariantCulture, DateTimeStyles.RoundtripKind),
-            ModelJson = r.GetString(3),
-            CatalogVersions = versions.Length == 0 ? [] : versions.Split('\n'),
-            ProtocolJson = r.GetString(5),
-            ReadoutsJson = r.GetString(6),
-            Notes = r.GetString(7),
-            Expression = r.IsDBNull(8) ? null : (byte[])r[8],
-            ExpressionName = r.IsDBNull(9) ? null : r.GetString(9),
-            RecordedJson = r.IsDBNull(10) ? null : r.GetString(10),
-            ContentSha256 = r.FieldCount > 11 && !r.IsDBNull(11) ? r.GetString(11) : "",
-        };
-    }
 
     private string? Mismatch(Snapshot s)
     {
@@ -435,7 +194,7 @@ public sealed class SnapshotStore
     private Snapshot Verified(Snapshot s) => Mismatch(s) is { } why ? throw new SnapshotStoreException(why) : s;
 
     /// <summary>Runs a database operation, naming this store's file in any SQLite or file-system error.</summary>
-    private T Guarded<T>(Func<T> operation)
+    internal T Guarded<T>(Func<T> operation)
     {
         try
         {
@@ -451,7 +210,7 @@ public sealed class SnapshotStore
         }
     }
 
-    private SqliteConnection Connect()
+    internal SqliteConnection Connect()
     {
         var conn = new SqliteConnection(new SqliteConnectionStringBuilder
         {

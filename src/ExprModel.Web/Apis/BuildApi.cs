@@ -15,7 +15,8 @@ namespace ExprModel.Web.Apis;
 /// <summary>
 /// Expression table to model: the library's readers, mapping and density rule (through <see cref="ExpressionSession"/>),
 /// as the command line's build command uses them. The table comes as text in a JSON body or as a file part of a
-/// multipart form (any format the library reads: CSV or TSV, gzip or not, or AnnData .h5ad).
+/// multipart form (any format the library reads: CSV or TSV, gzip or not, or AnnData .h5ad; a Matrix Market matrix with its sidecars
+/// as several expression parts or in one .zip or .tar.gz archive).
 /// </summary>
 public static class BuildApi
 {
@@ -23,7 +24,7 @@ public static class BuildApi
     private static readonly string[] FormFields = [.. ExpressionRequest.CommonFormFields, "group", "cell"];
 
     /// <summary>What a build needs, however it arrived: the options, the table's bytes and name, the metadata's.</summary>
-    private sealed record BuildUpload(BuildRequest Options, byte[] Expression, string ExpressionName, byte[]? Metadata, string MetadataName);
+    private sealed record BuildUpload(BuildRequest Options, IReadOnlyList<UploadedFile> Expression, byte[]? Metadata, string MetadataName);
 
     public static IEndpointRouteBuilder MapBuildApi(this IEndpointRouteBuilder app)
     {
@@ -39,14 +40,15 @@ public static class BuildApi
                 var o = options.Value;
                 long limit = o.MaxUploadBytes;
                 var upload = MultipartForm.IsMultipart(request)
-                    ? FromForm(await MultipartForm.ReadAsync(request, limit, "The upload (expression and metadata files)", cancel))
+                    ? FromForm(await MultipartForm.ReadAsync(request, limit, "The upload (expression and metadata files)", cancel, "expression"))
                     : FromJson(await BoundedUpload.ReadAsync(request.Body, request.ContentLength, limit, "The request (expression table)", cancel),
                         o.MaxTextFieldChars);
                 return TypedResults.Ok(await Task.Run(() => Build(catalog, upload, o.UploadLimits, cancel), cancel));
             })
             .WithName("BuildModel")
             .WithSummary("Builds a model from an expression table: a JSON body (expression as text) or a multipart form "
-                + "(expression and optional metadata as file parts; groupBy, group or cell, orientation, unit, matrix (h5ad: X, layer:NAME or raw), "
+                + "(expression and optional metadata as file parts; expression repeated for a Matrix Market matrix with its genes and barcodes "
+                + "files, or one .zip or .tar.gz archive of them; groupBy, group or cell, orientation, unit, matrix (h5ad: X, layer:NAME or raw), "
                 + "referenceGroup, exponent, clamp, capacitancePf, temperatureC and overrides (a JSON array) as fields). "
                 + "At most ExprModel:MaxConcurrentBuilds run at once and MaxQueuedBuilds wait; past that the answer is 503 with Retry-After.")
             // One Accepts call with both types: routing and the OpenAPI generator read only the last Accepts metadata, so a
@@ -72,7 +74,7 @@ public static class BuildApi
         if ((body.Group is null) == (body.Cell is null)) throw new UserInputException("give exactly one of group (with metadata and groupBy) or cell.");
         if (body.Group is not null && (upload.Metadata is null || body.GroupBy is null))
             throw new UserInputException("group: needs metadata and groupBy (its column).");
-        var session = ExpressionSession.Read(catalog, upload.Expression, upload.ExpressionName, upload.Metadata, upload.MetadataName,
+        var session = ExpressionSession.Read(catalog, upload.Expression, upload.Metadata, upload.MetadataName,
             body.ReadChoices(), limits, cancel);
         var report = session.Map(body.Overrides ?? []);
         var built = session.Build(report, body.DensityRule(), body.Group is not null ? ModelTarget.ForGroup(body.Group) : ModelTarget.ForCell(body.Cell!));
@@ -92,7 +94,8 @@ public static class BuildApi
         if (body is null) throw new UserInputException("request body: a JSON object with the field expression (the table as text) is required.");
         RequestFieldLimits.CheckRequest(body, maxTextFieldChars);
         if (body.Expression is not { } table) throw new UserInputException("expression: required (the table as CSV or TSV text).");
-        return new BuildUpload(body, Encoding.UTF8.GetBytes(table), body.ExpressionName, body.Metadata is null ? null : Encoding.UTF8.GetBytes(body.Metadata),
+        return new BuildUpload(body, [new UploadedFile(body.ExpressionName, Encoding.UTF8.GetBytes(table))],
+            body.Metadata is null ? null : Encoding.UTF8.GetBytes(body.Metadata),
             body.MetadataName);
     }
 
@@ -102,13 +105,25 @@ public static class BuildApi
         foreach (var name in form.Names)
             if (!FormFields.Contains(name, StringComparer.OrdinalIgnoreCase))
                 throw new UserInputException($"{name}: not a field of this endpoint (fields: {string.Join(", ", FormFields)}).");
-        if (form.Part("expression") is not { } expression)
-            throw new UserInputException("expression: required, as a file part (CSV or TSV, optionally gzip, or AnnData .h5ad).");
-        var metadata = form.Part("metadata");
         var defaults = new BuildRequest();
+        var expression = ExpressionFiles(form, defaults.ExpressionName);
+        var metadata = form.Part("metadata");
         var options = ExpressionRequest.WithCommonFields(defaults with { Group = Text(form, "group"), Cell = Text(form, "cell") }, form);
-        return new BuildUpload(options, expression.Bytes, expression.FileName ?? defaults.ExpressionName, metadata?.Bytes,
+        return new BuildUpload(options, expression, metadata?.Bytes,
             metadata?.FileName ?? defaults.MetadataName);
+    }
+
+    /// <summary>
+    /// The expression file parts: one table, or a Matrix Market matrix with its genes and barcodes files as several parts
+    /// named expression, or one .zip / .tar.gz archive holding them (sorted by content and name in <see cref="ExpressionParts"/>).
+    /// </summary>
+    internal static IReadOnlyList<UploadedFile> ExpressionFiles(MultipartForm form, string defaultName)
+    {
+        var parts = form.Parts("expression");
+        if (parts.Count == 0)
+            throw new UserInputException("expression: required, as a file part (CSV or TSV, optionally gzip, or AnnData .h5ad), or as several parts "
+                + "(a Matrix Market matrix with its genes and barcodes files), or one .zip or .tar.gz archive of them.");
+        return parts.Select((p, i) => new UploadedFile(p.FileName ?? (parts.Count == 1 ? defaultName : $"expression-part-{i + 1}"), p.Bytes)).ToList();
     }
 
     /// <summary>A text field; an empty field counts as absent, as a browser form sends it.</summary>

@@ -3,7 +3,10 @@ namespace ExprModel.Web.Apis;
 /// <summary>The multipart form of a build request, as the OpenAPI document describes it (the endpoint reads the parts itself).</summary>
 public sealed record BuildForm
 {
-    /// <summary>The expression table file: CSV or TSV (optionally gzip) or AnnData .h5ad.</summary>
+    /// <summary>
+    /// The expression table file: CSV or TSV (optionally gzip) or AnnData .h5ad; or, as this field repeated, a Matrix Market
+    /// matrix with its genes (features) and barcodes files; or one .zip or .tar.gz archive holding them.
+    /// </summary>
     public required IFormFile Expression { get; init; }
     /// <summary>Cell metadata file (cell id column plus label columns), needed with group.</summary>
     public IFormFile? Metadata { get; init; }

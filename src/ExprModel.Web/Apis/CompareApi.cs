@@ -22,7 +22,8 @@ public static class CompareApi
 {
     private static readonly string[] FormFields = [.. ExpressionRequest.CommonFormFields, "recorded", "recordedCellColumn", "map", "per", "shrink"];
 
-    private sealed record CompareUpload(CompareRequest Options, byte[] Expression, string ExpressionName, byte[]? Metadata, string MetadataName,
+    private sealed record CompareUpload(CompareRequest Options, IReadOnlyList<UploadedFile> Expression, string ExpressionName, byte[]? Metadata,
+        string MetadataName,
         byte[]? Recorded, string RecordedName)
     {
         /// <summary>Recorded sweeps (multipart only): file name and bytes of each part named recording, recording2, ...</summary>
@@ -44,7 +45,7 @@ public static class CompareApi
                 var o = options.Value;
                 long limit = o.MaxUploadBytes;
                 var upload = MultipartForm.IsMultipart(request)
-                    ? FromForm(await MultipartForm.ReadAsync(request, limit, "The upload (expression, metadata and recorded files)", cancel))
+                    ? FromForm(await MultipartForm.ReadAsync(request, limit, "The upload (expression, metadata and recorded files)", cancel, "expression"))
                     : FromJson(await BoundedUpload.ReadAsync(request.Body, request.ContentLength, limit, "The request (expression and recorded tables)",
                         cancel), o.MaxTextFieldChars);
                 return TypedResults.Ok(await Compare(catalog, gate, upload, o.UploadLimits, cancel));
@@ -90,7 +91,7 @@ public static class CompareApi
             throw new UserInputException("recorded: required (per-cell recorded values with units in the headers), unless the metadata holds them or "
                 + "recordings are sent.");
 
-        var session = ExpressionSession.Read(catalog, upload.Expression, upload.ExpressionName, upload.Metadata, upload.MetadataName,
+        var session = ExpressionSession.Read(catalog, upload.Expression, upload.Metadata, upload.MetadataName,
             body.ReadChoices(), limits, cancel);
         var report = session.Map(body.Overrides ?? []);
         var rule = body.DensityRule();
@@ -127,7 +128,8 @@ public static class CompareApi
         RequestFieldLimits.CheckRequest(body, maxTextFieldChars);
         if (body.Expression is not { } table) throw new UserInputException("expression: required (the table as CSV or TSV text).");
         static byte[]? Bytes(string? text) => text is null ? null : Encoding.UTF8.GetBytes(text);
-        return new CompareUpload(body, Encoding.UTF8.GetBytes(table), body.ExpressionName, Bytes(body.Metadata), body.MetadataName, Bytes(body.Recorded),
+        return new CompareUpload(body, [new UploadedFile(body.ExpressionName, Encoding.UTF8.GetBytes(table))], body.ExpressionName, Bytes(body.Metadata),
+            body.MetadataName, Bytes(body.Recorded),
             body.RecordedName);
     }
 
@@ -137,8 +139,7 @@ public static class CompareApi
             if (!FormFields.Contains(name, StringComparer.OrdinalIgnoreCase) && !IsRecordingPart(name))
                 throw new UserInputException($"{name}: not a field of this endpoint (fields: {string.Join(", ", FormFields)}, and recording, recording2, "
                     + "... for recorded sweeps).");
-        if (form.Part("expression") is not { } expression)
-            throw new UserInputException("expression: required, as a file part (CSV or TSV, optionally gzip, or AnnData .h5ad).");
+        var expression = BuildApi.ExpressionFiles(form, new CompareRequest().ExpressionName);
         var (metadata, recorded) = (form.Part("metadata"), form.Part("recorded"));
         var d = new CompareRequest();
         var options = ExpressionRequest.WithCommonFields(d with
@@ -152,7 +153,7 @@ public static class CompareApi
             .Select(p => (p.FileName
                 ?? throw new UserInputException($"{p.Name}: send recorded sweeps as a file part with its file name (.nwb, .csv, .tsv or .txt)."),
                 p.Bytes)).ToArray();
-        return new CompareUpload(options, expression.Bytes, expression.FileName ?? d.ExpressionName, metadata?.Bytes, metadata?.FileName ?? d.MetadataName,
+        return new CompareUpload(options, expression, string.Join(", ", expression.Select(e => e.Name)), metadata?.Bytes, metadata?.FileName ?? d.MetadataName,
             recorded?.Bytes, recorded?.FileName ?? d.RecordedName)
         { Recordings = recordings };
     }

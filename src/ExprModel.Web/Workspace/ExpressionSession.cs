@@ -21,24 +21,31 @@ public sealed class ExpressionSession
     /// <param name="limits">What the table may inflate to and how many lines it may have; a passed limit is <see cref="UploadTooLargeException"/>.</param>
     /// <param name="cancel">Stops the reading (the request was aborted, the page closed).</param>
     public static ExpressionSession Read(ChannelCatalog catalog, byte[] table, string tableName, byte[]? metadata, string? metadataName, ReadChoices choices,
-        UploadLimits? limits = null, CancellationToken cancel = default)
+        UploadLimits? limits = null, CancellationToken cancel = default) =>
+        Read(catalog, [new UploadedFile(tableName, table)], metadata, metadataName, choices, limits, cancel);
+
+    /// <summary>
+    /// Reads an upload of one or more files: one table, a Matrix Market matrix with its sidecars (as separate files or in
+    /// one .zip or .tar.gz archive), or an archive holding one table (<see cref="ExpressionParts"/>).
+    /// </summary>
+    public static ExpressionSession Read(ChannelCatalog catalog, IReadOnlyList<UploadedFile> table, byte[]? metadata, string? metadataName,
+        ReadChoices choices, UploadLimits? limits = null, CancellationToken cancel = default)
     {
         limits ??= UploadLimits.None;
-        if (table.Length == 0) throw new UserInputException($"{Path.GetFileName(tableName)}: the file is empty (0 bytes).");
         if (metadata is { Length: 0 }) throw new UserInputException($"{Path.GetFileName(metadataName)}: the file is empty (0 bytes).");
         var options = choices.ToOptions() with { MaxDecompressedBytes = limits.MaxDecompressedBytes, MaxLines = limits.MaxLines, Cancel = cancel };
         var dir = Path.Combine(Path.GetTempPath(), "exprmodel-upload-" + Guid.NewGuid().ToString("N"));
         try
         {
-            var tablePath = Save(dir, "table", tableName, "table.csv", table);
+            var parts = ExpressionParts.Receive(table, Path.Combine(dir, "table"), limits, cancel);
             var metadataPath = metadata is not null && !string.IsNullOrEmpty(choices.GroupColumn)
                 ? Save(dir, "metadata", metadataName, "metadata.csv", metadata) : null;
             ExpressionDataset dataset;
             string? groupColumn = metadataPath is null ? null : choices.GroupColumn;
-            try { dataset = ExpressionDataset.Read(catalog.ForMapping(), tablePath, options, metadataPath, groupColumn, Path.GetFileName(tablePath)); }
-            catch (ExpressionLimitException e) { throw new UploadTooLargeException(limits.Explain(e)); }
-            catch (ExpressionFormatException e) { throw new UserInputException(e.Message); }
-            catch (ArgumentException e) { throw new UserInputException($"{tableName}: {e.Message}"); }
+            try { dataset = ExpressionDataset.Read(catalog.ForMapping(), parts.TablePath, options, metadataPath, groupColumn, parts.TableName); }
+            catch (ExpressionLimitException e) { throw new UploadTooLargeException(parts.Translate(limits.Explain(e))); }
+            catch (ExpressionFormatException e) { throw new UserInputException(parts.Translate(e.Message)); }
+            catch (ArgumentException e) { throw new UserInputException($"{parts.TableName}: {e.Message}"); }
             if (dataset.Groups is { Members.Count: 0 } && metadataPath is not null)
                 throw new UserInputException($"{Path.GetFileName(metadataPath)}: no cell id of the table has a '{choices.GroupColumn}' label; check that "
                     + "the first column holds the table's cell ids.");
@@ -71,7 +78,8 @@ public sealed class ExpressionSession
         return path;
     }
 
-    private static string SafeName(string? name, string fallback)
+    /// <summary>A file name safe to create in a private folder: letters, digits, '.', '-' and '_' kept, the rest '_'.</summary>
+    internal static string SafeName(string? name, string fallback)
     {
         var file = Path.GetFileName(name ?? "");
         var clean = new string(file.Select(c => char.IsLetterOrDigit(c) || c is '.' or '-' or '_' ? c : '_').ToArray());

@@ -16,9 +16,38 @@ public sealed class WorkspaceState
     /// </summary>
     public ExprModel.Core.Mapping.ModelTarget? ModelTarget { get; private set; }
 
-    /// <summary>The uploaded expression table as received (kept only in this tab unless the user stores it with a snapshot).</summary>
-    public byte[]? ExpressionBytes { get; set; }
-    public string? ExpressionName { get; set; }
+    /// <summary>
+    /// The uploaded expression files as received (kept only in this tab unless the user stores them with a snapshot): one
+    /// table, one archive, or a Matrix Market matrix with its sidecar files.
+    /// </summary>
+    public IReadOnlyList<UploadedFile> ExpressionFiles { get; private set; } = [];
+
+    /// <summary>The upload as one file, as a snapshot stores it: the file itself, or several files packed into one zip.</summary>
+    public byte[]? ExpressionBytes => ExpressionFiles.Count switch
+    {
+        0 => null,
+        1 => ExpressionFiles[0].Bytes,
+        _ => _packed ??= UploadArchive.Pack(ExpressionFiles),
+    };
+
+    /// <summary>The name of <see cref="ExpressionBytes"/>.</summary>
+    public string? ExpressionName => ExpressionFiles.Count switch { 0 => null, 1 => ExpressionFiles[0].Name, _ => PackedName };
+
+    /// <summary>How pages name the upload: the file, or the files.</summary>
+    public string? ExpressionLabel => ExpressionFiles.Count == 0 ? null : string.Join(" + ", ExpressionFiles.Select(f => f.Name));
+
+    /// <summary>The stored name of several files packed together.</summary>
+    public const string PackedName = "expression-files.zip";
+
+    private byte[]? _packed;
+
+    /// <summary>A new upload (one file or several); forgets what was derived from the previous one.</summary>
+    public void SetExpression(IReadOnlyList<UploadedFile> files)
+    {
+        ExpressionFiles = files;
+        _packed = null;
+        ResetDerived();
+    }
     public byte[]? MetadataBytes { get; set; }
     public string? MetadataName { get; set; }
 

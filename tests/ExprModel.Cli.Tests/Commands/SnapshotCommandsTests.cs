@@ -1,5 +1,6 @@
 using System.Text.Json.Nodes;
 using ExprModel.Data.Store;
+using ExprModel.Data.Tests.Store;
 
 namespace ExprModel.Cli.Tests.Commands;
 
@@ -53,13 +54,7 @@ public sealed class SnapshotCommandsTests : IDisposable
         var b = CliRunner.Run("snapshots", "backup", In("backup.db"), "--store", live.DatabasePath);
         Assert.True(b.Exit == 0, b.Err);
         Assert.Equal(2, SnapshotStore.Open(In("backup.db")).All().Count);
-        using (var conn = new Microsoft.Data.Sqlite.SqliteConnection($"Data Source={In("backup.db")};Pooling=False"))
-        {
-            conn.Open();
-            using var cmd = conn.CreateCommand();
-            cmd.CommandText = "DROP TRIGGER snapshots_immutable_update; UPDATE snapshots SET notes = 'forged' WHERE notes = 'first';";
-            cmd.ExecuteNonQuery();
-        }
+        StoreFiles.ForgeNotes(In("backup.db"), "notes = 'first'");
         var v = CliRunner.Run("snapshots", "verify", "--store", In("backup.db"));
         Assert.Equal(1, v.Exit);
         Assert.Contains("1 problems", v.Out);

@@ -59,6 +59,27 @@ public class CsvTableTests
     }
 
     [Fact]
+    public void A_plain_number_is_data_and_a_comma_inside_a_quoted_cell_starts_no_formula()
+    {
+        // OWASP's CSV-injection guidance neutralises cells starting with = + - @ tab CR; a plain number such as -90 is read
+        // by every spreadsheet as the number it is, so it stays as written, like the numeric cells.
+        Assert.Equal("-90", CsvTable.Cell("-90"));
+        Assert.Equal("-1.5e3", CsvTable.Cell("-1.5e3"));
+        // A cell starting with '-' that is not a number is read as a formula: it keeps its quote.
+        Assert.Equal("'-90 pA", CsvTable.Cell("-90 pA"));
+        Assert.Equal("'-1.5e3x", CsvTable.Cell("-1.5e3x"));
+        // Inside a quoted cell a comma is not a separator for any spreadsheet, so a note is written as it is ...
+        Assert.Equal("\"The most hyperpolarising step (sweep 1, -90 pA) reaches -11.1 mV\"",
+            CsvTable.Cell("The most hyperpolarising step (sweep 1, -90 pA) reaches -11.1 mV"));
+        // ... while a semicolon or tab inside it still starts a cell for a semicolon- or tab-locale spreadsheet.
+        Assert.Equal("\"sweep 1; '-90 pA\"", CsvTable.Cell("sweep 1; -90 pA"));
+        var csv = new CsvTable([], ["note", "value"]).Row("-90", -90.0).Row("(sweep 1, -90 pA)", 1).Row("sweep 1; -90 pA", 2).ToString();
+        FormulaProbes.AssertInert(csv, "notes with negative currents");
+        // A comment line is not quoted: a comma-splitting spreadsheet starts a cell after its commas.
+        Assert.Equal("# sweep 1, '-90 pA", CsvTable.Comment("sweep 1, -90 pA"));
+    }
+
+    [Fact]
     public void Rewriting_a_line_this_writer_produced_changes_nothing_and_neutralises_a_hand_edited_one()
     {
         var line = new CsvTable([], ["a", "b", "c", "d"]).Row(3, "x,=1", -0.5, "'=2").ToString().Split('\n')[1];

@@ -100,13 +100,8 @@ public sealed class SnapshotStoreTests : IDisposable
     {
         var store = SnapshotStore.Open(DbPath);
         var saved = store.Save(Sample());
-        using var conn = new SqliteConnection($"Data Source={DbPath};Pooling=False");
-        conn.Open();
-        using var cmd = conn.CreateCommand();
-        cmd.CommandText = "UPDATE snapshots SET notes = 'changed'";
-        Assert.Throws<SqliteException>(() => cmd.ExecuteNonQuery());
-        cmd.CommandText = "DELETE FROM snapshots";
-        Assert.Throws<SqliteException>(() => cmd.ExecuteNonQuery());
+        Assert.Throws<SqliteException>(() => StoreFiles.Execute(DbPath, "UPDATE snapshots SET notes = 'changed'"));
+        Assert.Throws<SqliteException>(() => StoreFiles.Execute(DbPath, "DELETE FROM snapshots"));
         Assert.Equal("first try", store.Find(saved.Id)!.Notes);
     }
 
@@ -135,12 +130,7 @@ public sealed class SnapshotStoreTests : IDisposable
     public void A_schema_1_database_opens_with_its_snapshots_unchanged_and_stays_immutable()
     {
         // The schema-1 table as it was shipped, with one row written the way that version wrote it.
-        Directory.CreateDirectory(Path.GetDirectoryName(DbPath)!);
-        using (var conn = new SqliteConnection($"Data Source={DbPath};Pooling=False"))
-        {
-            conn.Open();
-            using var cmd = conn.CreateCommand();
-            cmd.CommandText = """
+        StoreFiles.Execute(DbPath, """
                 CREATE TABLE store_meta (key TEXT PRIMARY KEY, value TEXT NOT NULL);
                 INSERT INTO store_meta VALUES ('schema_version', '1');
                 CREATE TABLE snapshots (snapshot_id TEXT PRIMARY KEY, parent_id TEXT REFERENCES snapshots(snapshot_id), created_utc TEXT NOT NULL,
@@ -150,20 +140,14 @@ public sealed class SnapshotStoreTests : IDisposable
                 CREATE TRIGGER snapshots_immutable_delete BEFORE DELETE ON snapshots BEGIN SELECT RAISE(ABORT, 'snapshots are immutable'); END;
                 INSERT INTO snapshots VALUES ('AAAAAAAAAAAAAAAAAAAAAA', NULL, '2026-01-02T03:04:05.0000000+00:00', '{}', 'leak@1', '{}',
                     '[]', 'old one', NULL, NULL);
-                """;
-            cmd.ExecuteNonQuery();
-        }
+                """);
         var store = SnapshotStore.Open(DbPath);
         var old = store.Find("AAAAAAAAAAAAAAAAAAAAAA")!;
         Assert.Equal(("old one", "[]", (string?)null), (old.Notes, old.ReadoutsJson, old.RecordedJson));
         var child = store.Save(Sample(parent: old.Id) with { RecordedJson = "{}" });
         Assert.Equal("{}", store.Find(child.Id)!.RecordedJson);
         SnapshotStore.Open(DbPath); // migrated once; opening again finds the current schema
-        using var check = new SqliteConnection($"Data Source={DbPath};Pooling=False");
-        check.Open();
-        using var update = check.CreateCommand();
-        update.CommandText = "UPDATE snapshots SET recorded_json = 'x'";
-        Assert.Throws<SqliteException>(() => update.ExecuteNonQuery());
+        Assert.Throws<SqliteException>(() => StoreFiles.Execute(DbPath, "UPDATE snapshots SET recorded_json = 'x'"));
     }
 
     [Theory]
@@ -177,12 +161,7 @@ public sealed class SnapshotStoreTests : IDisposable
     {
         var store = SnapshotStore.Open(DbPath);
         var saved = store.Save(Sample());
-        using var conn = new SqliteConnection($"Data Source={DbPath};Pooling=False");
-        conn.Open();
-        using var cmd = conn.CreateCommand();
-        cmd.CommandText = sql;
-        cmd.Parameters.AddWithValue("$id", saved.Id);
-        var e = Assert.Throws<SqliteException>(() => cmd.ExecuteNonQuery());
+        var e = Assert.Throws<SqliteException>(() => StoreFiles.Execute(DbPath, sql, ("$id", saved.Id)));
         Assert.Contains("immutable", e.Message);
         var found = store.Find(saved.Id)!;
         Assert.Equal(("first try", saved.ModelJson), (found.Notes, found.ModelJson));
@@ -197,15 +176,7 @@ public sealed class SnapshotStoreTests : IDisposable
         var other = store.Save(Sample("untouched"));
         Assert.Matches("^[0-9a-f]{64}$", saved.ContentSha256);
         Assert.Equal(saved.ContentSha256, store.Find(saved.Id)!.ContentSha256);
-        // Tampering as a hostile writer would: lift the trigger, change the notes, put the trigger back.
-        using (var conn = new SqliteConnection($"Data Source={DbPath};Pooling=False"))
-        {
-            conn.Open();
-            using var cmd = conn.CreateCommand();
-            cmd.CommandText = "DROP TRIGGER snapshots_immutable_update; UPDATE snapshots SET notes = 'forged' WHERE snapshot_id = $id;";
-            cmd.Parameters.AddWithValue("$id", saved.Id);
-            cmd.ExecuteNonQuery();
-        }
+        StoreFiles.ForgeNotes(DbPath, "snapshot_id = $id", ("$id", saved.Id));
         var e = Assert.Throws<SnapshotStoreException>(() => store.Find(saved.Id));
         Assert.Contains(saved.Id, e.Message);
         Assert.Contains(store.DatabasePath, e.Message);
@@ -250,12 +221,7 @@ public sealed class SnapshotStoreTests : IDisposable
     [Fact]
     public void A_schema_2_database_is_migrated_keeping_every_snapshot_with_a_checksum_and_refusing_replace()
     {
-        Directory.CreateDirectory(Path.GetDirectoryName(DbPath)!);
-        using (var conn = new SqliteConnection($"Data Source={DbPath};Pooling=False"))
-        {
-            conn.Open();
-            using var cmd = conn.CreateCommand();
-            cmd.CommandText = """
+        StoreFiles.Execute(DbPath, """
                 CREATE TABLE store_meta (key TEXT PRIMARY KEY, value TEXT NOT NULL);
                 INSERT INTO store_meta VALUES ('schema_version', '2');
                 CREATE TABLE snapshots (snapshot_id TEXT PRIMARY KEY, parent_id TEXT REFERENCES snapshots(snapshot_id), created_utc TEXT NOT NULL,
@@ -268,9 +234,7 @@ public sealed class SnapshotStoreTests : IDisposable
                     '[]', 'old one', X'0102', 'counts.csv', '{"target":"cell 1"}');
                 INSERT INTO snapshots VALUES ('BBBBBBBBBBBBBBBBBBBBBB', 'AAAAAAAAAAAAAAAAAAAAAA', '2026-01-03T03:04:05.0000000+00:00', '{"a":2}', '', '{}',
                     '[]', 'its child', NULL, NULL, NULL);
-                """;
-            cmd.ExecuteNonQuery();
-        }
+                """);
         var store = SnapshotStore.Open(DbPath);
         var all = store.All();
         Assert.Equal(["AAAAAAAAAAAAAAAAAAAAAA", "BBBBBBBBBBBBBBBBBBBBBB"], all.Select(s => s.Id));
@@ -278,16 +242,11 @@ public sealed class SnapshotStoreTests : IDisposable
         Assert.Equal(new byte[] { 1, 2 }, all[0].Expression);
         Assert.All(all, s => Assert.Equal(SnapshotContent.Sha256(s), s.ContentSha256));
         Assert.True(store.Verify().Sound);
-        using var check = new SqliteConnection($"Data Source={DbPath};Pooling=False");
-        check.Open();
-        using var c = check.CreateCommand();
-        c.CommandText = "SELECT value FROM store_meta WHERE key = 'schema_version'";
-        Assert.Equal("3", c.ExecuteScalar());
-        c.CommandText = "UPDATE snapshots SET notes = 'x'";
-        Assert.Throws<SqliteException>(() => c.ExecuteNonQuery());
-        c.CommandText = "REPLACE INTO snapshots (snapshot_id, created_utc, model_json, catalog_versions, protocol_json, readouts_json, notes) " +
-            "VALUES ('AAAAAAAAAAAAAAAAAAAAAA', 'x', '{}', '', '{}', '[]', 'forged')";
-        Assert.Throws<SqliteException>(() => c.ExecuteNonQuery());
+        Assert.Equal("3", StoreFiles.Scalar(DbPath, "SELECT value FROM store_meta WHERE key = 'schema_version'"));
+        Assert.Throws<SqliteException>(() => StoreFiles.Execute(DbPath, "UPDATE snapshots SET notes = 'x'"));
+        Assert.Throws<SqliteException>(() => StoreFiles.Execute(DbPath,
+            "REPLACE INTO snapshots (snapshot_id, created_utc, model_json, catalog_versions, protocol_json, readouts_json, notes) " +
+            "VALUES ('AAAAAAAAAAAAAAAAAAAAAA', 'x', '{}', '', '{}', '[]', 'forged')"));
         Assert.Equal("old one", store.Find("AAAAAAAAAAAAAAAAAAAAAA")!.Notes);
     }
 
@@ -346,14 +305,7 @@ public sealed class SnapshotStoreTests : IDisposable
         Directory.Delete(DbPath + "-journal");
     }
 
-    private long CountRows()
-    {
-        using var conn = new SqliteConnection($"Data Source={DbPath};Pooling=False");
-        conn.Open();
-        using var cmd = conn.CreateCommand();
-        cmd.CommandText = "SELECT COUNT(*) FROM snapshots";
-        return (long)cmd.ExecuteScalar()!;
-    }
+    private long CountRows() => (long)StoreFiles.Scalar(DbPath, "SELECT COUNT(*) FROM snapshots")!;
 
     public void Dispose()
     {

@@ -200,6 +200,67 @@ public sealed class BuildApiTests(AppFactory factory) : ApiTestBase(factory)
     }
 
     /// <summary>A readable stream that will not say its length, so the client sends the body chunked.</summary>
+    /// <summary>The demo triple (catalog/demo/mtx, the seeded counts as Matrix Market) as expression parts, plus the demo metadata.</summary>
+    private static MultipartFormDataContent MatrixMarketForm(IEnumerable<(string FileName, byte[] Bytes)> expression,
+        params (string Name, string Value)[] fields)
+    {
+        var form = new MultipartFormDataContent();
+        foreach (var (name, bytes) in expression) form.Add(FilePart(bytes), "expression", name);
+        form.Add(FilePart(File.ReadAllBytes(DemoPath("metadata.csv"))), "metadata", "metadata.csv");
+        foreach (var (name, value) in fields) form.Add(new StringContent(value), name);
+        return form;
+    }
+
+    private static (string, byte[])[] DemoTriple =>
+        [.. new[] { "matrix.mtx", "genes.tsv", "barcodes.tsv" }.Select(f => (f, File.ReadAllBytes(DemoPath("mtx/" + f))))];
+
+    private static readonly (string, string)[] T1Fast = [("groupBy", "group"), ("group", "T1-fast")];
+
+    [Fact]
+    public async Task A_matrix_market_upload_as_parts_in_a_zip_or_in_a_gnu_tar_gz_builds_the_model_the_csv_builds()
+    {
+        var fromCsv = await Json(await Client.PostAsync("/api/build", DemoForm(T1Fast)));
+        var expected = fromCsv.GetProperty("densities").GetRawText();
+
+        var parts = await Client.PostAsync("/api/build", MatrixMarketForm(DemoTriple.Reverse(), T1Fast));
+        Assert.Equal(200, (int)parts.StatusCode);
+        Assert.Equal(expected, (await Json(parts)).GetProperty("densities").GetRawText());
+
+        var zip = Workspace.UploadArchiveTests.Zip([.. DemoTriple.Select(p => ("filtered/" + p.Item1, p.Item2))]);
+        var fromZip = await Client.PostAsync("/api/build", MatrixMarketForm([("filtered.zip", zip)], T1Fast));
+        Assert.Equal(200, (int)fromZip.StatusCode);
+        Assert.Equal(expected, (await Json(fromZip)).GetProperty("densities").GetRawText());
+
+        // Debian's GNU tar, gzip-compressed: an archive made outside the runtime that reads it.
+        var dir = Directory.CreateDirectory(Path.Combine(Path.GetTempPath(), "exprmodel-tar-" + Guid.NewGuid().ToString("N"))).FullName;
+        try
+        {
+            foreach (var (name, bytes) in DemoTriple) File.WriteAllBytes(Path.Combine(dir, name), bytes);
+            var archive = Path.Combine(dir, "sample.tar.gz");
+            using (var tar = System.Diagnostics.Process.Start("tar", ["-czf", archive, "-C", dir, "matrix.mtx", "genes.tsv", "barcodes.tsv"]))
+                await tar.WaitForExitAsync();
+            var fromTar = await Client.PostAsync("/api/build", MatrixMarketForm([("sample.tar.gz", File.ReadAllBytes(archive))], T1Fast));
+            Assert.Equal(200, (int)fromTar.StatusCode);
+            Assert.Equal(expected, (await Json(fromTar)).GetProperty("densities").GetRawText());
+        }
+        finally { Directory.Delete(dir, recursive: true); }
+    }
+
+    [Fact]
+    public async Task Matrix_market_parts_that_do_not_fit_are_refused_naming_the_file()
+    {
+        var triple = DemoTriple;
+        await AssertProblem(await Client.PostAsync("/api/build", MatrixMarketForm(triple[..2], T1Fast)), 400,
+            "matrix.mtx came without its cells file", "barcodes.tsv");
+        var genes = File.ReadAllLines(DemoPath("mtx/genes.tsv"));
+        var shortGenes = System.Text.Encoding.UTF8.GetBytes(string.Join('\n', genes[..^1]) + "\n");
+        await AssertProblem(await Client.PostAsync("/api/build", MatrixMarketForm([triple[0], ("genes.tsv", shortGenes), triple[2]], T1Fast)), 400,
+            $"matrix.mtx has {genes.Length:N0} rows but genes.tsv lists {genes.Length - 1:N0} genes.");
+        var evil = Workspace.UploadArchiveTests.Zip(("../../matrix.mtx", triple[0].Item2));
+        await AssertProblem(await Client.PostAsync("/api/build", MatrixMarketForm([("evil.zip", evil)], T1Fast)), 400,
+            "evil.zip: entry '../../matrix.mtx' points outside the archive");
+    }
+
     private sealed class UnknownLengthStream(byte[] bytes) : MemoryStream(bytes)
     {
         public override bool CanSeek => false;

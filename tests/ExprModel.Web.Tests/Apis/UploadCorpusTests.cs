@@ -56,6 +56,15 @@ public sealed class UploadCorpusTests(UploadCorpusTests.Factory factory) : ApiTe
 
     private static readonly Dictionary<string, (Func<HttpRequestMessage> Request, int Status, string[] Fragments)> Corpus = new()
     {
+        ["zip bomb of a matrix"] = (() => Post("/api/build", Form("bomb.zip", Workspace.UploadArchiveTests.Zip(("matrix.mtx", new byte[6_000_000])))),
+            413, ["bomb.zip/matrix.mtx: the archive inflates past", "4 MB", "MaxDecompressedMegabytes"]),
+        ["tar.gz bomb"] = (() => Post("/api/build", Form("bomb.tar.gz", Workspace.UploadArchiveTests.TarGz(("matrix.mtx", new byte[6_000_000])))),
+            413, ["bomb.tar.gz", "MaxDecompressedMegabytes"]),
+        ["tar.gz with a link"] = (() => Post("/api/build", Form("link.tar.gz", Workspace.UploadArchiveTests.TarGz(
+            new System.Formats.Tar.PaxTarEntry(System.Formats.Tar.TarEntryType.SymbolicLink, "genes.tsv") { LinkName = "/etc/passwd" }))),
+            400, ["link.tar.gz: entry 'genes.tsv' is a link"]),
+        ["tar.gz entry climbing out"] = (() => Post("/api/build", Form("up.tar.gz", Workspace.UploadArchiveTests.TarGz(("/etc/cron.d/x", Table)))),
+            400, ["up.tar.gz: entry '/etc/cron.d/x' points outside the archive"]),
         ["invalid UTF-8 on line 3"] = (() => Post("/api/build", Form("counts.csv", [.. "gene,c1,c2\nScn1a,1,2\nKcnc1,3,"u8, 0xFF, .. "4\n"u8])),
             400, ["counts.csv: line 3, character 9", "byte 0xFF (column 3) is not UTF-8"]),
         ["Latin-1 text"] = (() => Post("/api/build", Form("latin1.csv", Encoding.Latin1.GetBytes("gene,c1\nScn1a,1\nKcnc1,2\n# caf\u00e9\n"))),

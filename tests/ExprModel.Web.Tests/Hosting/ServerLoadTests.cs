@@ -1,8 +1,9 @@
 using System.Collections.Concurrent;
 using System.Diagnostics;
 using System.Net;
-using System.Net.Http.Json;
+using System.Net.Http.Headers;
 using System.Runtime;
+using System.Text;
 using System.Text.Json.Nodes;
 using Xunit.Abstractions;
 
@@ -17,14 +18,29 @@ public sealed class ServerLoadCollection;
 /// simulation time limit; 429: the rate limit), and the server's managed memory must come back within 20 % of its start
 /// after a full garbage collection. Runs alone (its own collection), so no other test's allocations are counted.
 /// </summary>
+/// <remarks>
+/// The server runs in this process, so the client must not fill the heap the check measures: the request bodies are
+/// encoded once as bytes and the answers are drained through one small buffer. Serialising the 284 KB table of each build
+/// from a <see cref="JsonObject"/> rented a 3.4 MB char array per call (the writer's worst-case escaping room, 6 chars per
+/// char) from the shared array pool, which caches one array per size class in every thread-pool thread: 66 MB of char and
+/// 33 MB of byte arrays were still cached when the load ended, 99 of the 100 MB the previous measurement blamed on the
+/// server. What the server itself caches the same way (the unescaped table of each build, about 512 KB per thread) goes
+/// with the extra thread-pool threads the load started, which the runtime retires after about 20 s idle, and with the
+/// pool's trim of arrays unused for 60 s. So the check compares heap sizes after full compacting collections, polled every
+/// 2 s until the heap is back within 20 % or 90 s have passed; it never compares times. Measured 2026-12-03: run alone, 11 MB
+/// before, 25 MB at the end of the load (21 pool threads), 14 MB 24 s later with the pool's 60 s trim still to come; run
+/// after the Workbench area tests, 32 MB before, 40 MB at the end, 38 MB (1.19x) 9 s later.
+/// </remarks>
 [Collection(nameof(ServerLoadTests))]
 public sealed class ServerLoadTests(ITestOutputHelper output)
 {
     private const int Clients = 50;
+    /// <summary>How long the memory check waits for the runtime's idle caches to let go: the 60 s pool trim and a margin.</summary>
+    private static readonly TimeSpan Settle = TimeSpan.FromSeconds(90);
     private static readonly TimeSpan Duration = TimeSpan.FromSeconds(30);
     private static readonly string[] Operations = ["build", "simulate", "readouts", "share"];
 
-    private async Task Load(bool checkMemory)
+    private async Task Load()
     {
         using var factory = new ConfiguredAppFactory(new Dictionary<string, string>
         {
@@ -34,6 +50,7 @@ public sealed class ServerLoadTests(ITestOutputHelper output)
         }, kestrel: true, environment: "Production");
         factory.StartServer();
         var requests = new Requests(Demo("counts.csv"), Demo("metadata.csv"), Preset("wb1996"));
+        int threadsBefore = ThreadPool.ThreadCount;
         using var client = new HttpClient(new SocketsHttpHandler { PooledConnectionLifetime = TimeSpan.FromMinutes(5) })
         {
             BaseAddress = factory.Address,
@@ -59,7 +76,7 @@ public sealed class ServerLoadTests(ITestOutputHelper output)
                 string op = Operations[(c + k) % Operations.Length];
                 try
                 {
-                    using var r = await client.SendAsync(requests.For(op, c, k));
+                    using var r = await client.SendAsync(requests.For(op, c, k), HttpCompletionOption.ResponseHeadersRead);
                     int status = (int)r.StatusCode;
                     statuses.AddOrUpdate((op, status), 1, (_, n) => n + 1);
                     if (status is 503 or 429)
@@ -69,7 +86,7 @@ public sealed class ServerLoadTests(ITestOutputHelper output)
                         await Task.Delay(200);
                     }
                     else if (!r.IsSuccessStatusCode) errors.Add($"{op}: {status} {await r.Content.ReadAsStringAsync()}");
-                    else await r.Content.ReadAsByteArrayAsync();
+                    else await Drain(r);
                 }
                 catch (Exception e) when (e is HttpRequestException or TaskCanceledException)
                 {
@@ -81,24 +98,37 @@ public sealed class ServerLoadTests(ITestOutputHelper output)
 
         client.CancelPendingRequests();
         client.Dispose(); // the client's 50 connections and their buffers are not the server's
-        long after = ManagedHeapAfterFullCollection();
+        long atEnd = ManagedHeapAfterFullCollection();
+        int threadsAtEnd = ThreadPool.ThreadCount;
+        // The pooled arrays go with the extra thread-pool threads that cache them (retired after about 20 s idle) and with
+        // the shared pool's trim of arrays unused for 60 s (both the runtime's rules); each poll is a full compacting collection.
+        var settle = Stopwatch.StartNew();
+        long after = atEnd;
+        while (after > before * 1.2 && settle.Elapsed < Settle)
+        {
+            await Task.Delay(2000);
+            after = ManagedHeapAfterFullCollection();
+        }
         foreach (var ((op, status), n) in statuses.OrderBy(s => s.Key)) output.WriteLine($"{op} {status}: {n}");
-        output.WriteLine($"load {clock.Elapsed.TotalSeconds:0.0} s; managed heap {before >> 20} MB before, {after >> 20} MB after "
-            + $"({(double)after / before:0.00}x)");
+        output.WriteLine($"load {clock.Elapsed.TotalSeconds:0.0} s; managed heap {before >> 20} MB before, {atEnd >> 20} MB at the end "
+            + $"({threadsAtEnd} pool threads, {threadsBefore} before), {after >> 20} MB after {settle.Elapsed.TotalSeconds:0} s idle "
+            + $"({ThreadPool.ThreadCount} threads): {(double)after / before:0.00}x");
         Assert.True(errors.IsEmpty, string.Join("\n", errors.Take(20)));
         foreach (var op in Operations)
             Assert.True(statuses.Any(s => s.Key.Op == op && s.Key.Status is 200 or 201), $"no {op} succeeded under load");
-        if (checkMemory) Assert.True(after <= before * 1.2, $"managed heap {before:N0} bytes before the load, {after:N0} after: more than 20 % growth");
+        Assert.True(after <= before * 1.2, $"managed heap {before:N0} bytes before the load, {after:N0} after: more than 20 % growth");
     }
 
+    /// <summary>One load serves both criteria of the issue (answers and memory), so the suite pays for 30 s of load once.</summary>
     [Fact]
-    public Task Fifty_clients_for_thirty_seconds_get_only_answers_or_documented_refusals() => Load(checkMemory: false);
+    public Task Fifty_clients_for_thirty_seconds_get_only_answers_or_documented_refusals_and_leave_the_heap_within_20_percent() => Load();
 
-    /// <summary>The issue's memory criterion, measured by the same load; it does not hold yet (see the skip reason).</summary>
-    [Fact(Skip = "Not met yet: the managed heap after a full compacting collection was 21 MB before and 117 MB after the load (measured "
-        + "2026-12-03, 50 clients, 30 s); what holds the rest is not located (candidates: per-thread ArrayPool buffers of the trace "
-        + "responses, the Kestrel block pool).")]
-    public Task Fifty_clients_for_thirty_seconds_leave_the_managed_heap_within_20_percent_of_its_start() => Load(checkMemory: true);
+    private static async Task Drain(HttpResponseMessage r)
+    {
+        await using var body = await r.Content.ReadAsStreamAsync();
+        var buffer = new byte[16384];
+        while (await body.ReadAsync(buffer) > 0) { }
+    }
 
     private static long ManagedHeapAfterFullCollection()
     {
@@ -118,13 +148,7 @@ public sealed class ServerLoadTests(ITestOutputHelper output)
 
         public HttpRequestMessage For(string op, int client, int k) => op switch
         {
-            "build" => Post("/api/build", new JsonObject
-            {
-                ["expression"] = counts,
-                ["metadata"] = metadata,
-                ["groupBy"] = "group",
-                ["group"] = Groups[(client + k) % Groups.Length],
-            }),
+            "build" => Post("/api/build", _builds[(client + k) % Groups.Length]),
             "simulate" => Post("/api/simulate", new JsonObject
             {
                 ["model"] = Scaled(k % 3),
@@ -142,7 +166,33 @@ public sealed class ServerLoadTests(ITestOutputHelper output)
             return copy;
         }
 
-        private static HttpRequestMessage Post(string path, JsonObject body) => new(HttpMethod.Post, path) { Content = JsonContent.Create(body) };
+        /// <summary>
+        /// The build bodies, one per group, written by hand once: the JSON writer would rent 6 chars of escaping room per char
+        /// of the table from the shared pool, and those arrays would sit in the heap the check measures.
+        /// </summary>
+        private readonly byte[][] _builds = Groups.Select(g => Encoding.UTF8.GetBytes(string.Concat(
+            "{\"expression\":", Quote(counts), ",\"metadata\":", Quote(metadata), ",\"groupBy\":\"group\",\"group\":", Quote(g), "}"))).ToArray();
+
+        private static string Quote(string text)
+        {
+            var sb = new StringBuilder(text.Length + text.Length / 8 + 2).Append('"');
+            foreach (var c in text)
+            {
+                if (c is '"' or '\\') sb.Append('\\').Append(c);
+                else if (c < ' ') sb.Append("\\u").Append(((int)c).ToString("x4", System.Globalization.CultureInfo.InvariantCulture));
+                else sb.Append(c);
+            }
+            return sb.Append('"').ToString();
+        }
+
+        private static HttpRequestMessage Post(string path, JsonObject body) => Post(path, Encoding.UTF8.GetBytes(body.ToJsonString()));
+
+        private static HttpRequestMessage Post(string path, byte[] body)
+        {
+            var content = new ByteArrayContent(body);
+            content.Headers.ContentType = new MediaTypeHeaderValue("application/json");
+            return new(HttpMethod.Post, path) { Content = content };
+        }
     }
 
     private static string Demo(string file) => File.ReadAllText(Find(Path.Combine("catalog", "demo", file)));
@@ -156,3 +206,4 @@ public sealed class ServerLoadTests(ITestOutputHelper output)
         throw new FileNotFoundException(relative);
     }
 }
+

@@ -1,41 +1,16 @@
 using Bunit;
-using ExprModel.Data.Catalog;
 using ExprModel.Web.Components.Workbench;
-using ExprModel.Web.Hosting;
-using ExprModel.Web.Simulation;
 using ExprModel.Web.Workspace;
-using Microsoft.Extensions.DependencyInjection;
-using Microsoft.Extensions.Options;
 
 // Not "...Components.Workbench": that namespace would hide the Workbench page type from the page tests beside this folder.
 namespace ExprModel.Web.Tests.Components.WorkbenchParts;
 
 /// <summary>The Workbench's protocols area with the real catalog and simulator (no browser; plots are not drawn).</summary>
-public sealed class ProtocolsAreaTests : BunitContext
+public sealed class ProtocolsAreaTests : WorkbenchAreaContext
 {
-    private static readonly TimeSpan Long = TimeSpan.FromMinutes(2);
-    private readonly string _dir = Path.Combine(Path.GetTempPath(), "exprmodel-protocols-bunit-" + Guid.NewGuid().ToString("N"));
-    private readonly ChannelCatalog _catalog;
-    private readonly ModelRunner _runner;
-    private readonly WorkspaceState _workspace = new();
-    private readonly List<WorkbenchSession> _sessions = [];
-
-    public ProtocolsAreaTests()
-    {
-        JSInterop.Mode = JSRuntimeMode.Loose;
-        Directory.CreateDirectory(_dir);
-        _catalog = CatalogLocator.Ensure(Path.Combine(_dir, "catalog.db"));
-        var gate = new SimulationGate(Options.Create(new WebOptions()));
-        _runner = new ModelRunner(_catalog, gate);
-        Services.AddSingleton(gate);
-        Services.AddSingleton(_runner);
-        Services.AddSingleton(_workspace);
-    }
-
     private IRenderedComponent<ProtocolsArea> RenderArea()
     {
-        var session = new WorkbenchSession(_runner, _workspace, _catalog, () => Task.CompletedTask);
-        _sessions.Add(session);
+        var session = NewSession();
         session.OpenInitial("hh1952");
         return Render<ProtocolsArea>(p => p.Add(x => x.Session, session));
     }
@@ -89,12 +64,5 @@ public sealed class ProtocolsAreaTests : BunitContext
         cut.WaitForAssertion(() => Assert.NotEmpty(cut.FindAll("[data-testid=protocol-summary]")), Long);
         Assert.Contains("spike", cut.Find("[data-testid=protocol-summary]").TextContent);
         Assert.Equal(2, cut.FindAll("figure.plot").Count);
-    }
-
-    protected override void Dispose(bool disposing)
-    {
-        foreach (var s in _sessions) s.Dispose();
-        base.Dispose(disposing);
-        try { Directory.Delete(_dir, true); } catch (IOException) { }
     }
 }

@@ -2,40 +2,17 @@ using Bunit;
 using ExprModel.Core.Perturbation;
 using ExprModel.Data.Catalog;
 using ExprModel.Web.Components.Workbench;
-using ExprModel.Web.Hosting;
-using ExprModel.Web.Simulation;
 using ExprModel.Web.Workspace;
-using Microsoft.Extensions.DependencyInjection;
-using Microsoft.Extensions.Options;
 
 // Not "...Components.Workbench": that namespace would hide the Workbench page type from the page tests beside this folder.
 namespace ExprModel.Web.Tests.Components.WorkbenchParts;
 
 /// <summary>The Workbench's "why and what-if" area with the real catalog, simulator and library (no browser; plots are not drawn).</summary>
-public sealed class WhatIfAreaTests : BunitContext
+public sealed class WhatIfAreaTests : WorkbenchAreaContext
 {
-    private static readonly TimeSpan Long = TimeSpan.FromMinutes(2);
-    private readonly string _dir = Path.Combine(Path.GetTempPath(), "exprmodel-whatif-bunit-" + Guid.NewGuid().ToString("N"));
-    private readonly ChannelCatalog _catalog;
-    private readonly ModelRunner _runner;
-    private readonly WorkspaceState _workspace = new();
-    private readonly List<WorkbenchSession> _sessions = [];
-
-    public WhatIfAreaTests()
-    {
-        JSInterop.Mode = JSRuntimeMode.Loose;
-        Directory.CreateDirectory(_dir);
-        _catalog = CatalogLocator.Ensure(Path.Combine(_dir, "catalog.db"));
-        var gate = new SimulationGate(Options.Create(new WebOptions()));
-        _runner = new ModelRunner(_catalog, gate);
-        Services.AddSingleton(gate);
-        Services.AddSingleton(_runner);
-    }
-
     private IRenderedComponent<WhatIfArea> Render(Action<WorkbenchSession> open, IReadOnlyList<FitTarget>? recorded = null)
     {
-        var session = new WorkbenchSession(_runner, _workspace, _catalog, () => Task.CompletedTask);
-        _sessions.Add(session);
+        var session = NewSession();
         open(session);
         return Render<WhatIfArea>(p => p.Add(x => x.Session, session).Add(x => x.RecordedTargets, recorded));
     }
@@ -66,11 +43,11 @@ public sealed class WhatIfAreaTests : BunitContext
     public async Task A_model_built_from_expression_offers_its_genes()
     {
         var demo = Path.Combine(CatalogLocator.FindSourceDirectory()!, "demo");
-        _workspace.Session = ExpressionSession.Read(_catalog, File.ReadAllBytes(Path.Combine(demo, "counts.csv")), "counts.csv",
+        Workspace.Session = ExpressionSession.Read(Catalog, File.ReadAllBytes(Path.Combine(demo, "counts.csv")), "counts.csv",
             File.ReadAllBytes(Path.Combine(demo, "metadata.csv")), "metadata.csv", new ReadChoices(null, null, "group"));
-        using var map = new MapSession(_workspace, _runner, () => Task.CompletedTask);
+        using var map = new MapSession(Workspace, Runner, () => Task.CompletedTask);
         await map.BuildAllAsync();
-        var group = _workspace.GroupModels.Keys.First();
+        var group = Workspace.GroupModels.Keys.First();
         var cut = Render(s => s.OpenSource("group:" + group));
         Assert.Equal("Which genes set the rheobase?", cut.Find("[data-testid=kd-rheobase]").TextContent);
         Assert.NotEmpty(cut.FindAll("[data-testid=kd-genes]"));
@@ -127,12 +104,5 @@ public sealed class WhatIfAreaTests : BunitContext
         cut.Find("[data-testid=fit-run]").Click();
         Assert.Contains("Give at least one recorded read-out", cut.Find("[data-testid=error]").TextContent);
         Assert.Empty(cut.FindAll("[data-testid=fit-progress]"));
-    }
-
-    protected override void Dispose(bool disposing)
-    {
-        foreach (var s in _sessions) s.Dispose();
-        base.Dispose(disposing);
-        try { Directory.Delete(_dir, true); } catch (IOException) { }
     }
 }
