@@ -42,8 +42,10 @@ public static class StochasticBenchmark
             ChannelNoise.Run(cell, stim, 200, settings);
             var pairs = new (double Noisy, double Deterministic)[repeats];
             for (int r = 0; r < repeats; r++)
-                pairs[r] = (Time(() => ChannelNoise.Run(cell, stim, 1000, settings)),
-                    Time(() => Simulator.Run(cell, stim, 1000, SimulationSettings.SpikesOnly)));
+            {
+                double noisy = Time(() => ChannelNoise.Run(cell, stim, 1000, settings));
+                pairs[r] = (noisy, Time(() => Simulator.Run(cell, stim, 1000, SimulationSettings.SpikesOnly)));
+            }
             double ratio = Median(pairs.Select(p => p.Noisy / p.Deterministic));
             Console.WriteLine($"whole cell, {cell.GateCount} gates, {counts.Sum():N0} channels (2000 um2), {label}: 1 s with channel noise " +
                 $"{Median(pairs.Select(p => p.Noisy)):F1} ms, deterministic scalar {Median(pairs.Select(p => p.Deterministic)):F1} ms: " +
