@@ -150,7 +150,8 @@ internal sealed record SlurmArrayScripts
             sb.Append("fi\n");
             after = "${after:+\"$after\"} ";
         }
-        sb.Append("array=$(sbatch --parsable " + after + "--array=\"$tasks\" --chdir=\"$dir\" --output=\"$logs/task-%a-job-%A.out\" \"$dir/" + ArrayFile + "\")\n");
+        sb.Append("array=$(sbatch --parsable " + after + "--array=\"$tasks\" --chdir=\"$dir\" --output=\"$logs/task-%a-job-%A.out\" " +
+            "\"$dir/" + ArrayFile + "\")\n");
         sb.Append("array=\"${array%%;*}\"\n");
         sb.Append("merge=$(sbatch --parsable --dependency=\"afterok:$array\" --chdir=\"$dir\" --output=\"$logs/merge-job-%j.out\" " +
             "\"$dir/" + MergeFile + "\")\n");
