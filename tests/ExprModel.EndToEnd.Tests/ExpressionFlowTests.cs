@@ -96,10 +96,12 @@ public sealed class ExpressionFlowTests(AppFixture app)
         await context.CloseAsync();
     }
 
-    private static string DemoMtx(string file)
+    private static string DemoMtx(string file) => Demo("mtx", file);
+
+    private static string Demo(string folder, string file)
     {
         for (var d = new DirectoryInfo(AppContext.BaseDirectory); d is not null; d = d.Parent)
-            if (File.Exists(Path.Combine(d.FullName, "ExprModel.sln"))) return Path.Combine(d.FullName, "catalog", "demo", "mtx", file);
+            if (File.Exists(Path.Combine(d.FullName, "ExprModel.sln"))) return Path.Combine(d.FullName, "catalog", "demo", folder, file);
         throw new FileNotFoundException(file);
     }
 
@@ -133,6 +135,35 @@ public sealed class ExpressionFlowTests(AppFixture app)
         await page.WaitForSelectorAsync("[data-testid=mapping-table]");
         Assert.Contains("240 cells", await page.Locator("[data-testid=table-summary]").InnerTextAsync());
         await app.ScreenshotAsync(page, "map-matrix-market");
+        Assert.True(errors.Count == 0, string.Join("\n", errors));
+        await context.CloseAsync();
+    }
+
+    [Fact]
+    public async Task An_h5ad_with_log_values_in_X_shows_the_hint_and_its_counts_layer_is_read_with_one_click()
+    {
+        var (context, page, errors) = await app.NewPageAsync();
+        await app.GotoAsync(page, "/load");
+        // catalog/demo/h5ad/demo.h5ad: ln(1 + 1e4 x count / library) in X, the counts in layers/counts.
+        await page.Locator("[data-testid=upload-expression]").SetInputFilesAsync(Demo("h5ad", "demo.h5ad"));
+        var hint = await page.WaitForSelectorAsync("[data-testid=matrix-hint]");
+        Assert.Contains("demo.h5ad: dataset /X: values look log-transformed", await hint!.InnerTextAsync());
+        Assert.Contains("use --matrix layer:counts", await hint.InnerTextAsync());
+        Assert.Contains("240 cells (obs) × 558 genes (var)", await page.Locator("[data-testid=upload-parts]").InnerTextAsync());
+        Assert.Equal(["", "layer:counts"], await page.Locator("[data-testid=matrix] option").EvaluateAllAsync<string[]>("os => os.map(o => o.value)"));
+        await app.ScreenshotAsync(page, "load-h5ad-hint");
+
+        await page.Locator("[data-testid=use-suggested-matrix]").ClickAsync();
+        await page.WaitForSelectorAsync("[data-testid=matrix-chosen]");
+        Assert.Equal("layer:counts", await page.Locator("[data-testid=matrix]").InputValueAsync());
+        Assert.Equal(0, await page.Locator("[data-testid=matrix-hint]").CountAsync());
+        await app.ScreenshotAsync(page, "load-h5ad-counts-chosen");
+
+        await page.Locator("[data-testid=to-map]").ClickAsync();
+        await page.WaitForSelectorAsync("[data-testid=mapping-table]");
+        var summary = await page.Locator("[data-testid=table-summary]").InnerTextAsync();
+        Assert.Contains("240 cells", summary);
+        await app.ScreenshotAsync(page, "map-h5ad");
         Assert.True(errors.Count == 0, string.Join("\n", errors));
         await context.CloseAsync();
     }

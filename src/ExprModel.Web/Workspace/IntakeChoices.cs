@@ -6,4 +6,6 @@ public sealed class IntakeChoices
     public string Orientation { get; set; } = "";
     public string Unit { get; set; } = "";
     public string GroupColumn { get; set; } = "";
+    /// <summary>For an .h5ad upload: X, layer:NAME or raw (<see cref="ReadChoices.Matrix"/>); empty reads X with the log-transform hint.</summary>
+    public string Matrix { get; set; } = "";
 }

@@ -40,28 +40,40 @@ internal static class AnnDataMatrixReader
     }
 
     /// <summary>True when the first values of a matrix are all whole numbers, at least one of them not zero (a counts matrix, by its look).</summary>
-    public static bool LooksLikeCounts(IH5Object x, H5Location at)
+    public static bool LooksLikeCounts(IH5Object x, H5Location at) => Sample(x, at) is { } sample && sample.Any(v => v != 0) && sample.All(IsWhole);
+
+    /// <summary>The matrix's first stored values (up to <see cref="ProbeElements"/>), or null when it cannot be read as a matrix.</summary>
+    public static double[]? Sample(IH5Object x, H5Location at)
     {
         try
         {
-            double[] sample;
             if (x is IH5Dataset d)
             {
                 var dims = d.Space.Dimensions;
-                if (dims.Length != 2 || dims[0] == 0 || dims[1] == 0) return false;
+                if (dims.Length != 2 || dims[0] == 0 || dims[1] == 0) return null;
                 ulong rows = Math.Max(1, Math.Min(dims[0], (ulong)ProbeElements / dims[1]));
-                sample = H5Numbers.Read(d, new HyperslabSelection(2, [0, 0], [rows, dims[1]]), rows * dims[1], at, allowNaN: false);
+                return H5Numbers.Read(d, new HyperslabSelection(2, [0, 0], [rows, dims[1]]), rows * dims[1], at, allowNaN: false);
             }
-            else if (x is IH5Group g && g.LinkExists("data") && g.Get("data") is IH5Dataset data)
+            if (x is IH5Group g && g.LinkExists("data") && g.Get("data") is IH5Dataset data)
             {
                 long n = Math.Min(at.Length(data), ProbeElements);
-                if (n == 0) return false;
-                sample = H5Numbers.Slice(data, 0, n, at);
+                return n == 0 ? [] : H5Numbers.Slice(data, 0, n, at);
             }
-            else return false;
-            return sample.Any(v => v != 0) && sample.All(v => v == Math.Round(v));
+            return null;
         }
-        catch (ExpressionFormatException) { return false; }
+        catch (ExpressionFormatException) { return null; }
+    }
+
+    public static bool IsWhole(double v) => v == Math.Round(v);
+
+    /// <summary>How the matrix is stored (dense, csr_matrix, csc_matrix or the group's own encoding) and its shape when it says it.</summary>
+    public static (string Layout, long[]? Shape) Describe(IH5Object x, H5Location at)
+    {
+        if (x is IH5Dataset d) return ("dense", at.Guard(() => d.Space.Dimensions).Select(v => (long)v).ToArray());
+        if (x is not IH5Group g) return ("neither a dataset nor a group", null);
+        string encoding = at.StringAttribute(g, "encoding-type") ?? "group without encoding-type";
+        long[]? shape = at.Guard(() => g.AttributeExists("shape")) ? at.Guard(() => g.Attribute("shape").Read<long[]>()) : null;
+        return (encoding, shape);
     }
 
     private static void ReadDense(IH5Dataset x, int cells, int genes, CellRange range, ExpressionReadOptions o, H5Location at, ValueStats stats,

@@ -55,8 +55,7 @@ public static class AnnDataReader
         string layout = AnnDataMatrixReader.Read(x, total, genes.Length, range, o, at, stats, library, keptSlot);
         at.Path = "/" + matrix.MatrixPath;
         if (o.Matrix is null && UnitDecision.LooksLogTransformed(o, stats) && CountsElsewhere(h5, at) is { } counts)
-            throw at.Error($"values look log-transformed (not whole numbers, largest {stats.Max:G4}); {counts.MatrixPath} holds whole numbers: " +
-                $"use --matrix {counts.Spelling} (read options: matrix '{counts.Spelling}') to model its counts, or state the transform to undo it.");
+            throw at.Error(LogHint(stats.Max, counts));
         if (o.Matrix is not null) notes.Add($"values from /{matrix.MatrixPath} (matrix choice '{matrix.Spelling}').");
         if (o.Cells is not null) notes.Add($"read {range} of {total} (a part of the file); a unit not stated is decided from these cells' values.");
 
@@ -83,6 +82,54 @@ public static class AnnDataReader
         string file = Path.GetFileName(path);
         using var h5 = Open(path, file, options?.Meter);
         return CellCount(h5, new H5Location(file));
+    }
+
+    /// <summary>
+    /// What follows "FILE: dataset /X: " when X looks log-transformed and another matrix holds counts (the reader's
+    /// refusal, the Load page's hint).
+    /// </summary>
+    internal static string LogHint(double largest, MatrixChoice counts) =>
+        $"values look log-transformed (not whole numbers, largest {largest:G4}); {counts.MatrixPath} holds whole numbers: " +
+        $"use --matrix {counts.Spelling} (read options: matrix '{counts.Spelling}') to model its counts, or state the transform to undo it.";
+
+    /// <summary>
+    /// The file's size and matrices (X, each layer, raw/X) with a look at each one's first values, for a user to pick
+    /// one before reading (the Load page). The hint is the reader's own text, judged on X's first values (at most 65,536)
+    /// where the reader judges all of them, so for a larger X the largest value it names may be lower.
+    /// </summary>
+    /// <exception cref="ExpressionFormatException">Not an HDF5 file, or obs or var missing or unreadable (file and dataset named).</exception>
+    public static AnnDataOverview Describe(string path)
+    {
+        string file = Path.GetFileName(path);
+        using var h5 = Open(path, file, null);
+        var at = new H5Location(file);
+        int cells = CellCount(h5, at);
+        int genes = (int)Math.Min(int.MaxValue, at.Length(IndexDataset(h5, "var", at)));
+        var choices = new List<MatrixChoice>();
+        if (h5.LinkExists("X")) choices.Add(MatrixChoice.X);
+        if (h5.LinkExists("layers") && h5.Get("layers") is IH5Group layers)
+            choices.AddRange(layers.Children().Select(c => c.Name).Order(StringComparer.Ordinal).Select(MatrixChoice.Layer));
+        if (h5.LinkExists("raw") && h5.Get("raw") is IH5Group raw && raw.LinkExists("X")) choices.Add(MatrixChoice.Raw);
+        if (choices.Count == 0) throw new H5Location(file) { Path = "/X" }.Error("missing: the file holds no expression matrix (no X, layers or raw/X).");
+        var matrices = new List<AnnDataMatrixSummary>();
+        foreach (var c in choices)
+        {
+            var where = new H5Location(file) { Path = "/" + c.MatrixPath };
+            var x = where.Guard(() => h5.Get(c.MatrixPath));
+            var (layout, shape) = AnnDataMatrixReader.Describe(x, where);
+            var sample = AnnDataMatrixReader.Sample(x, where) ?? [];
+            matrices.Add(new AnnDataMatrixSummary(c, layout, shape, sample.Length, sample.All(AnnDataMatrixReader.IsWhole),
+                sample.Length == 0 ? 0 : sample.Max()));
+        }
+        string? hint = null;
+        MatrixChoice? suggested = null;
+        if (matrices[0] is { Choice.Spelling: "X", AllWhole: false, Sampled: > 0 } main && main.Largest <= UnitDecision.LogScaleMax
+            && CountsElsewhere(h5, at) is { } counts)
+        {
+            suggested = counts;
+            hint = new H5Location(file) { Path = "/X" }.Error(LogHint(main.Largest, counts)).Message;
+        }
+        return new AnnDataOverview(file, cells, genes, matrices, hint, suggested);
     }
 
     /// <summary>The first layer, or raw/X, whose values look like counts (whole numbers), for the log-transform hint.</summary>

@@ -10,7 +10,7 @@ using Microsoft.Extensions.Options;
 
 namespace ExprModel.Web.Tests.Components.Pages;
 
-/// <summary>The Load page with the real catalog: Matrix Market uploads (several files or one archive) and the build queue.</summary>
+/// <summary>The Load page with the real catalog: Matrix Market uploads (several files or one archive), AnnData uploads and the build queue.</summary>
 public sealed class LoadTests : BunitContext
 {
     private readonly string _dir = Path.Combine(Path.GetTempPath(), "exprmodel-bunit-load-" + Guid.NewGuid().ToString("N"));
@@ -77,6 +77,50 @@ public sealed class LoadTests : BunitContext
         Upload(cut, InputFileContent.CreateFromBinary(zip, "run.zip"));
         cut.WaitForAssertion(() => Assert.True(cut.FindAll("[data-testid=upload-parts]").Count > 0, cut.Markup[..Math.Min(3000, cut.Markup.Length)]));
         Assert.Contains("Matrix Market matrix run.zip/run/matrix.mtx", cut.Find("[data-testid=upload-parts]").TextContent);
+    }
+
+    [Fact]
+    public void An_h5ad_upload_lists_its_matrices_and_the_hint_picks_the_counts_layer_that_is_then_read()
+    {
+        var cut = Render<Load>();
+        Upload(cut, InputFileContent.CreateFromBinary(File.ReadAllBytes(LoadPanels.MatrixPickerTests.DemoH5ad()), "demo.h5ad"));
+        cut.WaitForAssertion(() => Assert.Contains("240 cells (obs) × 558 genes (var); 2 matrices", cut.Find("[data-testid=upload-parts]").TextContent));
+        Assert.Contains("layer:counts", cut.Find("[data-testid=preview]").TextContent);
+        Assert.Empty(cut.FindAll("[data-testid=orientation]")); // fixed by the AnnData layout
+
+        // Read as it is, X is refused with the hint (file, dataset and the matrix to use named).
+        cut.Find("[data-testid=to-map]").Click();
+        cut.WaitForAssertion(() => Assert.Contains("demo.h5ad: dataset /X: values look log-transformed", cut.Find("[data-testid=error]").TextContent),
+            TimeSpan.FromSeconds(60));
+        Assert.Null(_workspace.Session);
+        Assert.Contains("use --matrix layer:counts", cut.Find("[data-testid=matrix-hint]").TextContent);
+
+        cut.Find("[data-testid=use-suggested-matrix]").Click();
+        Assert.Equal("layer:counts", _workspace.Intake.Matrix);
+        cut.Find("[data-testid=to-map]").Click();
+        cut.WaitForAssertion(() => Assert.NotNull(_workspace.Session), TimeSpan.FromSeconds(60));
+        Assert.Equal("layer:counts", _workspace.Session!.Choices.Matrix);
+        Assert.Equal(240, _workspace.Session.Dataset.Table.CellIds.Count);
+        Assert.Equal(ExprModel.Core.Expression.ExpressionUnit.Counts, _workspace.Session.Dataset.Table.Unit);
+    }
+
+    [Fact]
+    public void A_new_upload_forgets_the_matrix_chosen_for_the_last_one()
+    {
+        _workspace.Intake.Matrix = "layer:spliced";
+        var cut = Render<Load>();
+        Upload(cut, InputFileContent.CreateFromBinary(File.ReadAllBytes(LoadPanels.MatrixPickerTests.DemoH5ad()), "demo.h5ad"));
+        cut.WaitForAssertion(() => cut.Find("[data-testid=matrix-hint]"));
+        Assert.Equal("", _workspace.Intake.Matrix);
+    }
+
+    [Fact]
+    public void A_file_named_h5ad_that_is_not_hdf5_is_refused_on_upload_naming_it()
+    {
+        var cut = Render<Load>();
+        Upload(cut, InputFileContent.CreateFromText("gene,c1\nKcnc1,3\n", "atlas.h5ad"));
+        cut.WaitForAssertion(() => Assert.Contains("atlas.h5ad: byte 0: not an HDF5 file", cut.Find("[data-testid=error]").TextContent));
+        Assert.Empty(_workspace.ExpressionFiles);
     }
 
     [Fact]
