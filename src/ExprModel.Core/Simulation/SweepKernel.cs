@@ -184,7 +184,8 @@ internal static unsafe class SweepKernel
                             throw Simulator.BlowUp(cell, (s + 1) * dt, vPrev[l], xs.Select(xx => xx[l]).ToArray(), ca[l], current[l]);
                 }
 
-                if ((watch.AnyPending || Vector256.GreaterThanOrEqualAny(v, level) || Vector256.GreaterThanOrEqualAny(vPrev, level)) && watch.Observe(s, v, vPrev))
+                bool nearSpike = watch.AnyPending || Vector256.GreaterThanOrEqualAny(v, level) || Vector256.GreaterThanOrEqualAny(vPrev, level);
+                if (nearSpike && watch.Observe(s, v, vPrev))
                 {
                     stepsRun = s + 1 - firstStep;
                     break;
