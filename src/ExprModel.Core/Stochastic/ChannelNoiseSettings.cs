@@ -25,6 +25,18 @@ public sealed record ChannelNoiseSettings
     /// <summary>Default of <see cref="DiffusionFromChannels"/> (the accuracy check behind it is in the contributor guide).</summary>
     public const int DefaultDiffusionFromChannels = 500;
 
+    /// <summary>The methods in words, for the comment lines of exports and the pages (names the threshold and the draws).</summary>
+    public string MethodSummary
+    {
+        get
+        {
+            string tracking = $"channel-number tracking with binomial updates (exact draws up to an expected count of {ExactUpToMean:G3}, normal above)";
+            return DiffusionFromChannels == int.MaxValue ? tracking + " for every channel type"
+                : $"diffusion approximation (mean gates plus one Ornstein-Uhlenbeck process per eigenmode; Linaro, Storace & Giugliano 2011) " +
+                  $"for channel types with at least {Math.Max(1, DiffusionFromChannels)} channels, {tracking} below";
+        }
+    }
+
     /// <summary>The method a channel type with <paramref name="channels"/> channels (and kinetic gates) takes.</summary>
     public ChannelNoiseMethod MethodFor(int channels) =>
         channels >= Math.Max(1, DiffusionFromChannels) ? ChannelNoiseMethod.Diffusion : ChannelNoiseMethod.BinomialTracking;
