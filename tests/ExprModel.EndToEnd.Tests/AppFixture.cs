@@ -73,10 +73,14 @@ public sealed class AppFixture : IAsyncLifetime
     public async Task GotoAsync(IPage page, string path)
     {
         await page.GotoAsync(BaseUrl + path);
-        await page.WaitForFunctionAsync("() => window.Blazor !== undefined && document.querySelector('.page') !== null");
-        // An interactive circuit marks itself by replacing prerendered content; wait for the websocket to settle.
-        await page.WaitForTimeoutAsync(300);
+        await WaitUntilLiveAsync(page);
     }
+
+    /// <summary>
+    /// Waits until the page's interactive circuit has rendered (the layout's data-live="true"): before that the page is
+    /// only prerendered and a click on one of its buttons would be lost.
+    /// </summary>
+    public static Task WaitUntilLiveAsync(IPage page) => page.WaitForSelectorAsync(".frame[data-live=true]");
 
     public Task ScreenshotAsync(IPage page, string name) =>
         page.ScreenshotAsync(new PageScreenshotOptions { Path = Path.Combine(ScreenshotDir, name + ".png"), FullPage = true });

@@ -33,10 +33,9 @@ public sealed class PaperTests(AppFixture app)
         await context.CloseAsync();
     }
 
-    // Passes alone (9-35 s) but timed out in two of three full-suite runs (30 s, then 120 s budget): suspected
-    // background runs of earlier tests holding the server's simulation slots while the shared page re-runs. Skipped so
-    // it cannot block a landing; the methods and BibTeX files stay covered by the bunit, API and CLI tests.
-    [Fact(Skip = "times out in the full suite only; cause under investigation (see the comment above)")]
+    // Timed out in full-suite runs on loaded machines: the shared page was clicked while only prerendered (no handlers yet),
+    // so the download never came. Buttons are now disabled until the page is live, and the test waits for that.
+    [Fact]
     public async Task Methods_and_BibTeX_download_from_the_Workbench_and_a_shared_model()
     {
         var (context, page, errors) = await WorkbenchTests.OpenPresetAsync(app, "wb1996");
@@ -53,7 +52,8 @@ public sealed class PaperTests(AppFixture app)
         await page.Locator("[data-testid=share]").ClickAsync();
         var link = await (await page.WaitForSelectorAsync("[data-testid=share-link]"))!.GetAttributeAsync("href");
         await page.GotoAsync(link!);
-        await page.WaitForSelectorAsync("[data-testid=shared-methods]");
+        await AppFixture.WaitUntilLiveAsync(page);
+        await page.WaitForSelectorAsync("[data-testid=shared-methods]:not([disabled])");
         string shared = await DownloadText(page, "[data-testid=shared-methods]");
         Assert.Contains("[Wang1996]", shared);
         Assert.Contains("@article{Wang1996,", await DownloadText(page, "[data-testid=shared-bibtex]"));

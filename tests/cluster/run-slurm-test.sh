@@ -5,11 +5,12 @@
 # 2. Starts munged, slurmctld and slurmd in the foreground from tests/cluster/slurm.conf, with state, spool, socket,
 #    pid and log files under a fresh temporary directory and unusual ports, so it runs beside any cluster already
 #    set up here. Every daemon is stopped by its process id when the script ends, also on failure (trap EXIT).
-# 3. Round 1: the demo's per-cell batch in 4 shards plus the merge job; the merged CSV must equal a single-process
-#    batch run byte for byte. The run directory and the table's path hold spaces, quotes and a dollar sign.
+# 3. Round 1: the demo's per-cell batch in 4 shards plus the merge job, after the references job that writes the
+#    dataset references once (each task then reads only its own cells, which its log says); the merged CSV must equal a
+#    single-process batch run byte for byte. The run directory and the table's path hold spaces, quotes and a dollar sign.
 # 4. Round 2: the array again with task 3 cancelled mid-run; merge must refuse, naming shard 3 and its file; then
-#    task 3 alone is submitted again (submit.sh 3) with a new merge job; the merged CSV must again equal the single run,
-#    and every shard file must equal round 1's (reruns are idempotent).
+#    task 3 alone is submitted again (submit.sh 3, reusing the references) with a new merge job; the merged CSV must
+#    again equal the single run, and every shard file must equal round 1's (reruns are idempotent).
 # The last line is "slurm test: PASS" or "slurm test: FAIL (reason)"; the exit status is 0 only on PASS.
 set -uo pipefail
 repo=$(cd "$(dirname "$0")/../.." && pwd)
@@ -124,8 +125,9 @@ wait_gone() { # JOBID [what]: waits until the job (all its array tasks) has left
   done
 }
 job_state() { scontrol -o show job "$1" 2>/dev/null | grep -oE 'JobState=[A-Z_]+' | head -n 1 | cut -d= -f2; }
-jobs_of() { # TEXT: sets array_job and merge_job from "array job N (...); merge job M (...)"
+jobs_of() { # TEXT: sets array_job, merge_job and references_job (empty when reused) from submit.sh's lines
   array_job=$(echo "$1" | sed -nE 's/^array job ([0-9]+).*/\1/p')
+  references_job=$(echo "$1" | sed -nE 's/^references job ([0-9]+).*/\1/p')
   merge_job=$(echo "$1" | sed -nE 's/.*merge job ([0-9]+).*/\1/p')
   [ -n "$array_job" ] && [ -n "$merge_job" ] || fail "the submission did not name its jobs: $1"
 }
@@ -153,9 +155,15 @@ wait_gone "$merge_job" "round 1's merge job"
 [ "$(job_state "$merge_job")" = "COMPLETED" ] \
   || { cat "$round1"/logs/* 2>/dev/null | tail -n 20; fail "round 1's merge job ended $(job_state "$merge_job")"; }
 cmp "$round1/merged.csv" "$work/reference.csv" || fail "round 1: the merged CSV differs from the single-process run"
+[ -n "$references_job" ] && [ "$(job_state "$references_job")" = "COMPLETED" ] && [ -s "$round1/references.json" ] \
+  || fail "round 1: no completed references job wrote references.json (job '${references_job}')"
+for i in 1 2 3 4; do
+  grep -qs "a part of the file" "$round1"/logs/task-$i-*.out || fail "round 1: task $i did not read only its own cells"
+done
 leftovers=$(find "$round1" -name '*.tmp' | wc -l)
 [ "$leftovers" = "0" ] || fail "round 1 left $leftovers temporary files"
 log "round 1: merged.csv equals the single-process run byte for byte ($(wc -l <"$work/reference.csv") lines)"
+log "round 1: references job $references_job ran first; each task read only its own cells"
 
 # --- 5. round 2: task 3 cancelled mid-run, merge names it, task 3 alone again --------------------------------------
 round2="$work/round 2"
@@ -189,6 +197,7 @@ grep -qF "$expected" "$state/merge2.err" || { cat "$state/merge2.err"; fail "mer
 log "merge refused: $(cat "$state/merge2.err")"
 scancel "$merge_job" 2>/dev/null || true   # its dependency can no longer be met
 resubmit "$round2" 3
+[ -z "$references_job" ] || fail "the rerun of task 3 wrote the references again (job $references_job) instead of reusing them"
 log "round 2: task 3 alone as job $array_job, merge job $merge_job"
 wait_gone "$array_job" "the rerun of task 3"
 wait_gone "$merge_job" "round 2's merge job"

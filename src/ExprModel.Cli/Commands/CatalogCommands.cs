@@ -97,8 +97,10 @@ public static class CatalogCommands
             }
             foreach (var r in rows) ctx.Out.WriteLine($"{r.Symbol,-10} {Word(r.Species),-6} {r.Status,-13} {string.Join(" ", r.Entries)}");
             var v = GeneCoverage.VoltageGatedPoreCoverage(ctx.Catalog);
+            string unlinked = v.Unlinked.Count == 0 ? "none unlinked" : $"unlinked: {string.Join(", ", v.Unlinked)}";
+            string proxyOnly = v.ProxyOnly.Count > 0 ? $" (through a proxy only: {string.Join(", ", v.ProxyOnly)})" : "";
             ctx.Out.WriteLine($"{rows.Count} rows; {v.Group} linked to kinetics of their own family: {v.Linked} of {v.Total} ({v.Fraction:P0}); " +
-                $"unlinked: {string.Join(", ", v.Unlinked)}{(v.ProxyOnly.Count > 0 ? $" (through a proxy only: {string.Join(", ", v.ProxyOnly)})" : "")}");
+                $"{unlinked}{proxyOnly}");
             return 0;
         });
 

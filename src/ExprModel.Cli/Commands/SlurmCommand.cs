@@ -7,7 +7,8 @@ namespace ExprModel.Cli.Commands;
 /// <summary>
 /// exprmodel slurm-array: writes (and with --submit, submits) a SLURM job array that runs a batch in N shards, one
 /// task per shard, plus a merge job that waits for the whole array. The batch options come after "--" and are checked
-/// by the batch command itself, so every batch option, including ones added later, passes through unchanged.
+/// by the batch command itself, so every batch option, including ones added later, passes through unchanged. A per-cell
+/// batch without shrinkage gets a first job that writes the dataset references once, so each task reads only its cells.
 /// </summary>
 public static partial class SlurmCommand
 {
@@ -41,20 +42,28 @@ public static partial class SlurmCommand
         {
             Description = "exprmodel program the tasks run (default: this one; a bare name is looked up on PATH).",
         };
+        var referencesMemory = new Option<string?>("--references-memory")
+        {
+            Description = "Memory of the references job that reads the whole table once (per-cell batches; default: --memory).",
+        };
         var submit = new Option<bool>("--submit") { Description = "Submit with sbatch after writing (runs submit.sh)." };
         var batch = new Argument<string[]>("batch-options") { Description = "Options of exprmodel batch, after '--'.", Arity = ArgumentArity.ZeroOrMore };
-        foreach (var o in new Option[] { shards, dir, partition, account, time, memory, cpus, name, exe, submit }) c.Options.Add(o);
+        foreach (var o in new Option[] { shards, dir, partition, account, time, memory, referencesMemory, cpus, name, exe, submit }) c.Options.Add(o);
         c.Arguments.Add(batch);
         c.SetAction(p =>
         {
             var forwarded = p.GetValue(batch) ?? [];
-            CheckBatchOptions(forwarded);
+            bool ownReferences = CheckBatchOptions(forwarded);
             int n = p.GetValue(shards);
             if (n < 1 || n > 1_000_000) throw new CliException($"--shards: must be 1 to 1000000 (got {n}).");
+            var directory = Path.GetFullPath(p.GetValue(dir)!);
             var scripts = new SlurmArrayScripts
             {
                 Shards = n,
-                Directory = Path.GetFullPath(p.GetValue(dir)!),
+                Directory = directory,
+                ReferencesPath = ownReferences && n > 1 ? Path.Combine(directory, SlurmArrayScripts.ReferencesJson) : null,
+                ReferencesMemory = p.GetValue(referencesMemory) is { } rm ? (Memory().IsMatch(rm) ? rm
+                    : throw new CliException($"--references-memory '{rm}': use a whole number with an optional unit K, M, G or T, e.g. 4G.")) : null,
                 WorkingDirectory = Environment.CurrentDirectory,
                 Executable = p.GetValue(exe) is { } e ? [e.Contains('/') ? Path.GetFullPath(e) : e] : RunningExecutable(),
                 BatchOptions = forwarded,
@@ -78,11 +87,18 @@ public static partial class SlurmCommand
     }
 
     /// <summary>Parses the forwarded options with the batch command itself, so its checks (and options added later) apply as they are.</summary>
-    internal static void CheckBatchOptions(IReadOnlyList<string> forwarded)
+    /// <returns>
+    /// True when the scripts should write the dataset references first: a per-cell batch without shrinkage (the only kind
+    /// <c>--references</c> serves) whose options do not already name a references file.
+    /// </returns>
+    internal static bool CheckBatchOptions(IReadOnlyList<string> forwarded)
     {
         if (forwarded.Count == 0) throw new CliException("Give the batch options after '--', e.g. -- --expression counts.csv --per cell.");
         foreach (var t in forwarded)
         {
+            if (t == "--write-references" || t.StartsWith("--write-references=", StringComparison.Ordinal)
+                || t.StartsWith("--write-references:", StringComparison.Ordinal))
+                throw new CliException("batch options: --write-references is run by the references job the scripts add for a per-cell batch; leave it out.");
             foreach (var own in new[] { "--shard", "--out" })
                 if (t == own || t.StartsWith(own + "=", StringComparison.Ordinal) || t.StartsWith(own + ":", StringComparison.Ordinal))
                     throw new CliException($"batch options: {own} is set by each task itself (shard I/N, shards/shard-I-of-N.csv); leave it out.");
@@ -91,6 +107,7 @@ public static partial class SlurmCommand
         root.Subcommands.Add(ExpressionCommands.Create(new CliContext(TextWriter.Null, TextWriter.Null)).First(x => x.Name == "batch"));
         var parse = root.Parse(["batch", .. forwarded]);
         if (parse.Errors.Count > 0) throw new CliException("batch options: " + string.Join(" ", parse.Errors.Select(e => e.Message)));
+        return parse.GetValue<string>("--per") == "cell" && parse.GetValue<string>("--shrink") == "none" && parse.GetValue<string?>("--references") is null;
     }
 
     /// <summary>The running exprmodel: the program itself, or "dotnet exprmodel.dll" when run through the dotnet host.</summary>
@@ -108,10 +125,21 @@ public static partial class SlurmCommand
     {
         System.IO.Directory.CreateDirectory(Path.Combine(s.Directory, "shards"));
         System.IO.Directory.CreateDirectory(Path.Combine(s.Directory, "logs"));
-        foreach (var (file, text) in new[]
+        var scripts = new List<(string File, string Text)>
         {
             (SlurmArrayScripts.ArrayFile, s.ArrayScript()), (SlurmArrayScripts.MergeFile, s.MergeScript()), (SlurmArrayScripts.SubmitFile, s.SubmitScript()),
-        })
+        };
+        if (s.ReferencesPath is { } refs)
+        {
+            scripts.Insert(0, (SlurmArrayScripts.ReferencesFile, s.ReferencesScript()));
+            // References left by an earlier run may belong to other options: the new scripts write them again (submit.sh reuses them only on reruns).
+            if (File.Exists(refs))
+            {
+                File.Delete(refs);
+                ctx.Error.WriteLine($"removed {refs} of an earlier run: the references job writes it again for these options");
+            }
+        }
+        foreach (var (file, text) in scripts)
         {
             var path = Path.Combine(s.Directory, file);
             AtomicFile.WriteAllText(path, text);
@@ -120,6 +148,8 @@ public static partial class SlurmCommand
                     | UnixFileMode.GroupExecute | UnixFileMode.OtherRead | UnixFileMode.OtherExecute);
             ctx.Error.WriteLine($"wrote {path}");
         }
+        if (s.ReferencesPath is not null)
+            ctx.Error.WriteLine($"a references job first reads the whole table once and writes {s.ReferencesPath}; each task then reads only its own cells");
         ctx.Error.WriteLine($"{s.Shards} tasks write {s.ShardFile(1)} ... {s.ShardFile(s.Shards)}; the merge job writes {s.MergedPath}");
     }
 

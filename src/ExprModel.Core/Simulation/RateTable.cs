@@ -50,7 +50,12 @@ internal sealed unsafe class RateTable
         return q;
     }
 
-    public RateTable(CellKinetics cell, double dtMs)
+    public RateTable(CellKinetics cell, double dtMs) : this(cell, dtMs, RateTableCache.Shared)
+    {
+    }
+
+    /// <summary>The tables for <paramref name="cell"/> at step <paramref name="dtMs"/>, shared through <paramref name="cache"/>.</summary>
+    public RateTable(CellKinetics cell, double dtMs, RateTableCache cache)
     {
         DtMs = dtMs;
         Points = (int)Math.Round((MaxMv - MinMv) / ResolutionMv) + 1;
@@ -63,16 +68,12 @@ internal sealed unsafe class RateTable
                 CalciumDecay[g] = Math.Exp(-dtMs / cell.GateTimeConstantMs(g, 0));
                 continue;
             }
-            Data[g] = Shared.GetOrAdd((cell.Gates[g], cell.GateShiftMv[g], cell.GateTemperatureFactor[g], dtMs), _ => Build(cell, g, dtMs, Points));
-            if (Shared.Count > 4096) Shared.Clear();
+            // Tables depend only on the gate's kinetics, its voltage shift, its temperature factor and the step, not on
+            // density: models built from the same entries (a batch over an atlas) share them (bounded store: RateTableCache).
+            int points = Points;
+            Data[g] = cache.GetOrBuild(cell, g, dtMs, points, () => Build(cell, g, dtMs, points));
         }
     }
-
-    /// <summary>
-    /// Tables depend only on the gate's kinetics, its voltage shift, its temperature factor and the step, not on
-    /// density: models built from the same entries (a batch over an atlas) share them.
-    /// </summary>
-    private static readonly System.Collections.Concurrent.ConcurrentDictionary<(Kinetics.GateSpec, double, double, double), double[]> Shared = new();
 
     private static double[] Build(CellKinetics cell, int g, double dtMs, int points)
     {

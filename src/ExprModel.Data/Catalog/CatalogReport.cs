@@ -34,8 +34,9 @@ public static class CatalogReport
         if (pore.Total > 0)
         {
             string proxyNote = pore.ProxyOnly.Count > 0 ? $" ({string.Join(", ", pore.ProxyOnly)} feed another family's kinetics as proxies)" : "";
+            string unlinked = pore.Unlinked.Count == 0 ? "none unlinked" : $"unlinked: {string.Join(", ", pore.Unlinked)}";
             sb.Append(Inv, $"Gene coverage: {pore.Linked} of {pore.Total} {pore.Group} linked to kinetics of their own family ({pore.Fraction:P0}); " +
-                $"unlinked: {string.Join(", ", pore.Unlinked)}{proxyNote}.\n\n");
+                $"{unlinked}{proxyNote}.\n\n");
         }
         var proxies = catalog.GeneLinks.Where(l => l.IsProxy && l.Species == ExprModel.Core.Expression.Identifiers.Species.Human).ToArray();
         if (proxies.Length > 0)

@@ -141,6 +141,79 @@ public class SlurmArrayScriptsTests
         Assert.Contains("--dependency=afterok:43", File.ReadAllText(record));
     }
 
+    /// <summary>A stand-in sbatch on PATH: records its arguments (one per line, a blank line between calls) and answers job ids 41, 42, ...</summary>
+    private static (Dictionary<string, string> Env, string Record) FakeSbatch(string work)
+    {
+        var bin = Path.Combine(work, "bin");
+        Directory.CreateDirectory(bin);
+        var record = Path.Combine(work, "calls.txt");
+        File.WriteAllText(Path.Combine(bin, "sbatch"), $"#!/bin/bash\nn=$(grep -c '^$' {SlurmArrayScripts.Quote(record)} 2>/dev/null || true)\n" +
+            $"for a in \"$@\"; do printf '%s\\n' \"$a\" >> {SlurmArrayScripts.Quote(record)}; done\necho >> {SlurmArrayScripts.Quote(record)}\n" +
+            "echo \"$((41 + ${n:-0}));cluster\"\n");
+        File.SetUnixFileMode(Path.Combine(bin, "sbatch"), UnixFileMode.UserRead | UnixFileMode.UserExecute | UnixFileMode.UserWrite);
+        return (new Dictionary<string, string> { ["PATH"] = bin + ":" + Environment.GetEnvironmentVariable("PATH") }, record);
+    }
+
+    private static string[][] Calls(string record) =>
+        File.ReadAllText(record).Split("\n\n", StringSplitOptions.RemoveEmptyEntries).Select(c => c.Split('\n')).ToArray();
+
+    [Fact]
+    public void WithReferencesAFirstJobWritesThemAndEveryTaskReadsThem()
+    {
+        var dir = NewDirectory();
+        var work = NewDirectory("work 'dir' \"x\"");
+        var refs = Path.Combine(dir, SlurmArrayScripts.ReferencesJson);
+        var s = Scripts(dir, work, shards: 12) with { ReferencesPath = refs, ReferencesMemory = "8G" };
+        var array = Path.Combine(dir, "array.sh");
+        File.WriteAllText(array, s.ArrayScript());
+        var task = Bash(array, new Dictionary<string, string> { ["SLURM_ARRAY_TASK_ID"] = "3" });
+        Assert.True(task.Exit == 0, task.Err);
+        Assert.Equal(["batch", .. Nasty, "--references", refs, "--shard", "3/12", "--out", s.ShardFile(3)], task.Out.TrimEnd('\n').Split('\n')[1..]);
+
+        var script = s.ReferencesScript();
+        var directives = script.Split('\n').Where(l => l.StartsWith("#SBATCH ", StringComparison.Ordinal)).ToArray();
+        Assert.Equal(["#SBATCH --job-name=exprmodel-references", "#SBATCH --partition=short", "#SBATCH --account=lab-42", "#SBATCH --time=1-02:00:00",
+            "#SBATCH --mem=8G", "#SBATCH --cpus-per-task=2", "#SBATCH --ntasks=1"], directives);
+        var references = Path.Combine(dir, "references.sh");
+        File.WriteAllText(references, script);
+        var once = Bash(references);
+        Assert.True(once.Exit == 0, once.Err);
+        Assert.Equal([work, "batch", .. Nasty, "--write-references", refs], once.Out.TrimEnd('\n').Split('\n'));
+        // Without a memory of its own the references job takes the tasks'.
+        Assert.Contains("#SBATCH --mem=2G\n", (s with { ReferencesMemory = null }).ReferencesScript());
+    }
+
+    [Fact]
+    public void SubmitRunsTheReferencesJobFirstAndOnlyWhileItsFileIsMissing()
+    {
+        var dir = NewDirectory("out %x 'q'");
+        var work = NewDirectory();
+        var refs = Path.Combine(dir, SlurmArrayScripts.ReferencesJson);
+        var s = Scripts(dir, work) with { ReferencesPath = refs };
+        var submit = Path.Combine(dir, "submit.sh");
+        File.WriteAllText(submit, s.SubmitScript());
+        var (env, record) = FakeSbatch(work);
+        var (exit, output, err) = Bash(submit, env);
+        Assert.True(exit == 0, err);
+        Assert.Equal("references job 41 (reads the whole table once and writes references.json; the array starts after it succeeds)\n" +
+            "array job 42 (tasks 1-4 of 4); merge job 43 (starts after the array succeeds)\n", output);
+        var calls = Calls(record);
+        var logs = dir.Replace("%", "%%", StringComparison.Ordinal) + "/logs";
+        Assert.Equal(["--parsable", $"--chdir={dir}", $"--output={logs}/references-job-%j.out", Path.Combine(dir, "references.sh")], calls[0]);
+        Assert.Equal(["--parsable", "--dependency=afterok:41", "--array=1-4", $"--chdir={dir}", $"--output={logs}/task-%a-job-%A.out",
+            Path.Combine(dir, "array.sh")], calls[1]);
+        Assert.Equal(["--parsable", "--dependency=afterok:42", $"--chdir={dir}", $"--output={logs}/merge-job-%j.out", Path.Combine(dir, "merge.sh")], calls[2]);
+
+        // The references job wrote its file (atomically): a rerun of tasks 3 and 7 reuses it and waits for nothing but itself.
+        File.WriteAllText(refs, "{}");
+        var rerun = Bash(submit, env, "3,7");
+        Assert.True(rerun.Exit == 0, rerun.Err);
+        Assert.Equal($"references: reusing {refs}\narray job 44 (tasks 3,7 of 4); merge job 45 (starts after the array succeeds)\n", rerun.Out);
+        calls = Calls(record);
+        Assert.Equal(5, calls.Length);
+        Assert.Equal(["--parsable", "--array=3,7", $"--chdir={dir}", $"--output={logs}/task-%a-job-%A.out", Path.Combine(dir, "array.sh")], calls[3]);
+    }
+
     [Theory]
     [InlineData("plain", "'plain'")]
     [InlineData("it's", "'it'\\''s'")]

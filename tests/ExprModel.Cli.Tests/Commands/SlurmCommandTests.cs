@@ -36,6 +36,49 @@ public class SlurmCommandTests
     }
 
     [Fact]
+    public void APerCellBatchGetsAReferencesJobAndItsTasksReadOnlyTheirCells()
+    {
+        var dir = NewDirectory();
+        var (exit, _, err) = CliRunner.Run("slurm-array", "--shards", "4", "--dir", dir, "--memory", "1G", "--references-memory", "3G",
+            "--executable", "/opt/exprmodel/exprmodel", "--", "--expression", Demo("counts.csv"), "--per", "cell");
+        Assert.True(exit == 0, err);
+        // The run directory holds a quote, so the path is written quoted for bash.
+        var refs = SlurmArrayScripts.Quote(Path.Combine(dir, "references.json"));
+        var references = File.ReadAllText(Path.Combine(dir, "references.sh"));
+        Assert.Contains("#SBATCH --mem=3G\n", references);
+        Assert.Contains($"'batch' '--expression' '{Demo("counts.csv")}' '--per' 'cell' '--write-references' {refs}\n", references);
+        Assert.True(File.GetUnixFileMode(Path.Combine(dir, "references.sh")).HasFlag(UnixFileMode.UserExecute));
+        Assert.Contains($"'--per' 'cell' '--references' {refs} --shard", File.ReadAllText(Path.Combine(dir, "array.sh")));
+        Assert.Contains("references.sh", File.ReadAllText(Path.Combine(dir, "submit.sh")));
+    }
+
+    [Theory]
+    [InlineData("--per", "group")] // a group's model needs every cell of the group
+    [InlineData("--shrink", "group")] // the group priors need every cell of a group
+    [InlineData("--references", "mine.json")] // the user's own references are passed through as they are
+    public void OtherBatchesReadTheWholeTableWithoutAReferencesJob(string option, string value)
+    {
+        var dir = NewDirectory();
+        string[] per = option == "--per" ? [] : ["--per", "cell"];
+        var (exit, _, err) = CliRunner.Run(["slurm-array", "--shards", "4", "--dir", dir, "--", "--expression", "x.csv", .. per, option, value]);
+        Assert.True(exit == 0, err);
+        Assert.False(File.Exists(Path.Combine(dir, "references.sh")));
+        Assert.DoesNotContain("references.json", File.ReadAllText(Path.Combine(dir, "array.sh")));
+        Assert.DoesNotContain("references", File.ReadAllText(Path.Combine(dir, "submit.sh")));
+    }
+
+    [Fact]
+    public void WriteReferencesAmongTheBatchOptionsIsRefused()
+    {
+        var dir = NewDirectory();
+        var (exit, _, err) = CliRunner.Run("slurm-array", "--shards", "2", "--dir", dir, "--", "--expression", "x.csv", "--per", "cell",
+            "--write-references", "r.json");
+        Assert.Equal(1, exit);
+        Assert.Contains("--write-references is run by the references job", err);
+        Assert.False(Directory.Exists(dir));
+    }
+
+    [Fact]
     public void TheRunningProgramIsTheDefault()
     {
         var exe = SlurmCommand.RunningExecutable();

@@ -93,5 +93,8 @@ public class CatalogReportTests
         });
         Assert.DoesNotContain("SCN5A", figure.Unlinked); // non-neuronal genes are outside the denominator
         Assert.DoesNotContain("SCN10A", figure.Unlinked); // Nav1.8 has its own entry since issue 17
+        // The report names the unlinked genes, or says there are none (not an empty list).
+        string report = CatalogReport.Markdown(Built.Value);
+        Assert.Contains(figure.Unlinked.Count == 0 ? "; none unlinked." : "; unlinked: " + string.Join(", ", figure.Unlinked), report);
     }
 }

@@ -28,6 +28,7 @@ public sealed class WorkbenchTests : BunitContext
         Services.AddSingleton<ModelRunner>();
         Services.AddSingleton<SnapshotService>();
         Services.AddScoped<WorkspaceState>();
+        SetRendererInfo(new RendererInfo("Server", isInteractive: true)); // a live circuit, as in the browser
     }
 
     private IRenderedComponent<Workbench> Open(string preset)

@@ -3,6 +3,7 @@ using ExprModel.Data.Catalog;
 using ExprModel.Web.Hosting;
 using ExprModel.Web.Simulation;
 using ExprModel.Web.Workspace;
+using Microsoft.AspNetCore.Components;
 using Microsoft.Extensions.DependencyInjection;
 using Microsoft.Extensions.Options;
 
@@ -36,6 +37,7 @@ public abstract class WorkbenchAreaContext : BunitContext
         Services.AddSingleton(gate);
         Services.AddSingleton(Runner);
         Services.AddSingleton(Workspace);
+        SetRendererInfo(new RendererInfo("Server", isInteractive: true)); // a live circuit, as in the browser
     }
 
     /// <summary>A Workbench session on this context's runner, workspace and catalog, disposed with the context.</summary>
