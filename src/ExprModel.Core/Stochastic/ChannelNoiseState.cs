@@ -8,7 +8,8 @@ namespace ExprModel.Core.Stochastic;
 /// channels in each state (<see cref="ChannelPopulation"/>, binomial tracking) or the mean gates and mode fluctuations
 /// (<see cref="ChannelDiffusion"/> in a <see cref="DiffusionBank"/>, from <see cref="ChannelNoiseSettings.DiffusionFromChannels"/>
 /// channels). Subunit flip probabilities come from the deterministic kernel's rate table for the same step
-/// (<see cref="RateTable"/>: decay e = exp(-dt/tau) and drive x_inf (1 - e) on a 0.01 mV grid, interpolated linearly), so a step costs no exponential or rate evaluation per gate: opening = drive, closing = 1 - e - drive.
+/// (<see cref="RateTable"/>: decay e = exp(-dt/tau) and drive x_inf (1 - e) on a 0.01 mV grid, interpolated linearly), so a step costs
+/// no exponential or rate evaluation per gate: opening = drive, closing = 1 - e - drive.
 /// Concentration-gated gates take their steady state and decay per step as the deterministic loop does.
 /// </summary>
 internal sealed class ChannelNoiseState
