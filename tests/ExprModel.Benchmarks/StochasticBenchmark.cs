@@ -9,10 +9,11 @@ namespace ExprModel.Benchmarks;
 
 /// <summary>
 /// Mode "stochastic": (1) whole-cell channel noise for 1 s of a 20-gate model against the deterministic scalar run of the
-/// same model (target ratio &lt;= 5), with every binomial draw exact as well as with the default (normal approximation
-/// above an expected count of 25); (2) a patch of 100 channels x 1,000 sweeps x 50 ms (target &lt;= 2 s). The noisy and
-/// deterministic runs alternate and the ratio is the median of the pairs' ratios, so a load change on a shared machine
-/// hits both sides of a ratio alike.
+/// same model (target ratio &lt;= 5): the default (diffusion approximation for large channel types, binomial tracking for
+/// the rest), diffusion for every type, binomial tracking for every type, and binomial tracking with every draw exact;
+/// (2) a patch of 100 channels x 1,000 sweeps x 50 ms (target &lt;= 2 s). The noisy and deterministic runs alternate
+/// after a warm-up and the ratio is the median of the pairs' ratios, so a load change on a shared machine hits both
+/// sides of a ratio alike.
 /// </summary>
 public static class StochasticBenchmark
 {
@@ -35,11 +36,24 @@ public static class StochasticBenchmark
         var stim = new StepCurrent(100, 800, 2);
         var unitary = ChannelNoise.UnitaryConductances(model, e => catalog.UnitaryConductances.For(e).ConductancePs);
         var noise = new ChannelNoiseSettings { UnitaryConductancesPs = unitary, RecordEvery = 0 };
-        var counts = ChannelNoise.Run(cell, stim, 1, noise).ChannelCounts;
-        foreach (var (label, settings) in new[] { ("default draws", noise), ("all draws exact", noise with { ExactUpToMean = double.PositiveInfinity }) })
+        var probe = ChannelNoise.Run(cell, stim, 1, noise);
+        var counts = probe.ChannelCounts;
+        Console.WriteLine("channel types: " + string.Join(", ", model.Channels.Select((c, i) => $"{c.Entry.Id} {counts[i]:N0} ({probe.Methods[i]})")));
+        var runs = new[]
         {
-            Simulator.Run(cell, stim, 1000, SimulationSettings.SpikesOnly);
-            ChannelNoise.Run(cell, stim, 200, settings);
+            ($"default (diffusion from {noise.DiffusionFromChannels:N0} channels)", noise),
+            ("diffusion for every type", noise with { DiffusionFromChannels = 1 }),
+            ("binomial tracking only, default draws", noise with { DiffusionFromChannels = int.MaxValue }),
+            ("binomial tracking only, all draws exact", noise with { DiffusionFromChannels = int.MaxValue, ExactUpToMean = double.PositiveInfinity }),
+        };
+        foreach (var (label, settings) in runs)
+        {
+            // Warm-up until the JIT has settled (tiered compilation): a few full-length runs of each side.
+            for (int w = 0; w < 3; w++)
+            {
+                Simulator.Run(cell, stim, 1000, SimulationSettings.SpikesOnly);
+                ChannelNoise.Run(cell, stim, 1000, settings);
+            }
             var pairs = new (double Noisy, double Deterministic)[repeats];
             for (int r = 0; r < repeats; r++)
             {

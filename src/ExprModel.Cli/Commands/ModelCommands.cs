@@ -90,7 +90,14 @@ public static class ModelCommands
         {
             Description = "Stochastic channels: counts from density x area / the catalog's unitary conductance, seeded by --seed.",
         };
-        foreach (var o in new Option[] { protocol, amp, from, delay, duration, total, count, width, freq, sd, tau, seed, wave, every, currents, channelNoise })
+        var diffusionFrom = new Option<int>("--diffusion-from")
+        {
+            Description = "With --channel-noise: channel types with at least this many channels take the diffusion approximation, "
+                + "fewer binomial tracking (0 = tracking for every type).",
+            DefaultValueFactory = _ => ExprModel.Core.Stochastic.ChannelNoiseSettings.DefaultDiffusionFromChannels,
+        };
+        foreach (var o in new Option[] { protocol, amp, from, delay, duration, total, count, width, freq, sd, tau, seed, wave, every, currents, channelNoise,
+            diffusionFrom })
             c.Options.Add(o);
         c.SetAction(p =>
         {
@@ -119,6 +126,7 @@ public static class ModelCommands
                     Seed = p.GetValue(seed),
                     DtMs = p.GetValue(common.Dt),
                     RecordEvery = Math.Max(1, p.GetValue(every)),
+                    DiffusionFromChannels = DiffusionFrom(p.GetValue(diffusionFrom)),
                 };
                 var noisy = ExprModel.Core.Stochastic.ChannelNoise.Run(cell, stim, t, noise);
                 ctx.Emit(NoisyTraceCsv.Write(doc.Name, cell.Model, noisy, noise), p.GetValue(common.Out));
@@ -131,6 +139,14 @@ public static class ModelCommands
         });
         return c;
     }
+
+    /// <summary>--diffusion-from: 0 means binomial tracking for every type; negative values are refused.</summary>
+    internal static int DiffusionFrom(int value) => value switch
+    {
+        0 => int.MaxValue,
+        < 0 => throw new CliException($"--diffusion-from: must be 0 (tracking for every type) or a channel count (got {value})."),
+        _ => value,
+    };
 
     private static WaveformCurrent ReadWaveform(string path, CurrentUnit unit, Geometry g)
     {

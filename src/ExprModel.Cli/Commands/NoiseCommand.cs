@@ -35,10 +35,17 @@ public static class NoiseCommand
             Description = "Multiply every unitary conductance (fewer, larger channels above 1).",
             DefaultValueFactory = _ => 1,
         };
+        var diffusionFrom = new Option<int>("--diffusion-from")
+        {
+            Description = "Channel types with at least this many channels take the diffusion approximation, fewer binomial tracking "
+                + "(0 = tracking for every type).",
+            DefaultValueFactory = _ => ChannelNoiseSettings.DefaultDiffusionFromChannels,
+        };
         var out_ = new Option<string?>("--out") { Description = "Write to this file instead of standard output." };
         var db = new Option<string?>("--db") { Description = "Catalog database file." };
         c.Arguments.Add(model);
-        foreach (var o in new Option[] { preset, measure, amplitude, amplitudes, pulse, duration, trials, seed, scale, out_, db }) c.Options.Add(o);
+        foreach (var o in new Option[] { preset, measure, amplitude, amplitudes, pulse, duration, trials, seed, scale, diffusionFrom, out_, db })
+            c.Options.Add(o);
         c.SetAction(p =>
         {
             ctx.DatabasePath = p.GetValue(db);
@@ -55,10 +62,11 @@ public static class NoiseCommand
                 UnitaryConductancesPs = ChannelNoise.UnitaryConductances(cell.Model, e => ctx.Catalog.UnitaryConductances.For(e).ConductancePs * f),
                 Seed = p.GetValue(seed),
                 RecordEvery = 0,
+                DiffusionFromChannels = ModelCommands.DiffusionFrom(p.GetValue(diffusionFrom)),
             };
             int n = p.GetValue(trials);
             if (n < 1 || n > 100_000) throw new CliException($"--trials: must be 1 to 100000 (got {n}).");
-            string note = $"channel noise, {n} trials from seed {settings.Seed}, unitary conductances x {f}";
+            string note = $"channel noise ({settings.MethodSummary}), {n} trials from seed {settings.Seed}, unitary conductances x {f}";
             CsvTable table;
             switch (p.GetValue(measure))
             {

@@ -69,6 +69,6 @@ public static class ChannelNoise
                 volts[(s + 1) / every] = state.VoltageMv;
             }
         }
-        return new NoisyTrace(times, volts, spikes, state.Counts);
+        return new NoisyTrace(times, volts, spikes, state.Counts) { Methods = state.Methods };
     }
 }

@@ -4,10 +4,12 @@ using ExprModel.Core.Simulation;
 namespace ExprModel.Core.Stochastic;
 
 /// <summary>
-/// The running state of <see cref="ChannelNoise"/>: V, calcium, shell sodium and, per channel type, the number of channels
-/// in each state. Subunit flip probabilities come from the deterministic kernel's rate table for the same step
-/// (<see cref="RateTable"/>: decay e = exp(-dt/tau) and drive x_inf (1 - e) on a 0.01 mV grid, interpolated linearly),
-/// so a step costs no exponential or rate evaluation per gate: opening = drive, closing = 1 - e - drive.
+/// The running state of <see cref="ChannelNoise"/>: V, calcium, shell sodium and, per channel type, either the number of
+/// channels in each state (<see cref="ChannelPopulation"/>, binomial tracking) or the mean gates and mode fluctuations
+/// (<see cref="ChannelDiffusion"/> in a <see cref="DiffusionBank"/>, from <see cref="ChannelNoiseSettings.DiffusionFromChannels"/>
+/// channels). Subunit flip probabilities come from the deterministic kernel's rate table for the same step
+/// (<see cref="RateTable"/>: decay e = exp(-dt/tau) and drive x_inf (1 - e) on a 0.01 mV grid, interpolated linearly), so a step costs
+/// no exponential or rate evaluation per gate: opening = drive, closing = 1 - e - drive.
 /// Concentration-gated gates take their steady state and decay per step as the deterministic loop does.
 /// </summary>
 internal sealed class ChannelNoiseState
@@ -20,6 +22,9 @@ internal sealed class ChannelNoiseState
     private readonly RateTable _table;
     private readonly double[] _calciumRateExponent;
     private readonly ChannelPopulation?[] _populations;
+    /// <summary>Per channel on the diffusion path, its index in <see cref="_bank"/> (-1: not on that path).</summary>
+    private readonly int[] _diffusionIndex;
+    private readonly DiffusionBank? _bank;
     /// <summary>Per channel with a scheme: the cell gate index of each kinetic gate, and of each instantaneous gate.</summary>
     private readonly int[][] _kineticGates;
     private readonly int[][] _instantGates;
@@ -39,6 +44,7 @@ internal sealed class ChannelNoiseState
     public double CalciumMm { get; private set; }
     public double SodiumMm { get; private set; }
     public IReadOnlyList<int> Counts { get; }
+    public IReadOnlyList<ChannelNoiseMethod> Methods { get; }
 
     public ChannelNoiseState(CompiledCell cell, ChannelNoiseSettings settings)
     {
@@ -53,6 +59,10 @@ internal sealed class ChannelNoiseState
         double area = cell.Model.Geometry.AreaUm2;
         int channels = cell.ChannelCount;
         _populations = new ChannelPopulation?[channels];
+        _diffusionIndex = new int[channels];
+        Array.Fill(_diffusionIndex, -1);
+        var diffusions = new List<(ChannelDiffusion, int[], double[]?)>();
+        var methods = new ChannelNoiseMethod[channels];
         _kineticGates = new int[channels][];
         _instantGates = new int[channels][];
         _perChannelMsPerCm2 = new double[channels];
@@ -86,10 +96,21 @@ internal sealed class ChannelNoiseState
             counts[c] = ChannelNoise.ChannelCount(cell.Gbar[c], area, gamma);
             _perChannelMsPerCm2[c] = gamma / (10 * area);
             var steady = _kineticGates[c].Select(g => cell.GateSteadyState(g, VoltageMv, CalciumMm, SodiumMm)).ToArray();
-            _populations[c] = new ChannelPopulation(scheme, Multinomial(counts[c], scheme.StationaryOccupancy(steady)));
+            methods[c] = settings.MethodFor(counts[c]);
+            if (methods[c] == ChannelNoiseMethod.Diffusion)
+            {
+                bool byVoltage = _kineticGates[c].All(g => _plan.Update[g] == GateUpdate.Table);
+                _diffusionIndex[c] = diffusions.Count;
+                diffusions.Add((new ChannelDiffusion(scheme, counts[c], steady), _kineticGates[c],
+                    byVoltage ? ChannelDiffusion.Tabulate(scheme, _table, _kineticGates[c]) : null));
+            }
+            else
+                _populations[c] = new ChannelPopulation(scheme, Multinomial(counts[c], scheme.StationaryOccupancy(steady)));
         }
         _usedGates = [.. used];
+        _bank = diffusions.Count > 0 ? new DiffusionBank(diffusions, _rng) : null;
         Counts = counts;
+        Methods = methods;
     }
 
     private int[] Multinomial(int n, double[] probabilities)
@@ -113,6 +134,7 @@ internal sealed class ChannelNoiseState
         double v = VoltageMv, ca = CalciumMm;
         SubunitProbabilities(v, ca, SodiumMm);
         var power = cell.Kinetics.GatePower;
+        _bank?.Step(v, _opening, _closing, _rng);
         for (int c = 0; c < _g.Length; c++)
         {
             double open;
@@ -121,6 +143,10 @@ internal sealed class ChannelNoiseState
                 var kinetic = _kineticGates[c];
                 for (int i = 0; i < kinetic.Length; i++) population.Move(i, _opening[kinetic[i]], _closing[kinetic[i]], _rng, _exactUpTo);
                 open = population.OpenCount * _perChannelMsPerCm2[c];
+            }
+            else if (_diffusionIndex[c] >= 0)
+            {
+                open = _bank!.OpenFraction(_diffusionIndex[c]) * Counts[c] * _perChannelMsPerCm2[c];
             }
             else
             {

@@ -80,6 +80,18 @@ internal static class NormalZiggurat
         }
     }
 
+    /// <summary>
+    /// The rest of a draw whose point fell outside the next strip's width (see <see cref="Next"/>): the tail for strip 0,
+    /// the edge test otherwise, and on rejection a fresh draw; used by <see cref="StochasticRandom.FillNormals"/>.
+    /// </summary>
+    internal static double Finish(StochasticRandom rng, int strip, double z, bool negative)
+    {
+        double sign = negative ? -1 : 1;
+        if (strip == 0) return sign * Tail(rng);
+        double y = F[strip] + rng.NextDouble() * (F[strip + 1] - F[strip]);
+        return y < Density(z) ? sign * z : Next(rng);
+    }
+
     private static double Tail(StochasticRandom rng)
     {
         double r = TailStart;
