@@ -32,7 +32,7 @@ public static class Features
         double gSlope = Rest.SlopeConductanceForSteps(cell, rest.VoltageMv, notes);
         // The small passive step starts from rest like the rheobase search and does not depend on it: it runs on its own
         // thread while the search runs (same results, less waiting).
-        var passiveTask = firesAtRest ? null : Task.Run(() => Passive.MeasureStep(cell, s, rest, gSlope, cancel), cancel);
+        var passiveTask = firesAtRest ? null : Beside(() => Passive.MeasureStep(cell, s, rest, gSlope, cancel), cancel);
         (RheobaseResult Found, (double, double)? NotMonotone) search =
             firesAtRest ? (RheobaseResult.None, null) : Rheobase.Measure(cell, rest, gSlope, s, hint, notes, cancel);
         var found = search.Found;
@@ -83,7 +83,7 @@ public static class Features
         int? cls = null;
         // Sag runs on its own thread beside the f-I sweep (it starts from rest too).
         var sagTask = !first.FiresAtRest && s.IncludeSag && first.SlopeConductanceMsPerCm2 is { } gSlope
-            ? Task.Run(() => Sag.Measure(cell, s, rest, gSlope, cancel), cancel) : null;
+            ? Beside(() => Sag.Measure(cell, s, rest, gSlope, cancel), cancel) : null;
         if (first.RheobaseUaPerCm2 is { } rb)
         {
             (fi, extra) = FiCurve.MeasureToMultipleOfRheobase(cell, rb, s, rest, cancel);
@@ -114,4 +114,11 @@ public static class Features
             IsComplete = true,
         };
     }
+
+    /// <summary>
+    /// A side run that does not depend on the main search: on a thread of its own while the search runs, or computed
+    /// here and now when the caller keeps every core busy already (<see cref="Simulator.SpreadOverCores"/>).
+    /// </summary>
+    private static Task<T> Beside<T>(Func<T> run, CancellationToken cancel) =>
+        Simulator.SpreadOverCores ? Task.Run(run, cancel) : Task.FromResult(run());
 }

@@ -23,6 +23,20 @@ public static class Simulator
         set => ScalarOnly.Value = !value;
     }
 
+    private static readonly AsyncLocal<bool> OneCorePerCall = new();
+
+    /// <summary>
+    /// Whether a sweep spreads its SIMD groups (and the read-outs their side runs) over the machine's cores; true unless
+    /// the caller already keeps every core busy with calls of its own, as a batch over many cells does. There the inner
+    /// spreading only adds threads that wait on each other. Results never depend on it: lanes never mix, and the groups
+    /// are the same either way. Per logical call flow, like <see cref="UseSimd"/>.
+    /// </summary>
+    internal static bool SpreadOverCores
+    {
+        get => !OneCorePerCall.Value;
+        set => OneCorePerCall.Value = !value;
+    }
+
     /// <summary>The rate tables for this step size, kept with the cell's kinetics (so shared by cells that differ only in densities).</summary>
     internal static RateTable TableFor(CompiledCell cell, double dtMs) => cell.Kinetics.TableFor(dtMs);
 
@@ -86,7 +100,7 @@ public static class Simulator
         var table = TableFor(cell, settings.DtMs);
         var start = initial ?? cell.InitialState();
         var result = new SweepLane[stimuli.Count];
-        var options = new ParallelOptions { CancellationToken = cancel, MaxDegreeOfParallelism = Environment.ProcessorCount };
+        var options = new ParallelOptions { CancellationToken = cancel, MaxDegreeOfParallelism = SpreadOverCores ? Environment.ProcessorCount : 1 };
         if (SweepKernel.CanRun(cell) && UseSimd)
         {
             int width = SweepKernel.Width;

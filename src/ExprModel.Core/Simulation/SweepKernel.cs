@@ -192,7 +192,7 @@ internal static unsafe class SweepKernel
                 }
             }
         }
-        StepCounters.AddSimd(stepsRun);
+        StepCounters.AddSimd(stepsRun, lanes);
         end = baseline && watch.NeverCrossed ? checkpoints!.Start(steps, xs, v, vPrev, ca, na) : null;
         return watch.Lanes();
     }

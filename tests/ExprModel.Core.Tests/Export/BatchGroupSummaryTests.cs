@@ -1,7 +1,5 @@
-using ExprModel.Core.Expression;
 using ExprModel.Core.Export;
 using ExprModel.Core.Mapping;
-using ExprModel.Data.Catalog;
 using MathNet.Numerics.Statistics;
 
 namespace ExprModel.Core.Tests.Export;
@@ -12,9 +10,7 @@ public class BatchGroupSummaryTests
     [Fact]
     public void Group_spreads_are_the_mean_and_sample_sd_of_the_defined_readouts()
     {
-        var dir = CatalogLocator.FindSourceDirectory()!;
-        var data = ExpressionDataset.Read(TestCatalog.Catalog.ForMapping(), Path.Combine(dir, "demo", "counts.csv"), new ExpressionReadOptions(),
-            Path.Combine(dir, "demo", "metadata.csv"), "group");
+        var data = DemoCells.WithGroups();
         var groupByCell =
             data.Groups!.Members.SelectMany(m => m.Value.Select(i => (Cell: data.Table.CellIds[i], Group: m.Key))).ToDictionary(x => x.Cell, x => x.Group);
         // Every tenth cell: each group gets a few.

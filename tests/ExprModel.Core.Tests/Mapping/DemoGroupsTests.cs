@@ -1,8 +1,6 @@
 using ExprModel.Core.Analysis;
-using ExprModel.Core.Expression;
 using ExprModel.Core.Mapping;
 using ExprModel.Core.Simulation;
-using ExprModel.Data.Catalog;
 
 namespace ExprModel.Core.Tests.Mapping;
 
@@ -14,9 +12,7 @@ public class DemoGroupsTests
 {
     private static readonly Lazy<IReadOnlyDictionary<string, (CompiledCell Cell, CellReadouts Readouts)>> Groups = new(() =>
     {
-        var dir = CatalogLocator.FindSourceDirectory()!;
-        var data = ExpressionDataset.Read(TestCatalog.Catalog.ForMapping(), Path.Combine(dir, "demo", "counts.csv"), new ExpressionReadOptions(),
-            Path.Combine(dir, "demo", "metadata.csv"), "group");
+        var data = DemoCells.WithGroups();
         var report = data.Map();
         return data.Groups!.Members.Keys.ToDictionary(g => g, g =>
         {
@@ -56,9 +52,7 @@ public class DemoGroupsTests
     {
         // A passive response moves V with the current, so an input resistance is positive by definition (common
         // practice); where a cell's small step does not give one, the read-out must be missing and say why.
-        var dir = CatalogLocator.FindSourceDirectory()!;
-        var data = ExpressionDataset.Read(TestCatalog.Catalog.ForMapping(), Path.Combine(dir, "demo", "counts.csv"), new ExpressionReadOptions(),
-            Path.Combine(dir, "demo", "metadata.csv"), "group");
+        var data = DemoCells.WithGroups();
         var report = data.Map();
         var rows = BatchReadouts.Run(data.Table, report, data.Catalog, new DensityRule(), data.CellTargets, data.Groups, 0, data.CellTargets.Count);
         Assert.Equal(240, rows.Count);
