@@ -67,7 +67,7 @@ public static class ExpressionCommands
             $"orientation={p.GetValue(Orientation)}", $"unit={p.GetValue(Unit)}", $"log={p.GetValue(Log)}", $"matrix={p.GetValue(Matrix)}",
             $"reference={p.GetValue(ReferenceGroup) ?? "dataset median"}", $"group-by={p.GetValue(GroupBy)}",
             $"exclude={string.Join(",", p.GetValue(Exclude) ?? [])}", $"repoint={string.Join(",", p.GetValue(Repoint) ?? [])}",
-            $"weight={string.Join(",", p.GetValue(Weight) ?? [])}");
+            $"weight={string.Join(",", p.GetValue(Weight) ?? [])}", $"shrink={p.GetValue(Shrink)}");
 
         /// <summary>Reads, groups and maps the inputs with the library's <see cref="ExpressionDataset"/>; notes go to standard error.</summary>
         /// <param name="adjust">Changes the stated read options (a shard's cell range and the dataset's unit).</param>
@@ -102,10 +102,19 @@ public static class ExpressionCommands
         };
 
         /// <summary>The per-cell estimates the --shrink option asks for (null for none); its note goes to standard error.</summary>
-        public PerCellShrinkage? Shrinkage(ParseResult p, CliContext ctx, ExpressionDataset data, MappingReport report)
+        /// <param name="references">Dataset references holding the priors fitted over the whole table (a shard), and their file.</param>
+        public PerCellShrinkage? Shrinkage(ParseResult p, CliContext ctx, ExpressionDataset data, MappingReport report,
+            (DatasetReferences Refs, string Path)? references = null)
         {
             if (ShrinkMode(p) == ShrinkageMode.None) return null;
-            var s = data.Shrink(report);
+            PerCellShrinkage s;
+            if (references is var (refs, path))
+            {
+                if (refs.Shrinkage is null) throw new CliException($"{path}: holds no shrinkage priors (written without --shrink group); write them again.");
+                try { s = data.Shrink(report, refs.Shrinkage); }
+                catch (ArgumentException e) { throw new CliException($"{path}: {e.Message} Write them again for this run."); }
+            }
+            else s = data.Shrink(report);
             ctx.Error.WriteLine($"note: {s.Note}");
             return s;
         }
@@ -222,10 +231,15 @@ public static class ExpressionCommands
             if (p.GetValue(writeReferences) is { } referencesOut)
             {
                 var (all, allReport, allRule) = inputs.Load(p, ctx);
-                var computed = DatasetReferences.Compute(all, allReport, allRule, inputs.ReferenceSettings(p));
+                // With shrinkage the per-cell models divide shrunk values by references over shrunk values: store both.
+                var fitted = inputs.Shrinkage(p, ctx, all, allReport);
+                var computed = DatasetReferences.Compute(all, fitted?.Report ?? allReport, allRule, inputs.ReferenceSettings(p)) with
+                {
+                    Shrinkage = fitted?.Priors,
+                };
                 ctx.Emit(computed.ToJson(), referencesOut);
-                ctx.Error.WriteLine($"dataset references of {computed.Cells} cells ({computed.Entries.Count} entries, unit {computed.Unit}) " +
-                    $"written to {referencesOut}");
+                ctx.Error.WriteLine($"dataset references of {computed.Cells} cells ({computed.Entries.Count} entries, unit {computed.Unit}" +
+                    (fitted is null ? "" : $", shrinkage priors of {fitted.Priors.GeneCount} genes") + $") written to {referencesOut}");
                 return 0;
             }
             var (refs, range, total) = ShardRange(p, ctx, inputs, p.GetValue(references), p.GetValue(per), index, count);
@@ -241,7 +255,7 @@ public static class ExpressionCommands
             };
             int from = range?.Start ?? (int)((long)items.Count * (index - 1) / count), to = range?.End ?? (int)((long)items.Count * index / count);
             var progress = new Progress(ctx.Error, to - from);
-            var shrink = p.GetValue(per) == "cell" ? inputs.Shrinkage(p, ctx, data, report) : null;
+            var shrink = p.GetValue(per) == "cell" ? inputs.Shrinkage(p, ctx, data, report, refs is null ? null : (refs, p.GetValue(references)!)) : null;
             var results = BatchReadouts.Run(table, report, data.Catalog, rule, items, groups, from, to, progress.Report, default, shrink);
             progress.Finish();
             var csv = BatchTable.Create(results,
@@ -255,7 +269,7 @@ public static class ExpressionCommands
     /// <summary>
     /// With dataset references, a per-cell shard reads only its own cells: the table's cell count is read first
     /// (obs index shape, cell sidecar, header or an unparsed pass), then the shard's range. Without references the
-    /// whole table is read, as the dataset median needs every cell.
+    /// whole table is read, as the dataset median (and, with --shrink group, each group's priors) needs every cell.
     /// </summary>
     private static (DatasetReferences? Refs, CellRange? Range, int Total) ShardRange(ParseResult p, CliContext ctx, Inputs inputs, string? path,
         string? per, int index, int count)
@@ -268,8 +282,6 @@ public static class ExpressionCommands
             return (null, null, 0);
         }
         if (per != "cell") throw new CliException("--references: only with --per cell (a group's model needs all its cells).");
-        if (inputs.ShrinkMode(p) != ShrinkageMode.None)
-            throw new CliException("--references: not with --shrink group (the priors need every cell of a group).");
         if (!File.Exists(path)) throw new CliException($"{path}: no such references file.");
         DatasetReferences refs;
         try { refs = DatasetReferences.Read(path); }

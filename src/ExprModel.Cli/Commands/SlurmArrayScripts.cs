@@ -35,7 +35,7 @@ internal sealed record SlurmArrayScripts
     public int CpusPerTask { get; init; } = 1;
     /// <summary>
     /// Where the references job writes the dataset references the tasks read (absolute), or null when the tasks read
-    /// the whole table themselves (group models, shrinkage, or references the user passes among the batch options).
+    /// the whole table themselves (group models, or references the user passes among the batch options).
     /// </summary>
     public string? ReferencesPath { get; init; }
     /// <summary>Memory of the references job (it reads every cell); null takes <see cref="MemoryPerTask"/>.</summary>

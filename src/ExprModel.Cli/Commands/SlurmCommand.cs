@@ -8,7 +8,8 @@ namespace ExprModel.Cli.Commands;
 /// exprmodel slurm-array: writes (and with --submit, submits) a SLURM job array that runs a batch in N shards, one
 /// task per shard, plus a merge job that waits for the whole array. The batch options come after "--" and are checked
 /// by the batch command itself, so every batch option, including ones added later, passes through unchanged. A per-cell
-/// batch without shrinkage gets a first job that writes the dataset references once, so each task reads only its cells.
+/// batch (with or without shrinkage) gets a first job that writes the dataset references once (with --shrink group also
+/// the priors fitted over every cell), so each task reads only its cells.
 /// </summary>
 public static partial class SlurmCommand
 {
@@ -88,8 +89,9 @@ public static partial class SlurmCommand
 
     /// <summary>Parses the forwarded options with the batch command itself, so its checks (and options added later) apply as they are.</summary>
     /// <returns>
-    /// True when the scripts should write the dataset references first: a per-cell batch without shrinkage (the only kind
-    /// <c>--references</c> serves) whose options do not already name a references file.
+    /// True when the scripts should write the dataset references first: a per-cell batch (the only kind
+    /// <c>--references</c> serves; with --shrink group the references hold the priors) whose options do not already name a
+    /// references file.
     /// </returns>
     internal static bool CheckBatchOptions(IReadOnlyList<string> forwarded)
     {
@@ -107,7 +109,7 @@ public static partial class SlurmCommand
         root.Subcommands.Add(ExpressionCommands.Create(new CliContext(TextWriter.Null, TextWriter.Null)).First(x => x.Name == "batch"));
         var parse = root.Parse(["batch", .. forwarded]);
         if (parse.Errors.Count > 0) throw new CliException("batch options: " + string.Join(" ", parse.Errors.Select(e => e.Message)));
-        return parse.GetValue<string>("--per") == "cell" && parse.GetValue<string>("--shrink") == "none" && parse.GetValue<string?>("--references") is null;
+        return parse.GetValue<string>("--per") == "cell" && parse.GetValue<string?>("--references") is null;
     }
 
     /// <summary>The running exprmodel: the program itself, or "dotnet exprmodel.dll" when run through the dotnet host.</summary>

@@ -81,7 +81,10 @@ public sealed class ExpressionDataset
         shrinkage?.Build(Catalog, rule, target, Groups) ?? ExpressionModelBuilder.Build(Table, report, Catalog, rule, target, Groups);
 
     /// <summary>Per-cell expression shrunk towards each cell's group (<see cref="PerCellShrinkage"/>) for this mapping.</summary>
-    public PerCellShrinkage Shrink(MappingReport report) => new(Table, report, Groups);
+    /// <param name="priors">Priors fitted earlier over the whole table (a part of an atlas read by cell range); null fits them over this table.</param>
+    /// <exception cref="ArgumentException">A mapped gene or a cell's prior set has no stored prior (names which).</exception>
+    public PerCellShrinkage Shrink(MappingReport report, ShrinkagePriors? priors = null) =>
+        priors is null ? new(Table, report, Groups) : PerCellShrinkage.FromPriors(Table, report, Groups, priors);
 
     /// <summary>The targets a user can build: every group, or every cell when there is no grouping.</summary>
     public IReadOnlyList<ModelTarget> Targets => Groups is not null ? GroupTargets(Groups) : CellTargets;

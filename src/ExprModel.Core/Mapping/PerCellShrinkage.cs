@@ -13,6 +13,9 @@ namespace ExprModel.Core.Mapping;
 /// before; per-cell models are built from the shrunk ones, so their reference (the dataset median or a reference group's
 /// mean) is taken over shrunk values too, and each model's derivation carries both the raw and the shrunk values.
 /// Needs raw counts: for TPM, FPKM or CPM tables it does nothing and says so in <see cref="Note"/>.
+/// The priors are fitted over every cell of the table, or, for a part of an atlas, taken from those a full read fitted
+/// (<see cref="FromPriors"/>, stored in <see cref="DatasetReferences"/>): a cell's estimate needs only its prior, its own
+/// counts and its library size, so both ways give the same numbers.
 /// </summary>
 public sealed class PerCellShrinkage
 {
@@ -31,7 +34,24 @@ public sealed class PerCellShrinkage
     /// <summary>The mapping with every gene's per-cell values replaced by the shrunk estimates (the raw mapping when nothing applies).</summary>
     public MappingReport Report => _shrunk ?? _raw;
 
+    /// <summary>The fitted priors by gene and prior set (empty when nothing applies), to store for parts of the table.</summary>
+    public ShrinkagePriors Priors { get; } = new();
+
+    /// <summary>Fits every mapped gene's prior over each of <paramref name="groups"/> (and the cells without a group) of the table.</summary>
     public PerCellShrinkage(ExpressionTable table, MappingReport report, CellGroups? groups)
+        : this(table, report, groups, stored: null)
+    {
+    }
+
+    /// <summary>
+    /// Shrinks the cells of <paramref name="table"/> (typically a part of an atlas read by cell range) with priors fitted
+    /// earlier over the whole table, looked up by gene and by each cell's prior set (its group, as named in the part).
+    /// </summary>
+    /// <exception cref="ArgumentException">A mapped gene or a cell's prior set has no stored prior (names which).</exception>
+    public static PerCellShrinkage FromPriors(ExpressionTable table, MappingReport report, CellGroups? groups, ShrinkagePriors priors) =>
+        new(table, report, groups, priors);
+
+    private PerCellShrinkage(ExpressionTable table, MappingReport report, CellGroups? groups, ShrinkagePriors? stored)
     {
         _table = table;
         _raw = report;
@@ -60,9 +80,10 @@ public sealed class PerCellShrinkage
             var counts = table.Genes[g.TableId];
             var priors = new GammaPoissonPrior[counts.Length];
             var shrunk = new double[counts.Length];
-            foreach (var (_, members) in sets)
+            foreach (var (name, members) in sets)
             {
-                var prior = GammaPoissonShrinkage.EstimatePrior(counts, table.LibrarySizes, members);
+                var prior = stored?.Of(g.TableId, name) ?? GammaPoissonShrinkage.EstimatePrior(counts, table.LibrarySizes, members);
+                Priors.Add(g.TableId, name, prior);
                 foreach (int i in members)
                 {
                     priors[i] = prior;
