@@ -30,7 +30,8 @@ public class SlurmCommandTests
         Assert.Contains("#SBATCH --mem=1500M\n", array);
         Assert.Contains("#SBATCH --cpus-per-task=1\n", array);
         Assert.Contains($"exec '/opt/exprmodel/exprmodel' 'batch' '--expression' '{Demo("counts.csv")}' '--per' 'cell' '--shrink' 'group' " +
-            "'--exclude' 'Scn1a' --shard \"$((SLURM_ARRAY_TASK_ID))/8\"", array);
+            $"'--exclude' 'Scn1a' '--references' {SlurmArrayScripts.Quote(Path.Combine(dir, "references.json"))} --shard \"$((SLURM_ARRAY_TASK_ID))/8\"",
+            array);
         Assert.Contains("bash '", err);
         Assert.Contains("submit.sh'", err);
     }
@@ -52,9 +53,23 @@ public class SlurmCommandTests
         Assert.Contains("references.sh", File.ReadAllText(Path.Combine(dir, "submit.sh")));
     }
 
+    [Fact]
+    public void APerCellShrinkBatchGetsAReferencesJobThatAlsoFitsThePriors()
+    {
+        var dir = NewDirectory();
+        var (exit, _, err) = CliRunner.Run("slurm-array", "--shards", "4", "--dir", dir, "--executable", "/opt/exprmodel/exprmodel", "--",
+            "--expression", Demo("counts.csv"), "--metadata", Demo("metadata.csv"), "--group-by", "group", "--per", "cell", "--shrink", "group");
+        Assert.True(exit == 0, err);
+        var refs = SlurmArrayScripts.Quote(Path.Combine(dir, "references.json"));
+        string options = $"'batch' '--expression' '{Demo("counts.csv")}' '--metadata' '{Demo("metadata.csv")}' '--group-by' 'group' '--per' 'cell' " +
+            "'--shrink' 'group'";
+        Assert.Contains($"{options} '--write-references' {refs}\n", File.ReadAllText(Path.Combine(dir, "references.sh")));
+        Assert.Contains($"{options} '--references' {refs} --shard", File.ReadAllText(Path.Combine(dir, "array.sh")));
+        Assert.Contains("references.sh", File.ReadAllText(Path.Combine(dir, "submit.sh")));
+    }
+
     [Theory]
     [InlineData("--per", "group")] // a group's model needs every cell of the group
-    [InlineData("--shrink", "group")] // the group priors need every cell of a group
     [InlineData("--references", "mine.json")] // the user's own references are passed through as they are
     public void OtherBatchesReadTheWholeTableWithoutAReferencesJob(string option, string value)
     {

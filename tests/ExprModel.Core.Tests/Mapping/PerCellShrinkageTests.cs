@@ -86,6 +86,60 @@ public sealed class PerCellShrinkageTests : IDisposable
     }
 
     [Fact]
+    public void APartOfTheTableShrunkWithTheWholeTablesPriorsBuildsTheModelsTheWholeTableBuilds()
+    {
+        var (data, report) = DemoData.Value;
+        var whole = data.Shrink(report);
+        var rule = new DensityRule();
+        var references = DatasetReferences.Compute(data, whole.Report, rule, "settings");
+        // Cells 40..99: the end of one group, a whole group and the start of a third, read by range with the whole table's unit.
+        var part = ExpressionDataset.Read(Catalog, Demo("counts.csv"), new ExpressionReadOptions { Cells = new CellRange(40, 60), Unit = data.Table.Unit },
+            Demo("metadata.csv"), "group");
+        Assert.Equal(60, part.Table.CellIds.Count);
+        Assert.Equal(3, part.Groups!.Members.Count);
+        var partReport = part.Map();
+        var stored = part.Shrink(partReport, whole.Priors);
+        Assert.Equal(whole.Note, stored.Note);
+        var partRule = rule with { FixedReferences = references.Entries };
+        int differs = 0;
+        var own = part.Shrink(partReport); // priors fitted over the part alone
+        foreach (var cell in part.Table.CellIds)
+        {
+            var expected = data.Build(report, rule, ModelTarget.ForCell(cell), whole);
+            var built = part.Build(partReport, partRule, ModelTarget.ForCell(cell), stored);
+            Assert.Equal(Comparable(expected), Comparable(built)); // derivation, expressionEstimate included
+            Assert.Equal(expected.Warnings, built.Warnings);
+            if (Comparable(part.Build(partReport, partRule, ModelTarget.ForCell(cell), own)) != Comparable(expected)) differs++;
+        }
+        // The part's own priors (two of its three groups are cut) give other models: the stored priors are what make them equal.
+        Assert.True(differs > 0);
+    }
+
+    /// <summary>The model file without the derivation's unit note, which says how the unit was decided: detected over every
+    /// cell by the whole read, stated (from the references) for the part; the unit itself is compared.</summary>
+    private static string Comparable(BuiltModel built)
+    {
+        var o = JsonNode.Parse(built.Document.ToJson())!.AsObject();
+        Assert.NotNull(o["derivation"]!.AsObject()["unitNote"]);
+        o["derivation"]!.AsObject().Remove("unitNote");
+        return o.ToJsonString();
+    }
+
+    [Fact]
+    public void StoredPriorsMissingAGeneOrAGroupAreNamed()
+    {
+        var (data, report) = DemoData.Value;
+        var priors = new ShrinkagePriors();
+        var gene = report.Genes[0].TableId;
+        priors.Add(gene, "group T1-fast", new ExprModel.Core.Expression.Shrinkage.GammaPoissonPrior(10, 1, 48));
+        var e = Assert.Throws<ArgumentException>(() => data.Shrink(report, priors));
+        Assert.Contains($"no shrinkage prior for gene {gene} over group T2-adapting (stored: group T1-fast)", e.Message);
+        var other = new ShrinkagePriors();
+        other.Add("NotAGene", "group T1-fast", new ExprModel.Core.Expression.Shrinkage.GammaPoissonPrior(10, 1, 48));
+        Assert.Contains($"no shrinkage prior for gene {gene}", Assert.Throws<ArgumentException>(() => data.Shrink(report, other)).Message);
+    }
+
+    [Fact]
     public void TablesWithoutRawCountsAreNotShrunkAndSaySo()
     {
         var tpm = _files.Text("tpm.csv", "gene,c1,c2,c3\nScn1a,10.5,12.25,0.5\nKcnb1,5.5,0,2.75\n");
