@@ -33,6 +33,7 @@ public sealed class ShrinkagePriors
         if (!_byGene.TryGetValue(gene, out var sets))
             throw new ArgumentException($"no shrinkage prior for gene {gene} (the references were fitted over other genes).");
         return sets.TryGetValue(set, out var prior) ? prior
-            : throw new ArgumentException($"no shrinkage prior for gene {gene} over {set} (stored: {string.Join(", ", sets.Keys.Order(StringComparer.Ordinal))}).");
+            : throw new ArgumentException(
+                $"no shrinkage prior for gene {gene} over {set} (stored: {string.Join(", ", sets.Keys.Order(StringComparer.Ordinal))}).");
     }
 }
