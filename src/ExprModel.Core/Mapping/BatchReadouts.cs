@@ -19,12 +19,10 @@ public static class BatchReadouts
     {
         var rows = new BatchRow[to - from];
         int done = 0;
-        Parallel.For(from, to, new ParallelOptions { MaxDegreeOfParallelism = Environment.ProcessorCount, CancellationToken = cancel }, i =>
+        // Cells keep every core busy: each cell's sweeps and side runs stay on its own thread.
+        Simulator.ForEachItem(to - from, cancel, k =>
         {
-            // Cells keep every core busy: each cell's sweeps and side runs stay on its own thread (restored after, as the
-            // body may run on the caller's own thread).
-            bool spread = Simulator.SpreadOverCores;
-            Simulator.SpreadOverCores = false;
+            int i = from + k;
             var t = targets[i];
             string item = t.Group ?? t.CellId!;
             int cells = t.Group is { } g && groups is not null && groups.Members.TryGetValue(g, out var m) ? m.Length : 1;
@@ -44,10 +42,6 @@ public static class BatchReadouts
             catch (Exception e) when (e is ArgumentException or ModelException or SimulationBlowUpException)
             {
                 rows[i - from] = new BatchRow(i, item, cells, null, [], "failed: " + e.Message);
-            }
-            finally
-            {
-                Simulator.SpreadOverCores = spread;
             }
             progress?.Invoke(Interlocked.Increment(ref done));
         });

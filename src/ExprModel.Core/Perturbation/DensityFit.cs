@@ -1,5 +1,6 @@
 using ExprModel.Core.Cell;
 using ExprModel.Core.Models;
+using ExprModel.Core.Simulation;
 
 namespace ExprModel.Core.Perturbation;
 
@@ -112,7 +113,7 @@ public static class DensityFit
     {
         int n = x.Length, m = objective.Targets.Count;
         var cols = new double[2 * n][];
-        Parallel.For(0, 2 * n, new ParallelOptions { MaxDegreeOfParallelism = Environment.ProcessorCount, CancellationToken = cancel }, v =>
+        Simulator.ForEachItem(2 * n, cancel, v =>
         {
             var xv = (double[])x.Clone();
             xv[v / 2] += v % 2 == 0 ? -h : h;

@@ -1,6 +1,7 @@
-using MathNet.Numerics;
+using ExprModel.Core.Simulation;
 using MathNet.Numerics.LinearAlgebra;
 using MathNet.Numerics.Optimization;
+using MathNet.Numerics;
 
 namespace ExprModel.Core.Perturbation;
 
@@ -64,7 +65,7 @@ internal static class FitOptimisers
             var f0 = residuals(x);
             var columns = new double[n][];
             // Forward differences in ln(density), stepping across many grid points of the onset searches; inward at an upper bound.
-            Parallel.For(0, n, new ParallelOptions { MaxDegreeOfParallelism = Environment.ProcessorCount }, j =>
+            Simulator.ForEachItem(n, default, j =>
             {
                 double h = x[j] + s.JacobianStepLn <= objective.Upper[j] ? s.JacobianStepLn : -s.JacobianStepLn;
                 var xj = (double[])x.Clone();

@@ -1,5 +1,6 @@
 using ExprModel.Core.Analysis;
 using ExprModel.Core.Cell;
+using ExprModel.Core.Simulation;
 
 namespace ExprModel.Core.Perturbation;
 
@@ -26,7 +27,7 @@ public static class Knockdown
         if (intact.Failure is { } f) throw new ArgumentException("The intact model cannot be measured: " + f);
         var results = new ReadoutValues[targets.Count];
         int done = 0;
-        Parallel.For(0, targets.Count, new ParallelOptions { MaxDegreeOfParallelism = Environment.ProcessorCount, CancellationToken = cancel }, i =>
+        Simulator.ForEachItem(targets.Count, cancel, i =>
         {
             results[i] = probe.Measure(targets[i].Factors, cancel);
             progress?.Invoke(Interlocked.Increment(ref done), targets.Count);

@@ -1,4 +1,5 @@
 using ExprModel.Core.Cell;
+using ExprModel.Core.Simulation;
 
 namespace ExprModel.Core.Perturbation;
 
@@ -29,7 +30,7 @@ public static class Sensitivity
         }
         var results = new ReadoutValues[variants.Length];
         int done = 0;
-        Parallel.For(0, variants.Length, new ParallelOptions { MaxDegreeOfParallelism = Environment.ProcessorCount, CancellationToken = cancel }, i =>
+        Simulator.ForEachItem(variants.Length, cancel, i =>
         {
             results[i] = probe.Measure(variants[i], cancel);
             progress?.Invoke(Interlocked.Increment(ref done), variants.Length);

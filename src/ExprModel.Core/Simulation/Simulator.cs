@@ -37,6 +37,29 @@ public static class Simulator
         set => OneCorePerCall.Value = !value;
     }
 
+    /// <summary>
+    /// Runs <paramref name="body"/> for every item in parallel over the cores. When the items alone fill the cores (at least
+    /// two per core, so the last ones do not leave a core idle for long), each item's sweeps stay on its own thread
+    /// (<see cref="SpreadOverCores"/> false for the item, restored afterwards: the body may run on the caller's thread).
+    /// </summary>
+    internal static void ForEachItem(int count, CancellationToken cancel, Action<int> body)
+    {
+        bool fill = count >= 2 * Environment.ProcessorCount;
+        Parallel.For(0, count, new ParallelOptions { MaxDegreeOfParallelism = Environment.ProcessorCount, CancellationToken = cancel }, i =>
+        {
+            bool spread = SpreadOverCores;
+            if (fill) SpreadOverCores = false;
+            try
+            {
+                body(i);
+            }
+            finally
+            {
+                SpreadOverCores = spread;
+            }
+        });
+    }
+
     /// <summary>The rate tables for this step size, kept with the cell's kinetics (so shared by cells that differ only in densities).</summary>
     internal static RateTable TableFor(CompiledCell cell, double dtMs) => cell.Kinetics.TableFor(dtMs);
 

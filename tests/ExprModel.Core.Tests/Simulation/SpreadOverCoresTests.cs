@@ -43,6 +43,27 @@ public sealed class SpreadOverCoresTests
         Assert.Equal(spread.Notes, alone.Notes);
     }
 
+    [Fact]
+    public void ItemsThatFillTheCoresKeepTheirSweepsOnTheirOwnThreads()
+    {
+        int cores = Environment.ProcessorCount;
+        var many = new bool[2 * cores];
+        Simulator.ForEachItem(many.Length, default, i => many[i] = Simulator.SpreadOverCores);
+        Assert.All(many, spread => Assert.False(spread));
+        var few = new bool[2 * cores - 1];
+        Simulator.ForEachItem(few.Length, default, i => few[i] = Simulator.SpreadOverCores);
+        Assert.All(few, spread => Assert.True(spread));
+        Assert.True(Simulator.SpreadOverCores, "the caller's setting is kept");
+        // A caller that already keeps its sweeps on one thread keeps them there inside the items too.
+        var nested = OnOneCore(() =>
+        {
+            var inner = new bool[1];
+            Simulator.ForEachItem(1, default, i => inner[i] = Simulator.SpreadOverCores);
+            return inner[0];
+        });
+        Assert.False(nested);
+    }
+
     private static T OnOneCore<T>(Func<T> run)
     {
         Simulator.SpreadOverCores = false;
