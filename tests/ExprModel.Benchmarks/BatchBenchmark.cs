@@ -10,7 +10,7 @@ using ExprModel.Data.Catalog;
 namespace ExprModel.Benchmarks;
 
 /// <summary>
-/// "batch [--quick] [--dump FILE] [--stages N]": the standard batch read-outs for 1,000 cells (target: 30 s wall on this
+/// "batch [--quick] [--dump FILE] [--stages N] [--kernel N] [--alternatives N]": the standard batch read-outs for 1,000 cells (target: 30 s wall on this
 /// 2-core machine), their per-cell cost, and the wall time that cost projects for an atlas of 4 million cells on 10, 100
 /// and 1,000 cores. The cells are the demo dataset's cells resampled with a fixed seed (binomial thinning of their
 /// counts), so every model differs. "--dump FILE" writes every read-out of every cell at full precision (compare two
@@ -180,6 +180,83 @@ public static class BatchBenchmark
             cpu[i] += (Environment.CpuUsage.TotalTime - c0).TotalSeconds;
             simd[i] += StepCounters.SimdGroupSteps - v0;
             scalar[i] += StepCounters.ScalarSteps - s0;
+        }
+    }
+
+    /// <summary>
+    /// "--alternatives N": what faster batch settings would cost in accuracy, for the owner's decision (none is the
+    /// default). Every k-th of the 1,000 cells is measured with the batch settings and with each alternative: process CPU
+    /// per cell, and per read-out the cells where both define it and the median and 95th percentile of the difference
+    /// (relative for currents, rates and resistances; absolute for potentials and times), plus how often the
+    /// excitability class and "fires at all" agree. The batch settings themselves are the reference here.
+    /// </summary>
+    public static void Alternatives(int cells)
+    {
+        var (table, report, mapping) = Resampled(1000);
+        int stride = Math.Max(1, 1000 / cells);
+        var models = new List<CompiledCell>();
+        for (int c = 0; c < 1000; c += stride)
+        {
+            var built = ExpressionModelBuilder.Build(table, report, mapping, new DensityRule(), ModelTarget.ForCell(table.CellIds[c]), null);
+            models.Add(new CompiledCell(built.Document.ToCellModel((id, _) => mapping.Entry(id)!)));
+        }
+        var batch = ReadoutSettings.Batch;
+        var options = new (string Name, ReadoutSettings Settings)[]
+        {
+            ("batch settings (reference)", batch),
+            ("time step 50 us", batch with { Simulation = batch.Simulation with { DtMs = 0.05 } }),
+            ("5 f-I steps (8 lanes with the standard steps)", batch with { FiSteps = 5 }),
+            ("rheobase to 5 %, onset to 10 %", batch with { RheobaseRelativeTolerance = 0.05, ClassRelativeTolerance = 0.10 }),
+        };
+        CellReadouts?[]? reference = null;
+        double referenceCpu = 0;
+        Console.WriteLine($"batch alternatives: {models.Count} cells (every {stride}th of the 1,000); the first row is the reference");
+        foreach (var (name, settings) in options)
+        {
+            var results = new CellReadouts?[models.Count];
+            var cpu0 = Environment.CpuUsage.TotalTime;
+            Simulator.ForEachItem(models.Count, default, i =>
+            {
+                var cell = models[i];
+                var s = settings with { ExtraStepsUaPerCm2 = BatchReadouts.StandardStepsPa.Select(cell.Model.Geometry.PicoampsToDensity).ToArray() };
+                try { results[i] = Features.Measure(cell, s); }
+                catch (Exception e) when (e is ArgumentException or ModelException or SimulationBlowUpException) { results[i] = null; }
+            });
+            double cpu = (Environment.CpuUsage.TotalTime - cpu0).TotalSeconds * 1000 / models.Count;
+            if (reference is null)
+            {
+                (reference, referenceCpu) = (results, cpu);
+                Console.WriteLine($"  {name}: {cpu:F1} CPU ms per cell");
+                continue;
+            }
+            Console.WriteLine($"  {name}: {cpu:F1} CPU ms per cell ({cpu / referenceCpu:F2}x the reference)");
+            Compare(reference, results);
+        }
+    }
+
+    private static void Compare(CellReadouts?[] reference, CellReadouts?[] other)
+    {
+        static bool Absolute(string unit) => unit is "mV" or "ms";
+        var both = Enumerable.Range(0, reference.Length).Where(i => reference[i] is not null && other[i] is not null).ToArray();
+        int firingAgrees = both.Count(i => (reference[i]!.RheobaseUaPerCm2 is null) == (other[i]!.RheobaseUaPerCm2 is null));
+        var classed = both.Where(i => reference[i]!.ExcitabilityClass is not null && other[i]!.ExcitabilityClass is not null).ToArray();
+        int classAgrees = classed.Count(i => reference[i]!.ExcitabilityClass == other[i]!.ExcitabilityClass);
+        Console.WriteLine($"    fires at all: same in {firingAgrees} of {both.Length}; class: same in {classAgrees} of {classed.Length}");
+        var names = reference.First(r => r is not null)!.Rows().Select(r => (r.Name, r.Unit)).ToArray();
+        foreach (var (name, unit) in names)
+        {
+            if (name is "fires_at_rest" or "excitability_class") continue;
+            var d = new List<double>();
+            foreach (int i in both)
+            {
+                double? a = reference[i]!.Rows().First(r => r.Name == name).Value, b = other[i]!.Rows().First(r => r.Name == name).Value;
+                if (a is not { } x || b is not { } y) continue;
+                d.Add(Absolute(unit) ? Math.Abs(y - x) : Math.Abs(y - x) / Math.Max(Math.Abs(x), 1e-12));
+            }
+            if (d.Count == 0) continue;
+            d.Sort();
+            string how = Absolute(unit) ? unit : "relative";
+            Console.WriteLine($"    {name,-28} {d.Count,4} cells: median |diff| {d[d.Count / 2],9:G3}, 95th percentile {d[(int)(0.95 * (d.Count - 1))],9:G3} ({how})");
         }
     }
 

@@ -38,7 +38,8 @@ public static class Program
         if (args.Contains("batch"))
         {
             string? After(string flag) => args.SkipWhile(a => a != flag).Skip(1).FirstOrDefault();
-            if (args.Contains("--kernel")) BatchBenchmark.Kernel(int.Parse(After("--kernel") ?? "20", CultureInfo.InvariantCulture));
+            if (args.Contains("--alternatives")) BatchBenchmark.Alternatives(int.Parse(After("--alternatives") ?? "200", CultureInfo.InvariantCulture));
+            else if (args.Contains("--kernel")) BatchBenchmark.Kernel(int.Parse(After("--kernel") ?? "20", CultureInfo.InvariantCulture));
             else if (args.Contains("--stages")) BatchBenchmark.Stages(int.Parse(After("--stages") ?? "100", CultureInfo.InvariantCulture));
             else BatchBenchmark.Run(args.Contains("--quick") ? 200 : 1000, After("--dump"));
             return 0;
