@@ -256,7 +256,8 @@ public static class BatchBenchmark
             if (d.Count == 0) continue;
             d.Sort();
             string how = Absolute(unit) ? unit : "relative";
-            Console.WriteLine($"    {name,-28} {d.Count,4} cells: median |diff| {d[d.Count / 2],9:G3}, 95th percentile {d[(int)(0.95 * (d.Count - 1))],9:G3} ({how})");
+            double median = d[d.Count / 2], p95 = d[(int)(0.95 * (d.Count - 1))];
+            Console.WriteLine($"    {name,-28} {d.Count,4} cells: median |diff| {median,9:G3}, 95th percentile {p95,9:G3} ({how})");
         }
     }
 
