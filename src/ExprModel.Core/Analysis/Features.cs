@@ -30,8 +30,8 @@ public static class Features
 
         var (rest, firesAtRest) = Rest.Settle(cell, s, notes, cancel);
         double gSlope = Rest.SlopeConductanceForSteps(cell, rest.VoltageMv, notes);
-        // The small passive step starts from rest like the rheobase search and does not depend on it: it runs on its own
-        // thread while the search runs (same results, less waiting).
+        // The small passive step starts from rest like the rheobase search and does not depend on it: it runs beside the
+        // search (on its own thread unless the caller keeps the cores busy; same results either way).
         var passiveTask = firesAtRest ? null : Beside(() => Passive.MeasureStep(cell, s, rest, gSlope, cancel), cancel);
         (RheobaseResult Found, (double, double)? NotMonotone) search =
             firesAtRest ? (RheobaseResult.None, null) : Rheobase.Measure(cell, rest, gSlope, s, hint, notes, cancel);
@@ -81,7 +81,7 @@ public static class Features
         IReadOnlyList<FiPoint> extra = [];
         double? gain = null, onset = null, onsetRate = null, adaptStep = null, adaptRatio = null, adaptIndex = null, block = null, blockLimit = null;
         int? cls = null;
-        // Sag runs on its own thread beside the f-I sweep (it starts from rest too).
+        // Sag runs beside the f-I sweep (it starts from rest too).
         var sagTask = !first.FiresAtRest && s.IncludeSag && first.SlopeConductanceMsPerCm2 is { } gSlope
             ? Beside(() => Sag.Measure(cell, s, rest, gSlope, cancel), cancel) : null;
         if (first.RheobaseUaPerCm2 is { } rb)
